@@ -1,0 +1,7 @@
+/** Deckshare's solver: the public API. Import from here only. */
+export * from './units.js';
+export * from './trace.js';
+export * from './deck/schema.js';
+export * from './deck/units.js';
+export * from './deck/geometry.js';
+export * from './deck/section.js';
