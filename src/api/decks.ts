@@ -1,0 +1,34 @@
+/** Decks (saved configurations) of a project and their immutable versions. */
+import type { DeckInput } from '@shared/deck/schema';
+import { http } from './http';
+import type { DeckSummary, DeckVersion, VersionSummary } from './types';
+
+export async function listDecks(projectId: number): Promise<DeckSummary[]> {
+  const { decks } = await http.get<{ decks: DeckSummary[] }>(`/api/projects/${projectId}/decks`);
+  return decks;
+}
+
+export async function createDeck(
+  projectId: number,
+  input: { deck: DeckInput; message: string; placements?: unknown },
+): Promise<{ deck: DeckSummary; version: DeckVersion }> {
+  return http.post<{ deck: DeckSummary; version: DeckVersion }>(`/api/projects/${projectId}/decks`, input);
+}
+
+/** The deck with its versions, newest first. */
+export async function getDeck(deckId: number): Promise<{ deck: DeckSummary; versions: VersionSummary[] }> {
+  return http.get<{ deck: DeckSummary; versions: VersionSummary[] }>(`/api/decks/${deckId}`);
+}
+
+export async function saveVersion(
+  deckId: number,
+  input: { deck: DeckInput; message: string; basedOnVersionId?: number; placements?: unknown },
+): Promise<DeckVersion> {
+  const { version } = await http.post<{ version: DeckVersion }>(`/api/decks/${deckId}/versions`, input);
+  return version;
+}
+
+export async function getVersion(deckId: number, number: number): Promise<DeckVersion> {
+  const { version } = await http.get<{ version: DeckVersion }>(`/api/decks/${deckId}/versions/${number}`);
+  return version;
+}

@@ -1,0 +1,56 @@
+/** The client's screens. Every view is loaded lazily; guards in ./guards decide access. */
+import { createRouter, createWebHistory, type RouteRecordRaw, type Router, type RouterHistory } from 'vue-router';
+import { installGuards } from './guards';
+
+export const routes: RouteRecordRaw[] = [
+  { path: '/', redirect: { name: 'projects' } },
+  {
+    path: '/sign-in',
+    name: 'sign-in',
+    component: () => import('@/views/SignInView.vue'),
+    meta: { public: true, title: 'Sign in' },
+  },
+  {
+    path: '/change-password',
+    name: 'change-password',
+    component: () => import('@/views/ChangePasswordView.vue'),
+    meta: { title: 'Change password' },
+  },
+  {
+    path: '/projects',
+    name: 'projects',
+    component: () => import('@/views/ProjectsView.vue'),
+    meta: { title: 'Projects' },
+  },
+  {
+    path: '/projects/:projectId(\\d+)',
+    name: 'project',
+    component: () => import('@/views/ProjectView.vue'),
+    props: (route) => ({ projectId: Number(route.params.projectId) }),
+    meta: { title: 'Project' },
+  },
+  {
+    path: '/admin/users',
+    name: 'admin-users',
+    component: () => import('@/views/AdminUsersView.vue'),
+    meta: { title: 'Users', roles: ['admin'] },
+  },
+  {
+    path: '/not-allowed',
+    name: 'not-allowed',
+    component: () => import('@/views/NotAllowedView.vue'),
+    meta: { title: 'Not allowed' },
+  },
+  {
+    path: '/:pathMatch(.*)*',
+    name: 'not-found',
+    component: () => import('@/views/NotFoundView.vue'),
+    meta: { title: 'Not found' },
+  },
+];
+
+export function createAppRouter(history: RouterHistory = createWebHistory()): Router {
+  const router = createRouter({ history, routes });
+  installGuards(router);
+  return router;
+}
