@@ -5,3 +5,4 @@ export * from './deck/schema.js';
 export * from './deck/units.js';
 export * from './deck/geometry.js';
 export * from './deck/section.js';
+export * from './version.js';

@@ -1,0 +1,27 @@
+/** Request schemas for decks and their versions. The deck itself is validated by the shared
+ *  deck schema, so the API, the forms and the command-line tool apply the same rules. */
+import { z } from 'zod';
+import { deckSchema } from '../../../shared/deck/schema.js';
+
+const message = z.string({ error: 'message must be text' }).trim().min(1, 'a save message is required').max(500, 'message must be at most 500 characters');
+
+/** Saved lane and wheel placements: free-form JSON, bounded in size by the body limit. */
+const placements = z.unknown().optional();
+
+export const deckCreateBody = z.strictObject({
+  deck: deckSchema,
+  message,
+  placements,
+});
+
+export const versionCreateBody = z.strictObject({
+  deck: deckSchema,
+  message,
+  basedOnVersionId: z.number().int().positive().optional(),
+  placements,
+});
+
+export const versionParams = z.object({
+  deckId: z.coerce.number().int('deckId must be a whole number').positive('deckId must be a positive id'),
+  number: z.coerce.number().int('version number must be a whole number').positive('version number must be positive'),
+});

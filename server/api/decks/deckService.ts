@@ -1,0 +1,149 @@
+/**
+ * Decks and their versions. A save always inserts a new version row (numbered 1, 2, …) with
+ * the code-method results computed from it; nothing is overwritten (database triggers refuse
+ * updates and deletes of versions and results). Firm scoping goes through the project.
+ */
+import { and, desc, eq, max } from 'drizzle-orm';
+import type { Db } from '../../db/client.js';
+import { analysisResults, decks, deckVersions, projects, users, type DeckRow, type DeckVersionRow } from '../../db/schema.js';
+import type { Deck } from '../../../shared/deck/schema.js';
+import { ApiError } from '../../middleware/errors.js';
+import { recordAudit } from '../audit/auditService.js';
+import { findProject } from '../projects/projectService.js';
+import { computeStoredResults } from './analysis.js';
+
+interface Actor {
+  id: number;
+  firmId: number;
+}
+
+function userRef(db: Db, id: number) {
+  return db.select({ id: users.id, name: users.name }).from(users).where(eq(users.id, id)).get() ?? { id, name: '' };
+}
+
+function versionSummary(db: Db, v: DeckVersionRow) {
+  return {
+    id: v.id,
+    deckId: v.deckId,
+    number: v.number,
+    message: v.message,
+    createdAt: v.createdAt,
+    createdBy: userRef(db, v.createdBy),
+    basedOnVersionId: v.basedOnVersionId,
+  };
+}
+
+function latestVersion(db: Db, deckId: number): DeckVersionRow {
+  const v = db.select().from(deckVersions).where(eq(deckVersions.deckId, deckId)).orderBy(desc(deckVersions.number)).limit(1).get();
+  if (!v) throw new Error(`deck ${deckId} has no version`);
+  return v;
+}
+
+function deckSummary(db: Db, d: DeckRow) {
+  return {
+    id: d.id,
+    projectId: d.projectId,
+    name: d.name,
+    createdAt: d.createdAt,
+    createdBy: userRef(db, d.createdBy),
+    latestVersion: versionSummary(db, latestVersion(db, d.id)),
+  };
+}
+
+function fullVersion(db: Db, v: DeckVersionRow) {
+  const results = db.select().from(analysisResults).where(eq(analysisResults.versionId, v.id)).all();
+  return {
+    ...versionSummary(db, v),
+    deck: JSON.parse(v.deckJson) as Deck,
+    placements: v.placementsJson === null ? null : (JSON.parse(v.placementsJson) as unknown),
+    results: results.map((r) => ({ method: r.method, solverVersion: r.solverVersion, data: JSON.parse(r.dataJson) as unknown, createdAt: r.createdAt })),
+  };
+}
+
+/** The deck if its project belongs to the firm; otherwise 404. */
+export function findDeck(db: Db, firmId: number, deckId: number): DeckRow {
+  const row = db
+    .select({ d: decks })
+    .from(decks)
+    .innerJoin(projects, eq(projects.id, decks.projectId))
+    .where(and(eq(decks.id, deckId), eq(projects.firmId, firmId)))
+    .get();
+  if (!row) throw ApiError.notFound('deck');
+  return row.d;
+}
+
+export function listDecks(db: Db, firmId: number, projectId: number) {
+  findProject(db, firmId, projectId);
+  return db.select().from(decks).where(eq(decks.projectId, projectId)).orderBy(desc(decks.id)).all().map((d) => deckSummary(db, d));
+}
+
+export function getDeck(db: Db, firmId: number, deckId: number) {
+  const d = findDeck(db, firmId, deckId);
+  const versions = db.select().from(deckVersions).where(eq(deckVersions.deckId, d.id)).orderBy(desc(deckVersions.number)).all();
+  return { deck: deckSummary(db, d), versions: versions.map((v) => versionSummary(db, v)) };
+}
+
+export function getVersion(db: Db, firmId: number, deckId: number, number: number) {
+  findDeck(db, firmId, deckId);
+  const v = db.select().from(deckVersions).where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number))).get();
+  if (!v) throw ApiError.notFound(`version ${number} of deck ${deckId}`);
+  return fullVersion(db, v);
+}
+
+interface SaveInput {
+  deck: Deck;
+  message: string;
+  placements?: unknown;
+  basedOnVersionId?: number;
+}
+
+function insertVersion(tx: Parameters<Parameters<Db['transaction']>[0]>[0], deckId: number, actor: Actor, input: SaveInput, results: ReturnType<typeof computeStoredResults>) {
+  const top = tx.select({ n: max(deckVersions.number) }).from(deckVersions).where(eq(deckVersions.deckId, deckId)).get();
+  const v = tx
+    .insert(deckVersions)
+    .values({
+      deckId,
+      number: (top?.n ?? 0) + 1,
+      deckJson: JSON.stringify(input.deck),
+      placementsJson: input.placements === undefined ? null : JSON.stringify(input.placements),
+      message: input.message,
+      basedOnVersionId: input.basedOnVersionId ?? null,
+      createdBy: actor.id,
+    })
+    .returning()
+    .get();
+  for (const r of results) {
+    tx.insert(analysisResults).values({ versionId: v.id, method: r.method, solverVersion: r.solverVersion, dataJson: JSON.stringify(r.data) }).run();
+  }
+  return v;
+}
+
+export function createDeck(db: Db, actor: Actor, projectId: number, input: SaveInput) {
+  const project = findProject(db, actor.firmId, projectId);
+  if (project.archived) throw ApiError.conflict('the project is archived: restore it before adding decks');
+  const results = computeStoredResults(input.deck);
+  const { d, v } = db.transaction((tx) => {
+    const d = tx.insert(decks).values({ projectId, name: input.deck.name, createdBy: actor.id }).returning().get();
+    const v = insertVersion(tx, d.id, actor, input, results);
+    recordAudit(tx, { firmId: actor.firmId, projectId, actorId: actor.id, action: 'create', entityType: 'deck', entityId: d.id, summary: `created deck “${d.name}” (version 1: ${input.message})` });
+    return { d, v };
+  });
+  return { deck: deckSummary(db, d), version: fullVersion(db, v) };
+}
+
+export function saveVersion(db: Db, actor: Actor, deckId: number, input: SaveInput) {
+  const d = findDeck(db, actor.firmId, deckId);
+  const project = findProject(db, actor.firmId, d.projectId);
+  if (project.archived) throw ApiError.conflict('the project is archived: restore it before saving');
+  if (input.basedOnVersionId !== undefined) {
+    const base = db.select().from(deckVersions).where(and(eq(deckVersions.id, input.basedOnVersionId), eq(deckVersions.deckId, deckId))).get();
+    if (!base) throw ApiError.badRequest('basedOnVersionId: no such version of this deck', [{ path: 'body.basedOnVersionId', message: 'no such version of this deck' }]);
+  }
+  const results = computeStoredResults(input.deck);
+  const v = db.transaction((tx) => {
+    const v = insertVersion(tx, deckId, actor, input, results);
+    recordAudit(tx, { firmId: actor.firmId, projectId: d.projectId, actorId: actor.id, action: 'save-version', entityType: 'deck', entityId: deckId, summary: `saved version ${v.number} of deck “${d.name}”: ${input.message}` });
+    return v;
+  });
+  return fullVersion(db, v);
+}

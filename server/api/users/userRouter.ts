@@ -1,0 +1,24 @@
+/** /api/admin/users — the firm's users; admins only. */
+import { Router } from 'express';
+import type { Db } from '../../db/client.js';
+import { allow } from '../../auth/passport.js';
+import { idParams, validate } from '../../middleware/validate.js';
+import { createUser, listUsers, resetPassword, updateUser, userCreateBody, userUpdateBody } from './userService.js';
+
+export function userRouter(db: Db): Router {
+  const r = Router();
+  r.use(allow('users:manage'));
+  r.get('/', (req, res) => {
+    res.json({ users: listUsers(db, req.user!.firmId) });
+  });
+  r.post('/', validate({ body: userCreateBody }), async (req, res) => {
+    res.status(201).json(await createUser(db, req.user!, res.locals.body));
+  });
+  r.patch('/:userId', validate({ params: idParams('userId'), body: userUpdateBody }), (req, res) => {
+    res.json({ user: updateUser(db, req.user!, res.locals.params.userId, res.locals.body) });
+  });
+  r.post('/:userId/reset-password', validate({ params: idParams('userId') }), async (req, res) => {
+    res.json(await resetPassword(db, req.user!, res.locals.params.userId));
+  });
+  return r;
+}

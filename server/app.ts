@@ -1,0 +1,84 @@
+/**
+ * The Express application factory. Tests import `createApp` with their own database and
+ * configuration; `server/index.ts` only listens.
+ *
+ * Order: security headers → request log → cookies → JSON body (size-limited) → /api routes
+ * (health open; auth; everything else behind authentication, CSRF and the temporary-password
+ * check, each route declaring its permitted roles) → API 404 → built client with SPA
+ * fallback → one error handler.
+ */
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import cookieParser from 'cookie-parser';
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { sql } from 'drizzle-orm';
+import type { Config } from './config/env.js';
+import type { Db } from './db/client.js';
+import { authenticate, configurePassport, requireCsrf, requirePasswordChanged } from './auth/passport.js';
+import { authRouter } from './auth/authRouter.js';
+import { projectRouter } from './api/projects/projectRouter.js';
+import { deckRouter, projectDecksRouter } from './api/decks/deckRouter.js';
+import { userRouter } from './api/users/userRouter.js';
+import { errorHandler, notFoundHandler } from './middleware/errors.js';
+import { SOLVER_VERSION } from '../shared/version.js';
+
+export interface AppDeps {
+  db: Db;
+  config: Config;
+  log?: (line: string) => void;
+}
+
+export function createApp({ db, config, log = (l) => console.log(l) }: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'script-src': ["'self'"],
+          'worker-src': ["'self'", 'blob:'],
+          'img-src': ["'self'", 'data:', 'blob:'],
+        },
+      },
+    }),
+  );
+  if (config.logRequests) {
+    app.use((req, res, next) => {
+      const t0 = process.hrtime.bigint();
+      res.on('finish', () => {
+        const ms = Number(process.hrtime.bigint() - t0) / 1e6;
+        log(`${new Date().toISOString()} ${req.method} ${req.originalUrl} ${res.statusCode} ${ms.toFixed(1)} ms`);
+      });
+      next();
+    });
+  }
+  app.use(cookieParser());
+  app.use('/api', express.json({ limit: config.jsonLimit }));
+
+  const pp = configurePassport(db, config);
+  const api = express.Router();
+
+  // who: anyone
+  api.get('/health', (_req, res) => {
+    db.get(sql`select 1`);
+    res.json({ status: 'ok', version: SOLVER_VERSION, database: 'ok' });
+  });
+  api.use('/auth', authRouter(db, config, pp));
+  api.use(authenticate(pp), requireCsrf, requirePasswordChanged);
+  api.use('/projects', projectRouter(db));
+  api.use('/projects/:projectId/decks', projectDecksRouter(db));
+  api.use('/decks', deckRouter(db));
+  api.use('/admin/users', userRouter(db));
+  api.use(notFoundHandler);
+  app.use('/api', api);
+
+  const dist = resolve(config.clientDist);
+  if (existsSync(resolve(dist, 'index.html'))) {
+    app.use(express.static(dist, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(resolve(dist, 'index.html')));
+  }
+  app.use(errorHandler(log));
+  return app;
+}

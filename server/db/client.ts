@@ -1,0 +1,29 @@
+/**
+ * Opens the SQLite database (better-sqlite3) with WAL journaling, foreign keys and a busy
+ * timeout, applies the committed migrations, and returns the Drizzle handle.
+ */
+import Database from 'better-sqlite3';
+import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3';
+import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
+import { mkdirSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import * as schema from './schema.js';
+
+export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
+
+const MIGRATIONS = resolve(dirname(fileURLToPath(import.meta.url)), 'migrations');
+
+/** `url`: a file path (optionally prefixed "file:") or ":memory:". */
+export function openDatabase(url: string): Db {
+  const path = url.startsWith('file:') ? url.slice(5) : url;
+  if (path !== ':memory:') mkdirSync(dirname(resolve(path)), { recursive: true });
+  const sqlite = new Database(path);
+  sqlite.pragma('journal_mode = WAL');
+  sqlite.pragma('foreign_keys = ON');
+  sqlite.pragma('busy_timeout = 5000');
+  sqlite.pragma('synchronous = NORMAL');
+  const db = drizzle(sqlite, { schema }) as Db;
+  migrate(db, { migrationsFolder: MIGRATIONS });
+  return db;
+}

@@ -1,0 +1,67 @@
+/**
+ * Demo data for an empty database: the invented firm "Larchmont Ridge Engineering", one user
+ * per role, and two invented bridge projects. Seeding never touches a database that already
+ * has a firm. Demo passwords are public (README): never seed a production database.
+ */
+import { count } from 'drizzle-orm';
+import type { Db } from './client.js';
+import { firms, projects, userRoles, users, type Role } from './schema.js';
+import { hashPassword } from '../auth/password.js';
+import { recordAudit } from '../api/audit/auditService.js';
+
+export const DEMO_PASSWORD = 'deckshare-demo-1';
+export const DEMO_FIRM = 'Larchmont Ridge Engineering';
+
+export const DEMO_USERS: { email: string; name: string; roles: Role[] }[] = [
+  { email: 'admin@larchmont-ridge.example', name: 'Avery Lindqvist', roles: ['admin'] },
+  { email: 'designer@larchmont-ridge.example', name: 'Dana Okonkwo', roles: ['designer'] },
+  { email: 'reviewer@larchmont-ridge.example', name: 'Ruth Castellanos', roles: ['reviewer'] },
+  { email: 'instructor@larchmont-ridge.example', name: 'Ingrid Marsh', roles: ['instructor', 'reviewer'] },
+  { email: 'trainee@larchmont-ridge.example', name: 'Theo Brandt', roles: ['trainee'] },
+];
+
+export const DEMO_PROJECTS = [
+  {
+    name: 'Quarry Creek Overpass',
+    ownerAgency: 'Harlow County Highway Department',
+    location: 'County Road 14 over Quarry Creek, Harlow County',
+    units: 'US' as const,
+    notes: 'Replacement of a two-span timber structure; single 110 ft span on precast bulb-tee girders, 20° skew.',
+  },
+  {
+    name: 'Ashgrove Street Viaduct',
+    ownerAgency: 'City of Fenmore Public Works',
+    location: 'Ashgrove Street over the Fenmore rail yard',
+    units: 'SI' as const,
+    notes: 'Three-span continuous steel plate girders; widening study for a fourth lane.',
+  },
+];
+
+/** Seeds when the database has no firm; returns true when it seeded. */
+export async function seedDemo(db: Db): Promise<boolean> {
+  const n = db.select({ n: count() }).from(firms).get();
+  if ((n?.n ?? 0) > 0) return false;
+  const hash = await hashPassword(DEMO_PASSWORD);
+  db.transaction((tx) => {
+    const firm = tx.insert(firms).values({ name: DEMO_FIRM }).returning().get();
+    const ids: number[] = [];
+    for (const u of DEMO_USERS) {
+      const row = tx.insert(users).values({ firmId: firm.id, email: u.email, name: u.name, passwordHash: hash, mustChangePassword: false }).returning().get();
+      ids.push(row.id);
+      for (const role of u.roles) tx.insert(userRoles).values({ userId: row.id, role }).run();
+    }
+    const designerId = ids[1];
+    for (const p of DEMO_PROJECTS) {
+      const row = tx.insert(projects).values({ ...p, firmId: firm.id, createdBy: designerId }).returning().get();
+      recordAudit(tx, { firmId: firm.id, projectId: row.id, actorId: designerId, action: 'create', entityType: 'project', entityId: row.id, summary: `created project “${row.name}” (demo data)` });
+    }
+  });
+  return true;
+}
+
+export function demoCredentialsText(): string {
+  return [
+    `Demo firm "${DEMO_FIRM}" — every demo user's password is ${DEMO_PASSWORD}`,
+    ...DEMO_USERS.map((u) => `  ${u.roles.join(' + ').padEnd(22)} ${u.email}`),
+  ].join('\n');
+}

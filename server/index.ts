@@ -1,0 +1,42 @@
+/** Starts the server: reads the environment, opens (and migrates) the database, seeds demo
+ *  data on an empty database, listens, and shuts down cleanly on SIGINT/SIGTERM. */
+import { loadConfig } from './config/env.js';
+import { openDatabase } from './db/client.js';
+import { demoCredentialsText, seedDemo } from './db/seed.js';
+import { createApp } from './app.js';
+
+async function main() {
+  const config = loadConfig();
+  const db = openDatabase(config.databaseUrl);
+  if (config.seedDemo && (await seedDemo(db))) {
+    console.log(`Seeded an empty database with demo data.\n${demoCredentialsText()}`);
+  }
+  const app = createApp({ db, config });
+  const server = app.listen(config.port, config.host, (err?: Error) => {
+    if (err) {
+      console.error(`Deckshare could not listen on ${config.host}:${config.port}: ${err.message}`);
+      process.exit(1);
+    }
+    console.log(`Deckshare is serving on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${config.port} (database ${config.databaseUrl})`);
+  });
+  let stopping = false;
+  const stop = (signal: string) => {
+    if (stopping) return;
+    stopping = true;
+    console.log(`${signal}: closing connections…`);
+    server.close(() => {
+      db.$client.close();
+      console.log('Deckshare stopped.');
+      process.exit(0);
+    });
+    server.closeAllConnections();
+    setTimeout(() => process.exit(1), 5000).unref();
+  };
+  process.on('SIGINT', () => stop('SIGINT'));
+  process.on('SIGTERM', () => stop('SIGTERM'));
+}
+
+main().catch((e: unknown) => {
+  console.error(e instanceof Error ? e.message : e);
+  process.exit(1);
+});

@@ -1,0 +1,59 @@
+/** Test helpers: an in-process app on a temporary SQLite file, seeded with the demo firm,
+ *  and signed-in supertest agents that send the CSRF header. */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import request from 'supertest';
+import type { Express } from 'express';
+import { loadConfig, type Config } from '../../server/config/env.js';
+import { openDatabase, type Db } from '../../server/db/client.js';
+import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed.js';
+import { createApp } from '../../server/app.js';
+
+export interface TestContext {
+  app: Express;
+  db: Db;
+  config: Config;
+  dir: string;
+  close(): void;
+}
+
+export async function makeTestApp(overrides: Partial<Config> = {}): Promise<TestContext> {
+  const dir = mkdtempSync(join(tmpdir(), 'deckshare-test-'));
+  const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: join(dir, 'test.db'), LOG_REQUESTS: 'false', CLIENT_DIST: join(dir, 'no-client') }, overrides);
+  const db = openDatabase(config.databaseUrl);
+  await seedDemo(db);
+  const app = createApp({ db, config, log: () => {} });
+  return {
+    app,
+    db,
+    config,
+    dir,
+    close() {
+      db.$client.close();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+export type Agent = ReturnType<typeof request.agent> & { csrf: string };
+
+/** Signs in and returns an agent whose cookie jar holds the session; `csrf` is the token. */
+export async function signIn(app: Express, email: string, password = DEMO_PASSWORD): Promise<Agent> {
+  const agent = request.agent(app) as Agent;
+  const res = await agent.post('/api/auth/login').send({ email, password });
+  if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  const cookies = ([] as string[]).concat(res.headers['set-cookie'] ?? []);
+  const csrf = cookies.map((c) => /^ds_csrf=([^;]+)/.exec(c)?.[1]).find(Boolean);
+  if (!csrf) throw new Error('no CSRF cookie');
+  agent.csrf = csrf;
+  return agent;
+}
+
+export const demo = {
+  admin: 'admin@larchmont-ridge.example',
+  designer: 'designer@larchmont-ridge.example',
+  reviewer: 'reviewer@larchmont-ridge.example',
+  instructor: 'instructor@larchmont-ridge.example',
+  trainee: 'trainee@larchmont-ridge.example',
+};
