@@ -8,7 +8,7 @@
  * Timestamps are ISO-8601 strings in UTC.
  */
 import { sql } from 'drizzle-orm';
-import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
 export const ROLES = ['admin', 'designer', 'reviewer', 'instructor', 'trainee'] as const;
 export type Role = (typeof ROLES)[number];
@@ -167,3 +167,246 @@ export type ProjectRow = typeof projects.$inferSelect;
 export type DeckRow = typeof decks.$inferSelect;
 export type DeckVersionRow = typeof deckVersions.$inferSelect;
 export type AuditRow = typeof auditLog.$inferSelect;
+
+// ─── Review, mail, attachments and training (workflow tables) ─────────────────────────────
+
+/**
+ * States of a review round, in plain words:
+ * - 'awaiting-review': submitted to the chosen reviewer, who comments and decides;
+ * - 'approved': the reviewer approved this version (final: the round is locked);
+ * - 'sent-back': the reviewer returned it with comments; the designer answers and submits a
+ *   new version in a new round (this round stays closed);
+ * - 'withdrawn': the designer took the submission back before a decision.
+ * A version with no round is "in progress".
+ */
+export const REVIEW_STATES = ['awaiting-review', 'approved', 'sent-back', 'withdrawn'] as const;
+export type ReviewState = (typeof REVIEW_STATES)[number];
+
+/** One submission of one deck version to one reviewer. Deck versions stay immutable. */
+export const reviewRounds = sqliteTable(
+  'review_rounds',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    firmId: integer('firm_id')
+      .notNull()
+      .references(() => firms.id),
+    projectId: integer('project_id')
+      .notNull()
+      .references(() => projects.id),
+    deckId: integer('deck_id')
+      .notNull()
+      .references(() => decks.id),
+    versionId: integer('version_id')
+      .notNull()
+      .references(() => deckVersions.id),
+    submittedBy: integer('submitted_by')
+      .notNull()
+      .references(() => users.id),
+    reviewerId: integer('reviewer_id')
+      .notNull()
+      .references(() => users.id),
+    /** The round this one answers (the sent-back round of an earlier version), or null. */
+    previousRoundId: integer('previous_round_id'),
+    state: text('state', { enum: REVIEW_STATES }).notNull().default('awaiting-review'),
+    submissionNote: text('submission_note').notNull().default(''),
+    decidedBy: integer('decided_by').references(() => users.id),
+    decidedAt: text('decided_at'),
+    decisionNote: text('decision_note'),
+    /** The reviewer's finding: is a refined analysis justified for this deck? null until recorded. */
+    refinedJustified: integer('refined_justified', { mode: 'boolean' }),
+    refinedReason: text('refined_reason'),
+    refinedDecidedAt: text('refined_decided_at'),
+    createdAt: text('created_at').notNull().default(now),
+    updatedAt: text('updated_at').notNull().default(now),
+  },
+  (t) => [
+    index('review_rounds_firm_state_idx').on(t.firmId, t.state),
+    index('review_rounds_version_idx').on(t.versionId),
+    index('review_rounds_reviewer_idx').on(t.reviewerId),
+    // At most one open round per deck, and at most one approval per version.
+    uniqueIndex('review_rounds_one_open_per_deck').on(t.deckId).where(sql`state = 'awaiting-review'`),
+    uniqueIndex('review_rounds_one_approval_per_version').on(t.versionId).where(sql`state = 'approved'`),
+  ],
+);
+
+/**
+ * A comment of a review round, on the deck as a whole (anchor null) or anchored to one value
+ * (girder, effect, method, lanes). Answers point at the comment they answer. Append-only.
+ */
+export const reviewComments = sqliteTable(
+  'review_comments',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    roundId: integer('round_id')
+      .notNull()
+      .references(() => reviewRounds.id),
+    authorId: integer('author_id')
+      .notNull()
+      .references(() => users.id),
+    parentId: integer('parent_id'),
+    body: text('body').notNull(),
+    /** JSON `{ girder?, effect?, method?, lanes? }` or null for the deck as a whole. */
+    anchorJson: text('anchor_json'),
+    createdAt: text('created_at').notNull().default(now),
+  },
+  (t) => [index('review_comments_round_idx').on(t.roundId)],
+);
+
+/**
+ * Messages received by the local SMTP service (development and tests): the product's
+ * outbox, readable by the firm's admins. Append-only.
+ */
+export const outboxMessages = sqliteTable(
+  'outbox_messages',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    /** The firm named by the message's X-Deckshare-Firm header, or null. */
+    firmId: integer('firm_id').references(() => firms.id),
+    /** What the message is about (X-Deckshare-Kind header), e.g. 'review-requested'. */
+    kind: text('kind').notNull().default(''),
+    messageId: text('message_id').notNull().default(''),
+    fromAddress: text('from_address').notNull(),
+    /** Recipients, comma-separated, as the SMTP envelope named them. */
+    toAddresses: text('to_addresses').notNull(),
+    subject: text('subject').notNull(),
+    textBody: text('text_body').notNull(),
+    htmlBody: text('html_body'),
+    sizeBytes: integer('size_bytes').notNull(),
+    receivedAt: text('received_at').notNull().default(now),
+  },
+  (t) => [index('outbox_firm_idx').on(t.firmId)],
+);
+
+/** Invitations to set a password, sent by e-mail. Only the SHA-256 of the token is stored. */
+export const invitations = sqliteTable(
+  'invitations',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    firmId: integer('firm_id')
+      .notNull()
+      .references(() => firms.id),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id),
+    tokenHash: text('token_hash').notNull(),
+    expiresAt: text('expires_at').notNull(),
+    usedAt: text('used_at'),
+    /** Set when a newer invitation for the same user replaced this one. */
+    replacedAt: text('replaced_at'),
+    createdBy: integer('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: text('created_at').notNull().default(now),
+  },
+  (t) => [uniqueIndex('invitations_token_unique').on(t.tokenHash), index('invitations_user_idx').on(t.userId)],
+);
+
+/** Drawings attached to a project. The file lives outside the web root under `storedName`. */
+export const attachments = sqliteTable(
+  'attachments',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    firmId: integer('firm_id')
+      .notNull()
+      .references(() => firms.id),
+    projectId: integer('project_id')
+      .notNull()
+      .references(() => projects.id),
+    title: text('title').notNull(),
+    originalName: text('original_name').notNull(),
+    /** Random file name in the attachments folder (no extension, never derived from input). */
+    storedName: text('stored_name').notNull(),
+    /** Type detected from the content: application/pdf, image/png or image/jpeg. */
+    contentType: text('content_type').notNull(),
+    sizeBytes: integer('size_bytes').notNull(),
+    sha256: text('sha256').notNull(),
+    uploadedBy: integer('uploaded_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: text('created_at').notNull().default(now),
+  },
+  (t) => [uniqueIndex('attachments_stored_name_unique').on(t.storedName), index('attachments_project_idx').on(t.projectId)],
+);
+
+/** A training exercise made from one deck version; the expected answer is frozen at creation. */
+export const assignments = sqliteTable(
+  'assignments',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    firmId: integer('firm_id')
+      .notNull()
+      .references(() => firms.id),
+    projectId: integer('project_id')
+      .notNull()
+      .references(() => projects.id),
+    deckId: integer('deck_id')
+      .notNull()
+      .references(() => decks.id),
+    versionId: integer('version_id')
+      .notNull()
+      .references(() => deckVersions.id),
+    /** What is asked: see server/api/training/trainingModel.ts. */
+    kind: text('kind').notNull(),
+    /** The question's parameters (girder, effect, lanes, method) as JSON. */
+    paramsJson: text('params_json').notNull(),
+    title: text('title').notNull(),
+    instructions: text('instructions').notNull().default(''),
+    /** Relative tolerance for numeric answers, percent. */
+    tolerancePercent: real('tolerance_percent').notNull(),
+    dueAt: text('due_at').notNull(),
+    /** The product's answer with its trace, JSON, computed when the assignment was made. */
+    expectedJson: text('expected_json').notNull(),
+    createdBy: integer('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: text('created_at').notNull().default(now),
+  },
+  (t) => [index('assignments_firm_idx').on(t.firmId)],
+);
+
+export const assignmentTrainees = sqliteTable(
+  'assignment_trainees',
+  {
+    assignmentId: integer('assignment_id')
+      .notNull()
+      .references(() => assignments.id),
+    traineeId: integer('trainee_id')
+      .notNull()
+      .references(() => users.id),
+    assignedAt: text('assigned_at').notNull().default(now),
+  },
+  (t) => [primaryKey({ columns: [t.assignmentId, t.traineeId] }), index('assignment_trainees_trainee_idx').on(t.traineeId)],
+);
+
+/** A trainee's answer, graded when it is submitted. Append-only: a new attempt is a new row. */
+export const submissions = sqliteTable(
+  'submissions',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    assignmentId: integer('assignment_id')
+      .notNull()
+      .references(() => assignments.id),
+    traineeId: integer('trainee_id')
+      .notNull()
+      .references(() => users.id),
+    attempt: integer('attempt').notNull(),
+    /** The trainee's values (and optional placement) as JSON. */
+    answerJson: text('answer_json').notNull(),
+    /** The trainee's hand-calculation steps as JSON. */
+    stepsJson: text('steps_json').notNull(),
+    late: integer('late', { mode: 'boolean' }).notNull(),
+    passed: integer('passed', { mode: 'boolean' }).notNull(),
+    /** Per-value comparison with the product's answer, JSON. */
+    gradingJson: text('grading_json').notNull(),
+    submittedAt: text('submitted_at').notNull().default(now),
+  },
+  (t) => [uniqueIndex('submissions_attempt_unique').on(t.assignmentId, t.traineeId, t.attempt)],
+);
+
+export type ReviewRoundRow = typeof reviewRounds.$inferSelect;
+export type ReviewCommentRow = typeof reviewComments.$inferSelect;
+export type OutboxRow = typeof outboxMessages.$inferSelect;
+export type InvitationRow = typeof invitations.$inferSelect;
+export type AttachmentRow = typeof attachments.$inferSelect;
+export type AssignmentRow = typeof assignments.$inferSelect;
+export type SubmissionRow = typeof submissions.$inferSelect;
