@@ -6,3 +6,4 @@ export * from './deck/units.js';
 export * from './deck/geometry.js';
 export * from './deck/section.js';
 export * from './version.js';
+export * from './lrfd/index.js';
