@@ -1,13 +1,17 @@
-import { defineProject } from 'vitest/config';
+import { defineConfig } from 'vitest/config';
 
-// Browser tests: real headless Chromium against the built app (run `vite build` first).
-export default defineProject({
+// Browser tests: a real server on a fresh database and Debian's headless Chromium driven by
+// playwright-core (tests/e2e/harness.ts). They expect `npm run build` to have produced dist/.
+// One fork, one file at a time: each file starts its own server and browser.
+export default defineConfig({
   test: {
     name: 'e2e',
     include: ['tests/e2e/**/*.spec.ts'],
+    environment: 'node',
     pool: 'forks',
+    maxWorkers: 1,
     fileParallelism: false,
-    testTimeout: 120000,
-    hookTimeout: 180000,
+    testTimeout: 120_000,
+    hookTimeout: 180_000,
   },
 });

@@ -47,9 +47,20 @@ export class ApiError extends Error {
 
   /** The messages for one field (top-level path segment), joined for display beside it. */
   fieldMessage(field: string): string | undefined {
-    const hits = this.details.filter((d) => d.path === field || d.path.startsWith(`${field}.`));
+    const hits = this.details.filter((d) => fieldOf(d.path) === field);
     return hits.length > 0 ? hits.map((d) => d.message).join('; ') : undefined;
   }
+}
+
+/**
+ * The form field a detail path names: its first segment once the request part the server
+ * may prefix ("body.", "query.", "params.") is removed. "body.name" → "name",
+ * "roles.0" → "roles", "body" → "" (the body as a whole).
+ */
+export function fieldOf(path: string): string {
+  const segments = path.split('.');
+  if (segments[0] === 'body' || segments[0] === 'query' || segments[0] === 'params') segments.shift();
+  return segments[0] ?? '';
 }
 
 /** Name of the readable cookie that carries the CSRF token. */
@@ -245,8 +256,7 @@ export const http = {
 export function describeError(error: unknown): string {
   if (error instanceof ApiError) {
     if (error.details.length > 0 && (error.code === 'validation_failed' || error.code === 'bad_request')) {
-      const list = error.details.map((d) => (d.path ? `${d.path}: ${d.message}` : d.message)).join('; ');
-      return `${error.message} (${list})`;
+      return error.details.map((d) => (fieldOf(d.path) ? `${fieldOf(d.path)}: ${d.message}` : d.message)).join('; ');
     }
     return error.message;
   }

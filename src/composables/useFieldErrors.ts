@@ -3,8 +3,8 @@
  * field by its path), or set directly by the form's own checks. Messages for paths that match
  * no field of the form are kept in `formError` so nothing the server says is lost.
  */
-import { reactive, ref } from 'vue';
-import { ApiError, describeError } from '@/api/http';
+import { reactive, ref, watch } from 'vue';
+import { ApiError, describeError, fieldOf } from '@/api/http';
 
 export function useFieldErrors<F extends string>(fields: readonly F[]) {
   const errors = reactive({}) as Record<F, string | undefined>;
@@ -33,14 +33,17 @@ export function useFieldErrors<F extends string>(fields: readonly F[]) {
     }
     const unplaced: string[] = [];
     for (const detail of error.details) {
-      const top = detail.path.split('.')[0] as F;
-      if (fields.includes(top)) {
-        errors[top] = errors[top] ? `${errors[top]}; ${detail.message}` : detail.message;
+      const field = fieldOf(detail.path) as F;
+      if (fields.includes(field)) {
+        errors[field] = errors[field] ? `${errors[field]}; ${detail.message}` : detail.message;
       } else {
-        unplaced.push(detail.path ? `${detail.path}: ${detail.message}` : detail.message);
+        unplaced.push(field ? `${field}: ${detail.message}` : detail.message);
       }
     }
-    formError.value = unplaced.length > 0 ? `${error.message} (${unplaced.join('; ')})` : error.message;
+    formError.value =
+      unplaced.length > 0
+        ? `The server did not accept this: ${unplaced.join('; ')}`
+        : 'Please correct the fields marked below.';
     return true;
   }
 
@@ -49,6 +52,19 @@ export function useFieldErrors<F extends string>(fields: readonly F[]) {
     return errors[field] ? 'error' : undefined;
   }
 
+  /** Drops a field's message as soon as its value in `source` changes (the user is fixing it). */
+  function clearOnEdit(source: Partial<Record<F, unknown>>): void {
+    for (const field of fields) {
+      watch(
+        () => source[field],
+        () => {
+          errors[field] = undefined;
+        },
+        { deep: true },
+      );
+    }
+  }
+
   clear();
-  return { errors, formError, clear, set, apply, status, any };
+  return { errors, formError, clear, set, apply, status, any, clearOnEdit };
 }

@@ -30,6 +30,27 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Project' },
   },
   {
+    path: '/projects/:projectId(\\d+)/decks/new',
+    name: 'deck-new',
+    component: () => import('@/views/DeckWorkspaceView.vue'),
+    props: (route) => ({ projectId: Number(route.params.projectId) }),
+    meta: { title: 'New deck', roles: ['admin', 'designer', 'instructor'] },
+  },
+  {
+    path: '/decks/:deckId(\\d+)',
+    name: 'deck',
+    component: () => import('@/views/DeckWorkspaceView.vue'),
+    props: (route) => ({ deckId: Number(route.params.deckId) }),
+    meta: { title: 'Deck' },
+  },
+  {
+    path: '/decks/:deckId(\\d+)/versions/:versionNumber(\\d+)',
+    name: 'deck-version',
+    component: () => import('@/views/DeckWorkspaceView.vue'),
+    props: (route) => ({ deckId: Number(route.params.deckId), versionNumber: Number(route.params.versionNumber) }),
+    meta: { title: 'Deck version' },
+  },
+  {
     path: '/admin/users',
     name: 'admin-users',
     component: () => import('@/views/AdminUsersView.vue'),

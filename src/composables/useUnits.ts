@@ -1,0 +1,86 @@
+/**
+ * Showing internal values in the user's unit system. The deck and every result are held in
+ * internal SI units (shared/units.ts); this composable converts only what is shown and what
+ * the user types — never what is stored.
+ *
+ * `formatInput` writes a value for an input box (plain digits, no grouping, enough
+ * significant digits that re-reading it reproduces what was typed in the same system);
+ * `format` writes a value for reading (grouped, a sensible number of decimals per kind).
+ */
+import { computed, type Ref } from 'vue';
+import { fromDisplay, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '@shared/units';
+
+/** Significant digits kept in input boxes. */
+const INPUT_SIGNIFICANT_DIGITS = 7;
+
+/** An internal value → the text of an input box in `system` ('' for a missing value). */
+export function formatInput(value: number | undefined | null, kind: QuantityKind, system: UnitSystem): string {
+  if (value === undefined || value === null || Number.isNaN(value)) return '';
+  if (!Number.isFinite(value)) return String(value);
+  const shown = toDisplay(value, kind, system);
+  if (shown === 0) return '0';
+  const rounded = Number(shown.toPrecision(INPUT_SIGNIFICANT_DIGITS));
+  const abs = Math.abs(rounded);
+  if (abs >= 1e15 || abs < 1e-6) return rounded.toExponential().replace('e+', 'e');
+  return String(rounded);
+}
+
+/**
+ * The text of an input box in `system` → an internal value. Empty text gives undefined;
+ * text that is not a number gives NaN (the schema then names the field and the rule).
+ * Accepts a decimal comma, spaces and thin spaces as digit groups, and a leading "+".
+ */
+export function parseInput(text: string, kind: QuantityKind, system: UnitSystem): number | undefined {
+  const t = text.trim().replace(/[\s\u2009\u202f_]/g, '').replace(/^\+/, '').replace(/^−/, '-');
+  if (t === '') return undefined;
+  const normalised = /^-?\d+,\d+$/.test(t) ? t.replace(',', '.') : t;
+  if (!/^-?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(normalised)) return Number.NaN;
+  return fromDisplay(Number(normalised), kind, system);
+}
+
+/** Decimals for reading, per kind and system (values shown in display units). */
+const READ_DECIMALS: Record<UnitSystem, Partial<Record<QuantityKind, number>>> = {
+  US: { length: 2, dimension: 2, area: 1, inertia: 0, stress: 0, unitWeight: 3, force: 1, moment: 1, lineLoad: 3, angle: 1, none: 3 },
+  SI: { length: 3, dimension: 1, area: 0, inertia: 0, stress: 0, unitWeight: 1, force: 1, moment: 1, lineLoad: 2, angle: 1, none: 3 },
+};
+
+/** An internal value as text for reading, with its unit symbol unless `withUnit` is false. */
+export function formatValue(
+  value: number | undefined | null,
+  kind: QuantityKind,
+  system: UnitSystem,
+  options: { decimals?: number; withUnit?: boolean } = {},
+): string {
+  if (value === undefined || value === null || !Number.isFinite(value)) return '—';
+  const shown = toDisplay(value, kind, system);
+  const decimals = options.decimals ?? READ_DECIMALS[system][kind] ?? 3;
+  const abs = Math.abs(shown);
+  const text =
+    abs !== 0 && (abs >= 1e9 || abs < 10 ** -decimals)
+      ? shown.toExponential(3).replace('e+', 'e')
+      : shown.toLocaleString('en-US', { minimumFractionDigits: decimals, maximumFractionDigits: decimals });
+  const symbol = unitSymbol(kind, system);
+  if (options.withUnit === false || !symbol) return text;
+  return kind === 'angle' ? `${text}°` : `${text} ${symbol}`;
+}
+
+/** A distribution factor (lanes per girder) as text: three decimals, as the code's examples print. */
+export function formatFactor(value: number | undefined | null): string {
+  if (value === undefined || value === null || !Number.isFinite(value)) return '—';
+  return value.toFixed(3);
+}
+
+/** Helpers bound to a reactive unit system. */
+export function useUnits(system: Ref<UnitSystem>) {
+  return {
+    system,
+    symbol: (kind: QuantityKind) => unitSymbol(kind, system.value),
+    show: (value: number, kind: QuantityKind) => toDisplay(value, kind, system.value),
+    internal: (value: number, kind: QuantityKind) => fromDisplay(value, kind, system.value),
+    format: (value: number | undefined | null, kind: QuantityKind, options?: { decimals?: number; withUnit?: boolean }) =>
+      formatValue(value, kind, system.value, options),
+    formatInput: (value: number | undefined | null, kind: QuantityKind) => formatInput(value, kind, system.value),
+    parseInput: (text: string, kind: QuantityKind) => parseInput(text, kind, system.value),
+    label: computed(() => (system.value === 'US' ? 'US customary' : 'SI')),
+  };
+}

@@ -1,0 +1,279 @@
+/**
+ * The deck open in the workspace: the editable draft (internal SI units, whatever the user's
+ * display units), its validation, the lane and wheel placement being studied, and the saved
+ * versions of the deck. The unit system here only changes what is shown.
+ */
+import { defineStore } from 'pinia';
+import { computed, reactive, ref, shallowRef, watch } from 'vue';
+import type { DeckInput } from '@shared/deck/schema';
+import type { UnitSystem } from '@shared/units';
+import * as decksApi from '@/api/decks';
+import * as projectsApi from '@/api/projects';
+import type { DeckSummary, DeckVersion, Project, VersionSummary } from '@/api/types';
+import { validateDeck } from '@/components/deck/deckValidation';
+import { deckTemplate, type DeckTemplateKey } from '@/components/deck/deckTemplates';
+import { getAt, pathKey, setAt, type FieldPath } from '@/components/deck/deckPaths';
+
+/** The vehicles a placement can carry. */
+export type VehicleKey = 'design truck' | 'design tandem' | 'fatigue truck';
+/** The effects a girder is studied for in the workspace. */
+export type StudyEffect = 'moment' | 'shear';
+
+/** One loaded lane (same fields as shared/placement's LanePlacement). */
+export interface WorkspaceLane {
+  /** y of the lane's left edge, m from girder 1. */
+  left: number;
+  /** Left wheel line's distance from the lane's left edge, m. */
+  wheelOffset: number;
+  /** x of the front axle, m along girder 1 from support line 0. */
+  frontAxleAt?: number;
+  /** +1 toward increasing x, −1 toward decreasing x. */
+  direction?: 1 | -1;
+  /** The design truck's variable rear spacing, m. */
+  axleSpacing?: number;
+}
+
+/** What is saved with a version as its `placements`. */
+export interface SavedPlacements {
+  format: 'deckshare-placements-1';
+  vehicle: VehicleKey;
+  lanes: WorkspaceLane[];
+  studied: { girder: number; effect: StudyEffect };
+  /** Each girder's share (lanes per girder) for this placement, as shown when saved. */
+  shares?: { moment: number[]; shear: number[] };
+  /** Governing values per girder (grillage), as shown when saved. */
+  governing?: { moment: number[]; shear: number[] };
+}
+
+export function isSavedPlacements(value: unknown): value is SavedPlacements {
+  return (
+    typeof value === 'object' &&
+    value !== null &&
+    (value as { format?: unknown }).format === 'deckshare-placements-1' &&
+    Array.isArray((value as { lanes?: unknown }).lanes)
+  );
+}
+
+export type WorkspaceMode = 'new' | 'edit' | 'read-only';
+
+export const useDeckStore = defineStore('deck', () => {
+  /** The deck being edited, internal units. Number fields may hold NaN/undefined while typed. */
+  const draft = ref<DeckInput>(deckTemplate('precast-one-span').build());
+  /** Display unit system (converts what is shown, never what is stored). */
+  const units = ref<UnitSystem>('US');
+
+  const validation = computed(() => validateDeck(draft.value));
+  const issues = computed(() => validation.value.issues);
+  const valid = computed(() => validation.value.deck !== null);
+  /** The last deck that passed validation: what the 3D view and the solver show. */
+  const lastValidDeck = shallowRef(validation.value.deck);
+  watch(
+    () => validation.value.deck,
+    (deck) => {
+      if (deck) lastValidDeck.value = deck;
+    },
+  );
+
+  function messagesFor(path: FieldPath): string[] {
+    return validation.value.byField.get(pathKey(path)) ?? [];
+  }
+  function valueAt(path: FieldPath): unknown {
+    return getAt(draft.value, path);
+  }
+  function setField(path: FieldPath, value: unknown): void {
+    if (mode.value === 'read-only') return;
+    setAt(draft.value, path, value);
+  }
+
+  // ---- where the deck came from -------------------------------------------------------
+  const mode = ref<WorkspaceMode>('new');
+  const projectId = ref<number | null>(null);
+  /** The project the deck belongs to (name and preferred units). */
+  const project = ref<Project | null>(null);
+  const deckId = ref<number | null>(null);
+  const summary = ref<DeckSummary | null>(null);
+  const versions = ref<VersionSummary[]>([]);
+  /** The version opened (read-only) or the one the draft started from. */
+  const version = ref<DeckVersion | null>(null);
+  /** The version a save will name as its base. */
+  const basedOnVersionId = ref<number | null>(null);
+  /** JSON of the deck as opened or last saved, to tell whether there are unsaved edits. */
+  const savedJson = ref<string | null>(null);
+  const dirty = computed(() => savedJson.value === null || savedJson.value !== JSON.stringify(draft.value));
+  const saving = ref(false);
+  const versionCache = new Map<string, DeckVersion>();
+
+  // ---- placement ----------------------------------------------------------------------
+  const vehicle = ref<VehicleKey>('design truck');
+  const lanes = ref<WorkspaceLane[]>([]);
+  const studied = reactive<{ girder: number; effect: StudyEffect }>({ girder: 0, effect: 'moment' });
+  /** Placement restored from a saved version, applied once the solver knows the rules. */
+  const pendingPlacement = shallowRef<SavedPlacements | null>(null);
+
+  function resetPlacement(): void {
+    lanes.value = [];
+    studied.girder = 0;
+    studied.effect = 'moment';
+    vehicle.value = 'design truck';
+  }
+
+  function startNew(forProject: number, system: UnitSystem, template: DeckTemplateKey = 'precast-one-span'): void {
+    projectId.value = forProject;
+    deckId.value = null;
+    summary.value = null;
+    versions.value = [];
+    version.value = null;
+    basedOnVersionId.value = null;
+    draft.value = deckTemplate(template).build();
+    units.value = system;
+    savedJson.value = null;
+    mode.value = 'new';
+    pendingPlacement.value = null;
+    resetPlacement();
+  }
+
+  function useTemplate(template: DeckTemplateKey): void {
+    if (mode.value === 'read-only') return;
+    const name = draft.value.name;
+    draft.value = deckTemplate(template).build();
+    if (mode.value !== 'new' && name) draft.value.name = name;
+    resetPlacement();
+  }
+
+  /** Loads the deck's project (for its name and preferred units). */
+  async function loadProject(id: number): Promise<Project> {
+    if (project.value?.id === id) return project.value;
+    project.value = await projectsApi.getProject(id);
+    return project.value;
+  }
+
+  async function fetchVersion(forDeck: number, number: number): Promise<DeckVersion> {
+    const key = `${forDeck}:${number}`;
+    const cached = versionCache.get(key);
+    if (cached) return cached;
+    const v = await decksApi.getVersion(forDeck, number);
+    versionCache.set(key, v);
+    return v;
+  }
+
+  async function refreshDeck(forDeck: number): Promise<void> {
+    const answer = await decksApi.getDeck(forDeck);
+    summary.value = answer.deck;
+    versions.value = answer.versions;
+    projectId.value = answer.deck.projectId;
+  }
+
+  function applyVersion(v: DeckVersion, asMode: WorkspaceMode): void {
+    version.value = v;
+    draft.value = structuredClone(v.deck);
+    savedJson.value = JSON.stringify(draft.value);
+    mode.value = asMode;
+    basedOnVersionId.value = asMode === 'edit' ? v.id : null;
+    resetPlacement();
+    pendingPlacement.value = isSavedPlacements(v.placements) ? v.placements : null;
+    if (pendingPlacement.value) {
+      vehicle.value = pendingPlacement.value.vehicle;
+      studied.girder = pendingPlacement.value.studied.girder;
+      studied.effect = pendingPlacement.value.studied.effect;
+    }
+  }
+
+  /**
+   * Opens a deck: a given version read-only, or (without `number`) the latest version as the
+   * start of a new one.
+   */
+  async function open(forDeck: number, number?: number, system?: UnitSystem): Promise<void> {
+    deckId.value = forDeck;
+    await refreshDeck(forDeck);
+    const n = number ?? versions.value[0]?.number;
+    if (n === undefined) throw new Error(`deck ${forDeck} has no saved version`);
+    const v = await fetchVersion(forDeck, n);
+    applyVersion(v, number === undefined ? 'edit' : 'read-only');
+    if (system) units.value = system;
+  }
+
+  /** Makes the opened (read-only) version the start of a new one. */
+  function startFromOpenVersion(): void {
+    if (!version.value) return;
+    mode.value = 'edit';
+    basedOnVersionId.value = version.value.id;
+  }
+
+  function placementsToSave(extra: Pick<SavedPlacements, 'shares' | 'governing'> = {}): SavedPlacements {
+    return {
+      format: 'deckshare-placements-1',
+      vehicle: vehicle.value,
+      lanes: lanes.value.map((l) => ({ ...l })),
+      studied: { girder: studied.girder, effect: studied.effect },
+      ...extra,
+    };
+  }
+
+  /** Saves the draft as a new version (or a new deck). Returns the saved version. */
+  async function save(message: string, extra: Pick<SavedPlacements, 'shares' | 'governing'> = {}): Promise<DeckVersion> {
+    if (mode.value === 'read-only') throw new Error('this version is open read-only; start a new version from it first');
+    if (!validation.value.deck) throw new Error('the deck has problems to fix before it can be saved');
+    saving.value = true;
+    try {
+      const deck = structuredClone(draft.value);
+      const placements = placementsToSave(extra);
+      let saved: DeckVersion;
+      if (deckId.value === null) {
+        if (projectId.value === null) throw new Error('no project to save the deck in');
+        const created = await decksApi.createDeck(projectId.value, { deck, message, placements });
+        deckId.value = created.deck.id;
+        saved = created.version;
+      } else {
+        saved = await decksApi.saveVersion(deckId.value, {
+          deck,
+          message,
+          placements,
+          ...(basedOnVersionId.value !== null ? { basedOnVersionId: basedOnVersionId.value } : {}),
+        });
+      }
+      versionCache.set(`${saved.deckId}:${saved.number}`, saved);
+      await refreshDeck(saved.deckId);
+      version.value = saved;
+      basedOnVersionId.value = saved.id;
+      savedJson.value = JSON.stringify(draft.value);
+      mode.value = 'edit';
+      return saved;
+    } finally {
+      saving.value = false;
+    }
+  }
+
+  return {
+    draft,
+    units,
+    validation,
+    issues,
+    valid,
+    lastValidDeck,
+    messagesFor,
+    valueAt,
+    setField,
+    mode,
+    projectId,
+    project,
+    loadProject,
+    deckId,
+    summary,
+    versions,
+    version,
+    basedOnVersionId,
+    dirty,
+    saving,
+    vehicle,
+    lanes,
+    studied,
+    pendingPlacement,
+    startNew,
+    useTemplate,
+    open,
+    fetchVersion,
+    startFromOpenVersion,
+    placementsToSave,
+    save,
+  };
+});
