@@ -1,0 +1,250 @@
+/**
+ * Command-line tool: validate a deck file and print its code-method distribution factors.
+ *
+ *   npm run factors -- <deck.json> [--json]
+ *
+ * The deck file is JSON: { "units": "US" | "SI", "deck": { …deck fields… } } (the deck
+ * fields may also sit beside "units" at the top level). Values are in the display units of
+ * the stated system (US: ft, in, in², in⁴, ksi, kcf; SI: m, mm, mm², mm⁴, MPa, kN/m³).
+ * Without --json it prints the governing factors, every factor row and the findings; with
+ * --json a document { deck, units, caution, derived, factors, governing, findings, trace }.
+ * A bad file prints each offending field path and rule and exits with code 1 (2 for a
+ * usage error); no stack trace is printed.
+ */
+import { readFileSync } from 'node:fs';
+import {
+  assertDeck,
+  computeCodeFactors,
+  deckFromDisplay,
+  DeckInputError,
+  toDisplay,
+  unitSymbol,
+  type CodeFactorResult,
+  type FactorRow,
+  type QuantityKind,
+  type UnitSystem,
+} from '../../shared/index.js';
+
+class CliError extends Error {
+  constructor(
+    message: string,
+    readonly exitCode: number,
+  ) {
+    super(message);
+  }
+}
+
+interface DeckFile {
+  units: UnitSystem;
+  deck: unknown;
+  /** Prefix of field paths in messages ("deck." for the wrapped form). */
+  prefix: string;
+}
+
+export function readDeckFile(text: string): DeckFile {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (e) {
+    throw new CliError(`the file is not valid JSON: ${(e as Error).message}`, 1);
+  }
+  if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) {
+    throw new CliError('the file must hold one JSON object: { "units": "US" | "SI", "deck": { … } }', 1);
+  }
+  const obj = raw as Record<string, unknown>;
+  const units = obj.units;
+  if (units !== 'US' && units !== 'SI') {
+    throw new CliError(`units: must be "US" or "SI" (the unit system the deck's values are written in), not ${JSON.stringify(units)}`, 1);
+  }
+  if ('deck' in obj) {
+    const extra = Object.keys(obj).filter((k) => k !== 'units' && k !== 'deck');
+    if (extra.length > 0) throw new CliError(`${extra[0]}: unknown top-level field (expected only "units" and "deck")`, 1);
+    return { units, deck: obj.deck, prefix: 'deck.' };
+  }
+  const { units: _u, ...deck } = obj;
+  void _u;
+  return { units, deck, prefix: '' };
+}
+
+function parseArgs(argv: string[]): { file: string; json: boolean } {
+  const json = argv.includes('--json');
+  const rest = argv.filter((a) => a !== '--json');
+  const unknown = rest.find((a) => a.startsWith('-'));
+  if (unknown) throw new CliError(`unknown option ${unknown}\nusage: npm run factors -- <deck.json> [--json]`, 2);
+  if (rest.length !== 1) throw new CliError('usage: npm run factors -- <deck.json> [--json]', 2);
+  return { file: rest[0], json };
+}
+
+function disp(value: number, kind: QuantityKind, units: UnitSystem, digits = 3): string {
+  const v = toDisplay(value, kind, units);
+  const sym = unitSymbol(kind, units);
+  return `${Math.abs(v) >= 1e5 ? Math.round(v).toLocaleString('en-US') : v.toFixed(digits)}${sym ? ` ${sym}` : ''}`;
+}
+
+function quantity(value: number | undefined, kind: QuantityKind, units: UnitSystem) {
+  if (value === undefined) return undefined;
+  return { value: toDisplay(value, kind, units), unit: unitSymbol(kind, units) };
+}
+
+export function jsonDocument(result: CodeFactorResult, units: UnitSystem) {
+  const d = result.derived;
+  return {
+    deck: result.deckName,
+    sectionType: result.sectionType,
+    units,
+    caution: result.caution,
+    derived: {
+      formulaFamily: d.family,
+      girderCount: d.girderCount,
+      girderOffsets: d.offsets.map((o) => quantity(o, 'length', units)),
+      spacings: d.spacings.map((s) => quantity(s, 'length', units)),
+      interiorSpacing: quantity(d.interiorSpacing, 'length', units),
+      deckWidth: quantity(d.deckWidth, 'length', units),
+      roadwayWidth: quantity(d.roadwayWidth, 'length', units),
+      designLanes: d.designLanes,
+      designLaneWidth: quantity(d.designLaneWidth, 'length', units),
+      deLeft: quantity(d.deLeft, 'length', units),
+      deRight: quantity(d.deRight, 'length', units),
+      deckModulus: quantity(d.deckModulus, 'stress', units),
+      girderModulus: quantity(d.girderModulus, 'stress', units),
+      modularRatio: d.modularRatio,
+      eg: quantity(d.eg, 'dimension', units),
+      Kg: quantity(d.Kg, 'inertia', units),
+      spans: d.spans.map((s) => quantity(s, 'length', units)),
+      skews: d.skews,
+      continuous: d.continuous,
+      symmetric: d.symmetric,
+    },
+    factors: result.factors.map((r) => ({
+      girder: r.girder,
+      effect: r.effect,
+      lanes: r.lanes,
+      method: r.method,
+      value: r.value,
+      governing: r.governing,
+      findings: r.findings,
+      id: r.id,
+      girderNumber: r.girderNumber,
+      loadedLanes: r.loadedLanes,
+      location: { ...r.location, spanLength: quantity(r.location.spanLength, 'length', units) },
+      baseValue: r.baseValue,
+      skewFactor: r.skewFactor,
+      adopted: r.adopted,
+      trace: r.trace,
+      leverRule: r.leverRule,
+      rigidSection: r.rigidSection,
+    })),
+    governing: result.governing.map((g) => ({ ...g, location: { ...g.location, spanLength: quantity(g.location.spanLength, 'length', units) } })),
+    findings: result.findings,
+    trace: result.trace,
+  };
+}
+
+function pad(s: string, n: number): string {
+  return s.length >= n ? s : s + ' '.repeat(n - s.length);
+}
+
+function table(head: string[], body: string[][]): string {
+  const widths = head.map((h, i) => Math.max(h.length, ...body.map((r) => r[i].length)));
+  const line = (cells: string[]) => cells.map((c, i) => pad(c, widths[i])).join('  ').trimEnd();
+  return [line(head), widths.map((w) => '-'.repeat(w)).join('  '), ...body.map(line)].join('\n');
+}
+
+function girderText(r: Pick<FactorRow, 'girder' | 'girderNumber' | 'girderKind'>): string {
+  return typeof r.girder === 'number' ? `${r.girderKind} ${r.girder}` : r.girder;
+}
+
+export function textReport(result: CodeFactorResult, units: UnitSystem): string {
+  const d = result.derived;
+  const out: string[] = [];
+  out.push(`Deck: ${result.deckName}`);
+  out.push(`Section type ${result.sectionType} (${d.family}); ${d.girderCount} girders; ${d.designLanes} design lane(s) on a ${disp(d.roadwayWidth, 'length', units, 2)} roadway`);
+  const spacing = d.uniformSpacing ? disp(d.spacings[0], 'length', units) : d.spacings.map((s) => disp(s, 'length', units)).join(', ');
+  out.push(`Spacing ${spacing}; de left ${disp(d.deLeft, 'length', units)}, right ${disp(d.deRight, 'length', units)}; n = ${d.modularRatio.toFixed(3)}`);
+  if (d.eg !== undefined) out.push(`eg = ${disp(d.eg, 'dimension', units)}; Kg = ${d.Kg !== undefined ? disp(d.Kg, 'inertia', units, 0) : '—'}`);
+  out.push(`Spans ${d.spans.map((s) => disp(s, 'length', units, 2)).join(', ')} (${d.continuous ? 'continuous' : 'simple'}); skews ${d.skews.map((s) => `${s}°`).join(', ')}`);
+  out.push('');
+  out.push('Governing factors');
+  out.push(
+    table(
+      ['girder', 'effect', 'location', 'L', 'value', 'from'],
+      result.governing.map((g) => [
+        g.girder,
+        g.effect,
+        g.location.description,
+        g.location.spanLength !== undefined ? disp(g.location.spanLength, 'length', units, 2) : '',
+        g.value.toFixed(3),
+        g.reason,
+      ]),
+    ),
+  );
+  out.push('');
+  out.push('All factor rows (* governing, + adopted for its lane case)');
+  out.push(
+    table(
+      ['', 'girder', 'effect', 'location', 'lanes', 'method', 'before skew', 'skew', 'value'],
+      result.factors.map((r) => [
+        r.governing ? '*' : r.adopted ? '+' : '',
+        girderText(r),
+        r.effect,
+        r.location.description,
+        r.loadedLanes !== undefined && r.method !== 'formula' ? `${r.lanes} (${r.loadedLanes})` : r.lanes,
+        r.method,
+        r.baseValue.toFixed(3),
+        r.skewFactor.toFixed(3),
+        r.value.toFixed(3),
+      ]),
+    ),
+  );
+  out.push('');
+  out.push('Findings');
+  if (result.findings.length === 0) out.push('  none');
+  for (const f of result.findings) out.push(`  - [${f.code}] ${f.message} (${f.article})`);
+  out.push('');
+  out.push(`Caution: ${result.caution}`);
+  return out.join('\n');
+}
+
+/** Run the tool; returns the exit code. Output goes through the two writers. */
+export function run(argv: string[], write: (s: string) => void, writeError: (s: string) => void): number {
+  try {
+    const { file, json } = parseArgs(argv);
+    let text: string;
+    try {
+      text = readFileSync(file, 'utf8');
+    } catch (e) {
+      throw new CliError(`cannot read ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`, 1);
+    }
+    const df = readDeckFile(text);
+    let result: CodeFactorResult;
+    try {
+      const deck = assertDeck(deckFromDisplay(df.deck, df.units));
+      result = computeCodeFactors(deck);
+    } catch (e) {
+      if (e instanceof DeckInputError) {
+        const lines = e.issues.map((i) => `  ${df.prefix}${i.path.join('.') || '(deck)'}: ${i.message}`);
+        throw new CliError(`${file}: the deck is not valid\n${lines.join('\n')}`, 1);
+      }
+      throw e;
+    }
+    write(json ? JSON.stringify(jsonDocument(result, df.units), null, 2) : textReport(result, df.units));
+    return 0;
+  } catch (e) {
+    if (e instanceof CliError) {
+      writeError(e.message);
+      return e.exitCode;
+    }
+    writeError(`error: ${(e as Error).message ?? String(e)}`);
+    return 1;
+  }
+}
+
+const isMain = process.argv[1] !== undefined && /factors\.[cm]?[jt]s$/.test(process.argv[1]);
+if (isMain) {
+  const code = run(
+    process.argv.slice(2),
+    (s) => process.stdout.write(s + '\n'),
+    (s) => process.stderr.write(s + '\n'),
+  );
+  process.exitCode = code;
+}
