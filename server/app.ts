@@ -22,15 +22,25 @@ import { deckRouter, projectDecksRouter } from './api/decks/deckRouter.js';
 import { userRouter } from './api/users/userRouter.js';
 import { errorHandler, notFoundHandler } from './middleware/errors.js';
 import { SOLVER_VERSION } from '../shared/version.js';
+import { disabledMailer, type Mailer } from './mail/mailer.js';
+import { invitationRouter } from './api/mail/invitationRouter.js';
+import { mailRouter } from './api/mail/mailRouter.js';
+import { attachmentRouter, projectAttachmentsRouter } from './api/attachments/attachmentRouter.js';
+import { defaultAttachmentsDir } from './api/attachments/attachmentStore.js';
 
 export interface AppDeps {
   db: Db;
   config: Config;
   log?: (line: string) => void;
+  /** Outgoing e-mail (server/mail); without one, notices are logged and dropped. */
+  mailer?: Mailer;
+  /** Folder for uploaded drawings (default: "attachments" beside the database file). */
+  attachmentsDir?: string;
 }
 
-export function createApp({ db, config, log = (l) => console.log(l) }: AppDeps): Express {
+export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir }: AppDeps): Express {
   const app = express();
+  const filesDir = attachmentsDir ?? defaultAttachmentsDir(config.databaseUrl);
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
   app.use(
@@ -66,11 +76,15 @@ export function createApp({ db, config, log = (l) => console.log(l) }: AppDeps):
     res.json({ status: 'ok', version: SOLVER_VERSION, database: 'ok' });
   });
   api.use('/auth', authRouter(db, config, pp));
+  api.use('/invitations', invitationRouter(db, config, pp, mailer)); // token routes need no session
   api.use(authenticate(pp), requireCsrf, requirePasswordChanged);
   api.use('/projects', projectRouter(db));
   api.use('/projects/:projectId/decks', projectDecksRouter(db));
   api.use('/decks', deckRouter(db));
   api.use('/admin/users', userRouter(db));
+  api.use('/mail', mailRouter(db));
+  api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));
+  api.use('/attachments', attachmentRouter(db, filesDir));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -4,6 +4,7 @@ import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
 import { demoCredentialsText, seedDemo } from './db/seed.js';
 import { createApp } from './app.js';
+import { startMail } from './mail/setup.js';
 
 async function main() {
   const config = loadConfig();
@@ -11,7 +12,9 @@ async function main() {
   if (config.seedDemo && (await seedDemo(db))) {
     console.log(`Seeded an empty database with demo data.\n${demoCredentialsText()}`);
   }
-  const app = createApp({ db, config });
+  const mail = await startMail(db, process.env, (line) => console.log(line));
+  console.log(`Mail: ${mail.mailer.description}${mail.local ? ' (messages kept in the outbox, read by admins under Mail)' : ''}`);
+  const app = createApp({ db, config, mailer: mail.mailer });
   const server = app.listen(config.port, config.host, (err?: Error) => {
     if (err) {
       console.error(`Deckshare could not listen on ${config.host}:${config.port}: ${err.message}`);
@@ -25,6 +28,7 @@ async function main() {
     stopping = true;
     console.log(`${signal}: closing connections…`);
     server.close(() => {
+      void mail.close().catch(() => {});
       db.$client.close();
       console.log('Deckshare stopped.');
       process.exit(0);

@@ -20,6 +20,26 @@ export const PERMISSIONS = {
   'audit:read': ['admin', 'designer', 'reviewer', 'instructor'],
   /** Create users of the firm, set their roles, disable them, reset passwords. */
   'users:manage': ['admin'],
+  /** See review rounds, their comments and the refined-analysis summary. */
+  'review:read': ['admin', 'designer', 'reviewer', 'instructor'],
+  /** Submit a deck version for review to a chosen reviewer, or withdraw the submission. */
+  'review:submit': ['admin', 'designer'],
+  /** Comment on a review round (its reviewer and its designer only). */
+  'review:comment': ['designer', 'reviewer'],
+  /** Approve or send back a version, record whether a refined analysis is justified (the assigned reviewer only). */
+  'review:decide': ['reviewer'],
+  /** Download the calculation package (PDF) and the CSV tables of a version. */
+  'report:export': ['admin', 'designer', 'reviewer', 'instructor'],
+  /** Attach a drawing (PDF, PNG, JPEG) to a project. */
+  'attachment:upload': ['admin', 'designer', 'reviewer', 'instructor'],
+  /** Delete a project's drawing. */
+  'attachment:delete': ['admin', 'designer'],
+  /** Make training exercises from deck versions, assign them, read submissions and grades. */
+  'training:manage': ['instructor'],
+  /** See one's own exercises and submit answers. */
+  'training:submit': ['trainee'],
+  /** Read the firm's outbox of e-mail notices (local mail service). */
+  'mail:read': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof PERMISSIONS;
