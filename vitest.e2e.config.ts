@@ -1,9 +1,9 @@
-import { defineConfig } from 'vitest/config';
+import { defineProject } from 'vitest/config';
 
 // Browser tests: a real server on a fresh database and Debian's headless Chromium driven by
 // playwright-core (tests/e2e/harness.ts). They expect `npm run build` to have produced dist/.
 // One fork, one file at a time: each file starts its own server and browser.
-export default defineConfig({
+export default defineProject({
   test: {
     name: 'e2e',
     include: ['tests/e2e/**/*.spec.ts'],

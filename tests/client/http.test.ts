@@ -6,7 +6,7 @@
  * Prevention Cheat Sheet, "Double Submit Cookie"); a failed connection gives a readable message.
  */
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { ApiError, describeError, errorFromResponse, http, onSessionProblem, readCookie, request } from '@/api/http';
+import { ApiError, describeError, errorFromResponse, fieldOf, http, onSessionProblem, readCookie, request } from '@/api/http';
 
 type FetchArgs = [input: string, init: RequestInit];
 
@@ -78,6 +78,13 @@ describe('CSRF header and request shape', () => {
     expect((error as ApiError).status).toBe(403);
   });
 
+  it('names the form field of a detail path, without the request-part prefix', () => {
+    expect(fieldOf('body.name')).toBe('name');
+    expect(fieldOf('query.archived')).toBe('archived');
+    expect(fieldOf('roles.0')).toBe('roles');
+    expect(fieldOf('body')).toBe('');
+  });
+
   it('reads one cookie among several, trimming spaces', () => {
     expect(readCookie('ds_csrf', 'a=1; ds_csrf=xyz ; b=2')).toBe('xyz');
     expect(readCookie('ds_csrf', 'a=1; not_ds_csrf=zzz')).toBeUndefined();
@@ -92,8 +99,9 @@ describe('error mapping', () => {
           code: 'validation_failed',
           message: 'Some fields are not valid.',
           details: [
-            { path: 'name', message: 'Too long: at most 200 characters' },
-            { path: 'units', message: "Expected 'US' or 'SI'" },
+            { path: 'body.name', message: 'Too long: at most 200 characters' },
+            { path: 'body.units', message: "Expected 'US' or 'SI'" },
+            { path: 'body', message: 'unknown field(s): colour' },
           ],
         },
       }),
@@ -105,12 +113,16 @@ describe('error mapping', () => {
     expect(error.code).toBe('validation_failed');
     expect(error.message).toBe('Some fields are not valid.');
     expect(error.details).toEqual([
-      { path: 'name', message: 'Too long: at most 200 characters' },
-      { path: 'units', message: "Expected 'US' or 'SI'" },
+      { path: 'body.name', message: 'Too long: at most 200 characters' },
+      { path: 'body.units', message: "Expected 'US' or 'SI'" },
+      { path: 'body', message: 'unknown field(s): colour' },
     ]);
     expect(error.fieldMessage('name')).toBe('Too long: at most 200 characters');
+    expect(error.fieldMessage('units')).toBe("Expected 'US' or 'SI'");
     expect(error.fieldMessage('notes')).toBeUndefined();
-    expect(describeError(error)).toContain('name: Too long');
+    expect(describeError(error)).toBe(
+      "name: Too long: at most 200 characters; units: Expected 'US' or 'SI'; unknown field(s): colour",
+    );
   });
 
   it('keeps the server message for 401 and 409 and the code for each', async () => {
