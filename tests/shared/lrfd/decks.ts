@@ -1,0 +1,39 @@
+/**
+ * Test decks written in US customary display units (ft, in, in², in⁴, ksi) and converted
+ * with the same edge conversion the CLI uses. `usDeck` starts from a plain type-a deck and
+ * applies overrides; every numeric input a test relies on is stated in the test itself.
+ */
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { assertDeck, deckFromDisplay, type Deck } from '../../../shared/index.js';
+
+export type DeckOverrides = Record<string, unknown>;
+
+export const BASE_US: Record<string, unknown> = {
+  name: 'Test deck',
+  sectionType: 'a',
+  girders: { kind: 'uniform', count: 5, spacing: 8 },
+  overhangLeft: 3,
+  overhangRight: 3,
+  barrierLeft: { width: 1.5, height: 32 },
+  barrierRight: { width: 1.5, height: 32 },
+  slab: { thickness: 8, haunch: 0 },
+  section: { area: 50, inertia: 20000, eg: 30 },
+  materials: { deck: { kind: 'modulus', modulus: 3600 }, girder: { kind: 'modulus', modulus: 29000 }, modularRatio: 8 },
+  spans: [{ length: 80 }],
+  continuous: false,
+  supports: [{ skew: 0 }, { skew: 0 }],
+  diaphragms: { type: 'none' },
+};
+
+/** A validated deck in internal units from US display values. */
+export function usDeck(over: DeckOverrides = {}): Deck {
+  return assertDeck(deckFromDisplay({ ...BASE_US, ...over }, 'US'));
+}
+
+/** The deck of a file in public/examples (wrapped form { units, deck }). */
+export function exampleDeck(file: string): Deck {
+  const path = fileURLToPath(new URL(`../../../public/examples/${file}`, import.meta.url));
+  const f = JSON.parse(readFileSync(path, 'utf8')) as { units: 'US' | 'SI'; deck: unknown };
+  return assertDeck(deckFromDisplay(f.deck, f.units));
+}
