@@ -7,3 +7,4 @@ export * from './deck/geometry.js';
 export * from './deck/section.js';
 export * from './version.js';
 export * from './lrfd/index.js';
+export * from './loads/index.js';

@@ -141,12 +141,20 @@ export class BeamInfluenceLine implements InfluenceLine, HasPiecewise {
   readonly values: Float64Array;
   readonly response: BeamResponse;
   private readonly elements: HermiteElement[];
+  private readonly breaks: readonly number[];
   private readonly jump: { x: number; take: -1 | 1 } | undefined;
   private cached: PiecewiseCubic | undefined;
 
-  constructor(response: BeamResponse, elements: HermiteElement[], jump: { x: number; take: -1 | 1 } | undefined) {
+  /**
+   * @param elements Hermite data of every element, in order
+   * @param breaks positions (m) where the line may have a kink or a jump: the supports and
+   *   the section. Between two breaks the line is one cubic (the beam carries no load
+   *   there), so the elements between them are merged into one exact piece.
+   */
+  constructor(response: BeamResponse, elements: HermiteElement[], jump: { x: number; take: -1 | 1 } | undefined, breaks: readonly number[] = []) {
     this.response = response;
     this.elements = elements;
+    this.breaks = breaks;
     this.jump = jump;
     const xs: number[] = [];
     const vs: number[] = [];
@@ -167,7 +175,20 @@ export class BeamInfluenceLine implements InfluenceLine, HasPiecewise {
 
   /** The exact piecewise-cubic form (cached). */
   piecewise(): PiecewiseCubic {
-    if (!this.cached) this.cached = PiecewiseCubic.fromHermite(this.elements);
+    if (!this.cached) {
+      const merged: HermiteElement[] = [];
+      const tol = 1e-9 * Math.max(1, this.elements.length ? this.elements[this.elements.length - 1].x1 : 1);
+      const isBreak = (x: number) => this.breaks.some((b) => Math.abs(b - x) <= tol);
+      for (const e of this.elements) {
+        const last = merged[merged.length - 1];
+        if (last && !isBreak(e.x0)) {
+          last.x1 = e.x1;
+          last.v1 = e.v1;
+          last.s1 = e.s1;
+        } else merged.push({ ...e });
+      }
+      this.cached = PiecewiseCubic.fromHermite(merged);
+    }
     return this.cached;
   }
 
@@ -440,7 +461,9 @@ export class BeamAnalysis {
       }
       jump = undefined;
     }
-    return new BeamInfluenceLine(r, elements, jump);
+    const breaks = [...this.beam.supports];
+    if (r.kind !== 'reaction') breaks.push(r.x);
+    return new BeamInfluenceLine(r, elements, jump, breaks);
   }
 }
 

@@ -24,7 +24,7 @@
  */
 import { DeckInputError } from '../deck/schema.js';
 import type { Vehicle } from './vehicles.js';
-import { PiecewiseCubic, derivativeRoots, type HasPiecewise } from './piecewiseCubic.js';
+import { PiecewiseCubic, stationaryPoints, type HasPiecewise } from './piecewiseCubic.js';
 
 /** One axle of a placed vehicle. */
 export interface AxlePlacement {
@@ -59,8 +59,14 @@ interface LineLike {
 interface RigidResult {
   best: number;
   p: number;
-  candP?: number[];
-  candV?: number[];
+  /** With `collect`: the local maxima of the effect as runs [pa, pb] of constant value v, increasing p. */
+  runs?: Runs;
+}
+
+interface Runs {
+  pa: number[];
+  pb: number[];
+  v: number[];
 }
 
 /** The exact piecewise form of a line: the engine's own, or piecewise linear through its stations. */
@@ -80,89 +86,285 @@ export function piecewiseOf(line: LineLike | HasPiecewise): PiecewiseCubic {
   return PiecewiseCubic.fromStations(l.xs, l.values);
 }
 
+const roots = new Float64Array(2);
+
+/** Results of one sweep, for σ = +1 and σ = −1. */
+type SweepResult = [RigidResult, RigidResult];
+
+interface CachedSweep {
+  d: 1 | -1;
+  o: Float64Array;
+  w: Float64Array;
+  collect: boolean;
+  result: SweepResult;
+}
+
+/** Sweeps already made on a line (the line is immutable), so both senses share one pass. */
+const sweepCache = new WeakMap<PiecewiseCubic, CachedSweep[]>();
+
+function sameLayout(c: CachedSweep, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1): boolean {
+  if (c.d !== d || c.o.length !== o.length) return false;
+  const tol = 1e-12 * Math.max(1, Math.abs(c.o[c.o.length - 1]));
+  for (let i = 0; i < o.length; i++) {
+    if (Math.abs(c.o[i] - o[i]) > tol || c.w[i] !== w[i]) return false;
+  }
+  return true;
+}
+
 /**
  * Maximise σ·Σ Wᵢ·η(p − d·oᵢ) over p, with η restricted to the pieces of sign σ (others
  * neglected). `o` are distances behind the lead axle (m), `w` the weights (N).
- * With `collect`, returns every candidate (interval end limits and stationary points), in
- * increasing p, so that window maxima can be taken exactly afterwards.
+ * With `collect`, also returns the local maxima of the effect as a function of p (every
+ * interval end limit and stationary point is a candidate; runs of equal value are merged
+ * into plateaus), so that window maxima can be taken exactly afterwards.
  */
 function searchRigid(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1, sigma: 1 | -1, collect: boolean): RigidResult {
+  let list = sweepCache.get(pw);
+  if (!list) {
+    list = [];
+    sweepCache.set(pw, list);
+  }
+  let hit: CachedSweep | undefined;
+  for (const c of list) {
+    if (sameLayout(c, o, w, d)) {
+      hit = c;
+      break;
+    }
+  }
+  if (!hit || (collect && !hit.collect)) {
+    const entry: CachedSweep = { d, o: Float64Array.from(o), w: Float64Array.from(w), collect, result: sweep(pw, o, w, d, collect) };
+    if (hit) list[list.indexOf(hit)] = entry;
+    else list.push(entry);
+    hit = entry;
+  }
+  return hit.result[sigma > 0 ? 0 : 1];
+}
+
+/** Growable scratch list of (p, value) candidates. */
+class CandidateList {
+  p = new Float64Array(256);
+  v = new Float64Array(256);
+  n = 0;
+  push(p: number, v: number): void {
+    if (this.n === this.p.length) {
+      const p2 = new Float64Array(this.n * 2);
+      const v2 = new Float64Array(this.n * 2);
+      p2.set(this.p);
+      v2.set(this.v);
+      this.p = p2;
+      this.v = v2;
+    }
+    this.p[this.n] = p;
+    this.v[this.n] = v;
+    this.n++;
+  }
+}
+
+const scratchPos = new CandidateList();
+
+/** Reused work arrays of the sweep (the search is synchronous, so one set suffices). */
+const scratch = {
+  delta: new Float64Array(8),
+  head: new Int32Array(8),
+  ptr: new Int32Array(8),
+  bps: new Float64Array(256),
+  ensure(nA: number, nBp: number): void {
+    if (this.delta.length < nA) {
+      this.delta = new Float64Array(nA);
+      this.head = new Int32Array(nA);
+      this.ptr = new Int32Array(nA);
+    }
+    if (this.bps.length < nBp) this.bps = new Float64Array(nBp);
+  },
+};
+const scratchNeg = new CandidateList();
+
+/** One pass over the breakpoints giving the positive and the negative extreme together. */
+function sweep(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1, collect: boolean): SweepResult {
   const K = pw.count;
   const nA = o.length;
-  const out: RigidResult = { best: 0, p: pw.xMin - 1, candP: collect ? [] : undefined, candV: collect ? [] : undefined };
-  if (K === 0 || nA === 0) return out;
-  const delta = new Float64Array(nA);
+  if (K === 0 || nA === 0) {
+    const empty = (): RigidResult => ({ best: 0, p: pw.xMin - 1, runs: collect ? { pa: [], pb: [], v: [] } : undefined });
+    return [empty(), empty()];
+  }
+  const nB = K + 1;
+  scratch.ensure(nA, nA * nB);
+  const { delta, head, ptr, bps } = scratch;
   let dMin = Infinity;
   let dMax = -Infinity;
   for (let i = 0; i < nA; i++) {
     delta[i] = -d * o[i];
+    head[i] = 0;
+    ptr[i] = 0;
     dMin = Math.min(dMin, delta[i]);
     dMax = Math.max(dMax, delta[i]);
   }
   const span = pw.xMax - pw.xMin;
   const tol = 1e-12 * Math.max(span, 1);
-  const bps = new Float64Array(nA * (K + 1));
-  let m = 0;
-  for (let i = 0; i < nA; i++) {
-    for (let k = 0; k < K; k++) bps[m++] = pw.a[k] - delta[i];
-    bps[m++] = pw.b[K - 1] - delta[i];
+  const { a, b, c0, c1, c2, c3, sign } = pw;
+  // Breakpoints: piece boundaries shifted by each axle offset, merged in increasing order.
+  const nBp = nA * nB;
+  const bEnd = b[K - 1];
+  for (let m = 0; m < nBp; m++) {
+    let bi = -1;
+    let bv = Infinity;
+    for (let i = 0; i < nA; i++) {
+      if (head[i] < nB) {
+        const v = (head[i] < K ? a[head[i]] : bEnd) - delta[i];
+        if (v < bv) {
+          bv = v;
+          bi = i;
+        }
+      }
+    }
+    bps[m] = bv;
+    head[bi]++;
   }
-  bps.sort();
   const pLo = pw.xMin - dMax;
   const pHi = pw.xMax - dMin;
-  const ptr = new Int32Array(nA);
-  const { a, b, c0, c1, c2, c3, sign } = pw;
-  let best = 0;
-  let bestP = pLo;
-  let first = true;
-  const push = (p: number, v: number) => {
-    if (collect) {
-      out.candP!.push(p);
-      out.candV!.push(v);
-    }
-    if (v > best || first) {
-      best = v;
-      bestP = p;
-      first = false;
-    }
-  };
-  push(pLo, 0);
+  let bestP = 0;
+  let bestPP = pLo;
+  let bestN = 0;
+  let bestNP = pLo;
+  const cp = scratchPos;
+  const cn = scratchNeg;
+  cp.n = 0;
+  cn.n = 0;
+  if (collect) {
+    cp.push(pLo, 0);
+    cn.push(pLo, 0);
+  }
   let t0 = pLo;
-  for (let j = 0; j <= m; j++) {
-    const t1 = j < m ? Math.min(Math.max(bps[j], pLo), pHi) : pHi;
+  for (let j = 0; j <= nBp; j++) {
+    const t1 = j < nBp ? Math.min(Math.max(bps[j], pLo), pHi) : pHi;
     if (!(t1 - t0 > tol)) continue;
     const mid = 0.5 * (t0 + t1);
-    let A0 = 0;
-    let A1 = 0;
-    let A2 = 0;
-    let A3 = 0;
+    let P0 = 0;
+    let P1 = 0;
+    let P2 = 0;
+    let P3 = 0;
+    let N0 = 0;
+    let N1 = 0;
+    let N2 = 0;
+    let N3 = 0;
     for (let i = 0; i < nA; i++) {
       const X = mid + delta[i];
       if (X <= pw.xMin || X >= pw.xMax) continue;
       let k = ptr[i];
       while (k < K - 1 && b[k] < X) k++;
       ptr[i] = k;
-      if (sign[k] !== sigma) continue;
+      const sg = sign[k];
+      if (sg === 0) continue;
       const e = t0 + delta[i] - a[k];
-      const ws = w[i] * sigma;
+      const wi = w[i];
       const k3 = c3[k];
       const k2 = c2[k];
       const k1 = c1[k];
-      A0 += ws * (c0[k] + e * (k1 + e * (k2 + e * k3)));
-      A1 += ws * (k1 + e * (2 * k2 + 3 * k3 * e));
-      A2 += ws * (k2 + 3 * k3 * e);
-      A3 += ws * k3;
+      const q0 = wi * (c0[k] + e * (k1 + e * (k2 + e * k3)));
+      const q1 = wi * (k1 + e * (2 * k2 + 3 * k3 * e));
+      const q2 = wi * (k2 + 3 * k3 * e);
+      const q3 = wi * k3;
+      if (sg > 0) {
+        P0 += q0;
+        P1 += q1;
+        P2 += q2;
+        P3 += q3;
+      } else {
+        N0 -= q0;
+        N1 -= q1;
+        N2 -= q2;
+        N3 -= q3;
+      }
     }
     const h = t1 - t0;
-    push(t0, A0);
-    if (A2 !== 0 || A3 !== 0) {
-      for (const r of derivativeRoots(A1, A2, A3, 0, h)) push(t0 + r, A0 + r * (A1 + r * (A2 + r * A3)));
+    if (P0 > bestP) {
+      bestP = P0;
+      bestPP = t0;
     }
-    push(t1, A0 + h * (A1 + h * (A2 + h * A3)));
+    if (N0 > bestN) {
+      bestN = N0;
+      bestNP = t0;
+    }
+    if (collect) {
+      cp.push(t0, P0);
+      cn.push(t0, N0);
+    }
+    // Interior stationary points (only for the collected lists are they needed at a given p).
+    if (P2 !== 0 || P3 !== 0) {
+      const nr = stationaryPoints(P1, P2, P3, 0, h, roots);
+      for (let q = 0; q < nr; q++) {
+        const r = roots[q];
+        const v = P0 + r * (P1 + r * (P2 + r * P3));
+        if (v > bestP) {
+          bestP = v;
+          bestPP = t0 + r;
+        }
+        if (collect) cp.push(t0 + r, v);
+      }
+    }
+    if (N2 !== 0 || N3 !== 0) {
+      const nr = stationaryPoints(N1, N2, N3, 0, h, roots);
+      for (let q = 0; q < nr; q++) {
+        const r = roots[q];
+        const v = N0 + r * (N1 + r * (N2 + r * N3));
+        if (v > bestN) {
+          bestN = v;
+          bestNP = t0 + r;
+        }
+        if (collect) cn.push(t0 + r, v);
+      }
+    }
+    const vp = P0 + h * (P1 + h * (P2 + h * P3));
+    const vn = N0 + h * (N1 + h * (N2 + h * N3));
+    if (vp > bestP) {
+      bestP = vp;
+      bestPP = t1;
+    }
+    if (vn > bestN) {
+      bestN = vn;
+      bestNP = t1;
+    }
+    if (collect) {
+      cp.push(t1, vp);
+      cn.push(t1, vn);
+    }
     t0 = t1;
   }
-  out.best = Math.max(best, 0);
-  out.p = best > 0 ? bestP : pLo;
+  const pos: RigidResult = { best: bestP, p: bestP > 0 ? bestPP : pLo };
+  const neg: RigidResult = { best: bestN, p: bestN > 0 ? bestNP : pLo };
+  if (collect) {
+    cp.push(pHi, 0);
+    cn.push(pHi, 0);
+    pos.runs = localMaxima(cp.p, cp.v, cp.n, 1e-12 * Math.max(bestP, 1e-300));
+    neg.runs = localMaxima(cn.p, cn.v, cn.n, 1e-12 * Math.max(bestN, 1e-300));
+  }
+  return [pos, neg];
+}
+
+/** Merge consecutive equal values into runs and keep the runs not lower than their neighbours. */
+function localMaxima(p: Float64Array, v: Float64Array, n: number, tiny: number): Runs {
+  const ra: number[] = [];
+  const rb: number[] = [];
+  const rv: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const last = rv.length - 1;
+    if (last >= 0 && Math.abs(v[i] - rv[last]) <= tiny) {
+      rb[last] = p[i];
+      rv[last] = Math.max(rv[last], v[i]);
+    } else {
+      ra.push(p[i]);
+      rb.push(p[i]);
+      rv.push(v[i]);
+    }
+  }
+  const out: Runs = { pa: [], pb: [], v: [] };
+  for (let i = 0; i < rv.length; i++) {
+    if ((i === 0 || rv[i] >= rv[i - 1]) && (i === rv.length - 1 || rv[i] >= rv[i + 1])) {
+      out.pa.push(ra[i]);
+      out.pb.push(rb[i]);
+      out.v.push(rv[i]);
+    }
+  }
   return out;
 }
 
@@ -203,34 +405,33 @@ function offsetsWithGap(o: number[], k: number, s: number): number[] {
 }
 
 function searchVariable(pw: PiecewiseCubic, o: number[], w: number[], k: number, sMin: number, sMax: number, d: 1 | -1, sigma: 1 | -1): Found {
+  const base = o[k - 1];
   const oMin = offsetsWithGap(o, k, sMin);
   const oMax = offsetsWithGap(o, k, sMax);
-  const rMin = searchRigid(pw, oMin, w, d, sigma, false);
-  const rMax = searchRigid(pw, oMax, w, d, sigma, false);
-  let found: Found = rMin.best >= rMax.best ? { best: rMin.best, p: rMin.p, d, spacing: sMin } : { best: rMax.best, p: rMax.p, d, spacing: sMax };
-  if (sMax - sMin <= 1e-12 * Math.max(1, sMax)) return found;
+  // Front group (axles before the gap) and rear group (from axle k), each rigid.
   const oF = o.slice(0, k);
   const wF = w.slice(0, k);
   const oR = o.slice(k).map((v) => v - o[k]);
   const wR = w.slice(k);
   const F = searchRigid(pw, oF, wF, d, sigma, true);
   const G = searchRigid(pw, oR, wR, d, sigma, true);
-  const fP = F.candP!;
-  const fV = F.candV!;
-  const gP = G.candP!;
-  const gV = G.candV!;
-  const order = Array.from(gV.keys()).sort((i, j) => gV[j] - gV[i]);
-  const base = o[k - 1];
+  const rMin = searchRigid(pw, oMin, w, d, sigma, false);
+  // With a gap as long as the line, the two groups are never on it together.
+  const rMax = sMax >= pw.xMax - pw.xMin ? (F.best >= G.best ? { best: F.best, p: F.p } : { best: G.best, p: G.p + d * (base + sMax) }) : searchRigid(pw, oMax, w, d, sigma, false);
+  let found: Found = rMin.best >= rMax.best ? { best: rMin.best, p: rMin.p, d, spacing: sMin } : { best: rMax.best, p: rMax.p, d, spacing: sMax };
+  if (sMax - sMin <= 1e-12 * Math.max(1, sMax)) return found;
+  const fr = F.runs!;
+  const gr = G.runs!;
+  const order = Array.from(gr.v.keys()).sort((i, j) => gr.v[j] - gr.v[i]);
   const tiny = 1e-12 * Math.max(found.best, 1e-300);
   for (const gi of order) {
-    const vG = gV[gi];
+    const vG = gr.v[gi];
     if (vG + F.best <= found.best + tiny) break;
-    const q = gP[gi];
-    // Front axle p = q + d·(o[k−1] + s), s in (sMin, sMax).
-    const e1 = q + d * (base + sMin);
-    const e2 = q + d * (base + sMax);
-    const lo = Math.min(e1, e2);
-    const hi = Math.max(e1, e2);
+    // Rear group's lead axle at q ∈ [qa, qb]; front axle p = q + d·(o[k−1] + s), s ∈ [sMin, sMax].
+    const qa = gr.pa[gi];
+    const qb = gr.pb[gi];
+    const lo = d > 0 ? qa + base + sMin : qa - base - sMax;
+    const hi = d > 0 ? qb + base + sMax : qb - base - sMin;
     let vBest = evaluateGroup(pw, lo, oF, wF, d, sigma, 1);
     let pBest = lo;
     const vHi = evaluateGroup(pw, hi, oF, wF, d, sigma, -1);
@@ -238,21 +439,34 @@ function searchVariable(pw: PiecewiseCubic, o: number[], w: number[], k: number,
       vBest = vHi;
       pBest = hi;
     }
-    for (let j = lowerBound(fP, lo); j < fP.length && fP[j] <= hi; j++) {
-      if (fV[j] > vBest) {
-        vBest = fV[j];
-        pBest = fP[j];
+    for (let j = lowerBound(fr.pb, lo); j < fr.pa.length && fr.pa[j] <= hi; j++) {
+      if (fr.v[j] > vBest) {
+        vBest = fr.v[j];
+        pBest = Math.min(Math.max(fr.pa[j], lo), hi);
       }
     }
     if (vG + vBest > found.best) {
-      const s = Math.min(Math.max(d * (pBest - q) - base, sMin), sMax);
+      // A spacing that puts the rear group in [qa, qb] with the front axle at pBest.
+      const sLo = d * (pBest - qb) - base;
+      const sHi = d * (pBest - qa) - base;
+      const s = Math.min(Math.max(Math.max(sLo, Math.min(sHi, sMin)), sMin), sMax);
       found = { best: vG + vBest, p: pBest, d, spacing: s };
     }
   }
   return found;
 }
 
+const validated = new WeakMap<Vehicle, { o: number[]; w: number[] }>();
+
 function validateVehicle(v: Vehicle): { o: number[]; w: number[] } {
+  const known = v && typeof v === 'object' && Object.isFrozen(v) ? validated.get(v) : undefined;
+  if (known) return known;
+  const checked = checkVehicle(v);
+  if (v && typeof v === 'object' && Object.isFrozen(v)) validated.set(v, checked);
+  return checked;
+}
+
+function checkVehicle(v: Vehicle): { o: number[]; w: number[] } {
   if (!v || !Array.isArray(v.axles) || v.axles.length === 0) throw new DeckInputError(['vehicle', 'axles'], 'a vehicle needs at least one axle');
   const o: number[] = [];
   const w: number[] = [];

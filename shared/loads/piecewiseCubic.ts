@@ -68,6 +68,43 @@ export function derivativeRoots(c1: number, c2: number, c3: number, lo: number, 
   return roots.filter((r) => r > lo && r < hi).sort((a, b) => a - b);
 }
 
+/**
+ * Allocation-free form of `derivativeRoots`: writes the roots of c1 + 2·c2·u + 3·c3·u² in
+ * (lo, hi), sorted, into `out` and returns how many (0, 1 or 2).
+ */
+export function stationaryPoints(c1: number, c2: number, c3: number, lo: number, hi: number, out: Float64Array): number {
+  const A = 3 * c3;
+  const B = 2 * c2;
+  const C = c1;
+  const m = Math.max(Math.abs(lo), Math.abs(hi));
+  const scale = Math.max(Math.abs(A) * m * m, Math.abs(B) * m, Math.abs(C));
+  if (scale === 0) return 0;
+  let r1 = NaN;
+  let r2 = NaN;
+  const w = Math.max(hi - lo, 1e-300);
+  if (Math.abs(A) * w * w <= 1e-14 * scale) {
+    if (B !== 0) r1 = -C / B;
+  } else {
+    const disc = B * B - 4 * A * C;
+    if (disc < 0) return 0;
+    const sq = Math.sqrt(disc);
+    const q = -0.5 * (B + (B >= 0 ? sq : -sq));
+    if (q !== 0) {
+      r1 = q / A;
+      r2 = C / q;
+    } else r1 = 0;
+  }
+  let n = 0;
+  if (r1 > lo && r1 < hi) out[n++] = r1;
+  if (r2 > lo && r2 < hi) out[n++] = r2;
+  if (n === 2 && out[0] > out[1]) {
+    const t = out[0];
+    out[0] = out[1];
+    out[1] = t;
+  }
+  return n;
+}
+
 export class PiecewiseCubic {
   /** Piece starts and ends, m. */
   readonly a: Float64Array;
@@ -243,7 +280,7 @@ export class PiecewiseCubic {
     return this.c1[k] + u * (2 * this.c2[k] + 3 * this.c3[k] * u);
   }
 
-  /** ∫ max(σ·f, 0) dx over the whole function, for σ = +1 or −1 (exact for cubics). */
+  /** ∫ f dx over the pieces of sign σ (so ≥ 0 for σ = +1, ≤ 0 for σ = −1); exact for cubics. */
   signedArea(sigma: 1 | -1): number {
     let s = 0;
     for (let k = 0; k < this.a.length; k++) {
@@ -251,7 +288,7 @@ export class PiecewiseCubic {
       const h = this.b[k] - this.a[k];
       s += h * (this.c0[k] + h * (this.c1[k] / 2 + h * (this.c2[k] / 3 + h * (this.c3[k] / 4))));
     }
-    return sigma * s;
+    return s;
   }
 
   /** ∫ f dx over [x0, x1] ⊂ [xMin, xMax] (exact). */
