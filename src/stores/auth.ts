@@ -14,6 +14,8 @@ export const useAuthStore = defineStore('auth', () => {
   const loaded = ref(false);
   /** Set when the first load failed for a reason other than "not signed in". */
   const loadError = ref<string | null>(null);
+  /** How the last session ended: signed out on purpose, or refused by the server (expired). */
+  const sessionEnd = ref<'signed-out' | 'expired' | null>(null);
   let pending: Promise<void> | null = null;
 
   const signedIn = computed(() => me.value !== null);
@@ -60,6 +62,7 @@ export const useAuthStore = defineStore('auth', () => {
 
   async function login(email: string, password: string): Promise<SessionUser> {
     const user = await authApi.login(email, password);
+    sessionEnd.value = null;
     me.value = user;
     loaded.value = true;
     loadError.value = null;
@@ -67,6 +70,7 @@ export const useAuthStore = defineStore('auth', () => {
   }
 
   async function logout(): Promise<void> {
+    sessionEnd.value = 'signed-out';
     try {
       await authApi.logout();
     } finally {
@@ -88,6 +92,7 @@ export const useAuthStore = defineStore('auth', () => {
   // Any API answer saying the session ended, or that a password change is due, updates us.
   onSessionProblem((error) => {
     if (error.status === 401) {
+      if (me.value) sessionEnd.value = sessionEnd.value ?? 'expired';
       me.value = null;
     } else if (error.code === 'password_change_required' && me.value) {
       me.value = { ...me.value, mustChangePassword: true };
@@ -98,6 +103,7 @@ export const useAuthStore = defineStore('auth', () => {
     me,
     loaded,
     loadError,
+    sessionEnd,
     signedIn,
     roles,
     isAdmin,

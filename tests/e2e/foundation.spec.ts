@@ -199,6 +199,27 @@ describe('foundation in the browser', () => {
     await page.locator('[data-test="projects-table"] tbody tr.ant-table-row').first().waitFor();
   });
 
+  it('returns to sign-in when the session ends mid-work, then back to the same screen', async () => {
+    const { page } = h;
+    await page.goto(h.url('/projects'));
+    const link = page.locator('[data-test="projects-table"] tbody tr.ant-table-row a').first();
+    await link.waitFor();
+    const href = await link.getAttribute('href');
+    expect(href).toMatch(/^\/projects\/\d+$/);
+    // The server no longer knows this browser (as when the 8-hour session expires).
+    await h.context.clearCookies();
+    await link.click();
+    await page.waitForURL((url) => url.pathname === '/sign-in');
+    await page.getByText('Your session has ended. Please sign in again.').waitFor();
+    expect(new URL(page.url()).searchParams.get('redirect')).toBe(href);
+    await signIn(page, h.baseUrl, DEMO_USERS.reviewer);
+    await page.waitForURL((url) => url.pathname === href);
+    await page.locator('[data-test="project-title"]').waitFor();
+    // A reviewer reads the project but has no edit form.
+    expect(await page.locator('button[data-test="save-project"]').count()).toBe(0);
+    await h.screenshot('09-reviewer-project-view');
+  });
+
   it('shows a page for an unknown address', async () => {
     const { page } = h;
     await page.goto(h.url('/no/such/page'));
