@@ -5,6 +5,9 @@ import { demo, makeTestApp, signIn, type Agent, type TestContext } from './helpe
 import { deckVersions, firms, userRoles, users } from '../../server/db/schema.js';
 import { hashPassword } from '../../server/auth/password.js';
 import { quarryCreekDeck } from '../fixtures/decks.js';
+import { assertDeck } from '../../shared/deck/schema.js';
+import { computeCodeFactors } from '../../shared/lrfd/factors.js';
+import { SOLVER_VERSION } from '../../shared/version.js';
 
 let ctx: TestContext;
 let designer: Agent;
@@ -100,7 +103,11 @@ describe('decks and versions', () => {
     expect(first.status).toBe(201);
     const deckId = first.body.deck.id;
     expect(first.body.version.number).toBe(1);
-    expect(first.body.version.results.length).toBeGreaterThan(0);
+    // The stored code-method result is the solver's own answer for the saved deck.
+    const stored = first.body.version.results.find((r: { method: string }) => r.method === 'code');
+    expect(stored.solverVersion).toBe(SOLVER_VERSION);
+    const expected = computeCodeFactors(assertDeck(deck));
+    expect(stored.data.governing).toEqual(JSON.parse(JSON.stringify(expected.governing)));
     const v1 = (await designer.get(`/api/decks/${deckId}/versions/1`)).body.version;
 
     const wider = { ...deck, girders: { kind: 'uniform', count: 7, spacing: 2.5 } };

@@ -1,11 +1,11 @@
 /**
- * The results stored with every saved deck version, computed by the shared solver. A deck
- * the solver cannot compute is refused (400 naming the field) before anything is written.
+ * The results stored with every saved deck version, computed by the shared solver:
+ * method 'code' — every code-method distribution factor with its trace and findings
+ * (shared/lrfd computeCodeFactors). A deck the solver cannot compute is refused (400 naming
+ * the field) before anything is written.
  */
 import { DeckInputError, type Deck } from '../../../shared/deck/schema.js';
-import { deckGeometry } from '../../../shared/deck/geometry.js';
-import { derivedSection } from '../../../shared/deck/section.js';
-import { designLanes } from '../../../shared/lrfd/lanes.js';
+import { computeCodeFactors } from '../../../shared/lrfd/factors.js';
 import { SOLVER_VERSION } from '../../../shared/version.js';
 import { ApiError } from '../../middleware/errors.js';
 
@@ -15,17 +15,17 @@ export interface StoredResult {
   data: unknown;
 }
 
+/** Turns the solver's typed deck error into a 400 whose details point into the request body. */
+export function deckErrorToApi(e: DeckInputError): ApiError {
+  const details = e.issues.map((i) => ({ path: ['body', 'deck', ...i.path].join('.'), message: i.message }));
+  return ApiError.badRequest(details.map((d) => `${d.path}: ${d.message}`).join('; '), details);
+}
+
 export function computeStoredResults(deck: Deck): StoredResult[] {
   try {
-    const geometry = deckGeometry(deck);
-    const lanes = designLanes(geometry.roadwayWidth);
-    const section = derivedSection(deck);
-    return [{ method: 'derived', solverVersion: SOLVER_VERSION, data: { geometry, section, lanes: { count: lanes.count, width: lanes.width } } }];
+    return [{ method: 'code', solverVersion: SOLVER_VERSION, data: computeCodeFactors(deck) }];
   } catch (e) {
-    if (e instanceof DeckInputError) {
-      const details = e.issues.map((i) => ({ path: ['body', 'deck', ...i.path].join('.'), message: i.message }));
-      throw ApiError.badRequest(details.map((d) => `${d.path}: ${d.message}`).join('; '), details);
-    }
+    if (e instanceof DeckInputError) throw deckErrorToApi(e);
     throw e;
   }
 }
