@@ -27,6 +27,7 @@ import { invitationRouter } from './api/mail/invitationRouter.js';
 import { mailRouter } from './api/mail/mailRouter.js';
 import { attachmentRouter, projectAttachmentsRouter } from './api/attachments/attachmentRouter.js';
 import { defaultAttachmentsDir } from './api/attachments/attachmentStore.js';
+import { reviewRouter } from './api/reviews/reviewRouter.js';
 
 export interface AppDeps {
   db: Db;
@@ -85,6 +86,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/mail', mailRouter(db));
   api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));
   api.use('/attachments', attachmentRouter(db, filesDir));
+  api.use('/reviews', reviewRouter(db, config, mailer));
   api.use(notFoundHandler);
   app.use('/api', api);
 

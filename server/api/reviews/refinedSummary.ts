@@ -1,0 +1,224 @@
+/**
+ * The refined-analysis summary a reviewer reads before deciding whether a refined analysis
+ * is justified for a deck version:
+ * - every range-of-applicability violation, fallback and cap of the code's approximate
+ *   methods (findings of the code-method result, AASHTO LRFD Art. 4.6.2.2);
+ * - the skew at each support and what its corrections did to the governing factors (moment
+ *   reduction, Art. 4.6.2.2.2e; shear correction, Art. 4.6.2.2.3c);
+ * - refined / code ratios per girder and effect, where a refined (grillage) result exists;
+ * - the possible reduction in the girder live-load moment if the refined factors were used:
+ *   the girder LL+IM moment is g × the per-lane LL+IM moment (Art. 4.6.2.2), so for the same
+ *   beam line the reduction is (g_code − g_refined) / g_code of it; the per-lane maximum
+ *   positive moment of the span comes from the HL-93 beam-line envelope (Art. 3.6.1.3.1).
+ *
+ * Factors are dimensionless (lanes per girder); moments N·m (internal SI).
+ */
+import type { Db } from '../../db/client.js';
+import type { DeckVersionRow } from '../../db/schema.js';
+import type { Finding } from '../../../shared/lrfd/findings.js';
+import type { CodeFactorResult, FactorEffect, FactorRow, GirderKind } from '../../../shared/lrfd/index.js';
+import { codeResultsOf, deckOf } from './versionResults.js';
+import { refinedResultsOf, type RefinedFactor } from './refinedResults.js';
+import { perLaneMaxMoment } from '../../reports/envelopes.js';
+
+export const CAUTION = 'Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
+
+const RANGE_CODES = new Set(['out-of-range', 'fallback', 'capped']);
+
+export interface SkewEffect {
+  girder: GirderKind;
+  effect: FactorEffect;
+  location: string;
+  method: string;
+  lanes: string;
+  /** Factor before the skew correction. */
+  baseValue: number;
+  /** Multiplier (< 1 a moment reduction, > 1 a shear increase). */
+  skewFactor: number;
+  value: number;
+  /** (value − base) / base, percent. */
+  changePercent: number;
+}
+
+export interface RatioRow {
+  /** Girder number, 1 = left exterior. */
+  girder: number;
+  girderKind: GirderKind;
+  effect: 'moment' | 'shear';
+  location: string;
+  refined: number;
+  code: number;
+  /** refined / code. */
+  ratio: number;
+}
+
+export interface MomentReduction {
+  girder: number;
+  girderKind: GirderKind;
+  location: string;
+  code: number;
+  refined: number;
+  /** Per-lane HL-93 LL+IM maximum positive moment of the span, N·m. */
+  perLaneMoment: number;
+  /** Girder LL+IM moment with the code factor and with the refined one, N·m. */
+  codeMoment: number;
+  refinedMoment: number;
+  /** codeMoment − refinedMoment, N·m (negative: the refined factor is larger). */
+  reduction: number;
+  reductionPercent: number;
+}
+
+export interface RefinedSummary {
+  caution: string;
+  solverVersion: string;
+  source: 'stored' | 'computed';
+  deckName: string;
+  girderCount: number;
+  rangeFindings: Finding[];
+  otherFindings: Finding[];
+  skew: {
+    supports: number[];
+    largest: number;
+    words: string;
+    effects: SkewEffect[];
+  };
+  governing: { girder: GirderKind; effect: FactorEffect; location: string; value: number; reason: string }[];
+  refined: {
+    available: boolean;
+    /** Why no refined result is shown, when none is. */
+    note: string;
+    source: string;
+    ratios: RatioRow[];
+    momentReductions: MomentReduction[];
+    /** The largest reduction among the girders' governing moments, or null. */
+    largestReduction: MomentReduction | null;
+  };
+  /** A short reading of the figures for the reviewer (not a decision). */
+  indicators: string[];
+}
+
+function governingRow(code: CodeFactorResult, girder: GirderKind, effect: FactorEffect, locationKey: string): FactorRow | undefined {
+  const g = code.governing.find((x) => x.girder === girder && x.effect === effect && x.location.key === locationKey);
+  return g ? code.factors.find((r) => r.id === g.rowId) : undefined;
+}
+
+/** The code's governing factor for a girder number (1-based) of `count`. */
+export function codeFactorForGirder(code: CodeFactorResult, girder: number, count: number, effect: FactorEffect, locationKey: string): { value: number; kind: GirderKind } | undefined {
+  const kind: GirderKind = girder === 1 || girder === count ? 'exterior' : 'interior';
+  const g = code.governing.find((x) => x.girder === kind && x.effect === effect && x.location.key === locationKey);
+  return g ? { value: g.value, kind } : undefined;
+}
+
+function skewWords(skews: number[]): string {
+  const largest = Math.max(...skews.map(Math.abs));
+  if (largest === 0) return 'The supports are square (no skew): no skew corrections apply.';
+  const list = skews.map((s, i) => `support ${i + 1}: ${Math.abs(s).toFixed(1)}°`).join(', ');
+  if (largest < 30) return `Skew ${list}. Below 30° the moment reduction is nil (c1 = 0, Table 4.6.2.2.2e-1); the shear correction of Table 4.6.2.2.3c-1 still applies at the obtuse corners.`;
+  return `Skew ${list}. The moment reduction of Table 4.6.2.2.2e-1 and the shear correction of Table 4.6.2.2.3c-1 both apply${largest > 60 ? '; θ above 60° is taken as 60° for the moment reduction' : ''}.`;
+}
+
+export function refinedSummaryOf(db: Db, v: DeckVersionRow): RefinedSummary {
+  const { result: code, solverVersion, source } = codeResultsOf(db, v);
+  const deck = deckOf(v);
+  const count = code.derived.girderCount;
+  const skews = code.derived.skews;
+
+  const effects: SkewEffect[] = [];
+  for (const g of code.governing) {
+    const row = code.factors.find((r) => r.id === g.rowId);
+    if (!row || Math.abs(row.skewFactor - 1) < 1e-12) continue;
+    effects.push({
+      girder: g.girder,
+      effect: g.effect,
+      location: g.location.description,
+      method: row.method,
+      lanes: row.lanes,
+      baseValue: row.baseValue,
+      skewFactor: row.skewFactor,
+      value: row.value,
+      changePercent: ((row.value - row.baseValue) / row.baseValue) * 100,
+    });
+  }
+
+  const refined = refinedResultsOf(db, v);
+  const ratios: RatioRow[] = [];
+  const reductions: MomentReduction[] = [];
+  if (refined.factors) {
+    for (const f of refined.factors) {
+      if (f.effect !== 'moment' && f.effect !== 'shear') continue;
+      const c = codeFactorForGirder(code, f.girder, count, f.effect, f.locationKey);
+      if (!c || c.value <= 0) continue;
+      ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value });
+    }
+    for (const f of refined.factors.filter((x: RefinedFactor) => x.effect === 'moment')) {
+      const c = codeFactorForGirder(code, f.girder, count, 'moment', f.locationKey);
+      const span = f.span ?? 0;
+      if (!c) continue;
+      const perLane = perLaneMaxMoment(deck, span);
+      const codeMoment = c.value * perLane;
+      const refinedMoment = f.value * perLane;
+      reductions.push({
+        girder: f.girder,
+        girderKind: c.kind,
+        location: f.location,
+        code: c.value,
+        refined: f.value,
+        perLaneMoment: perLane,
+        codeMoment,
+        refinedMoment,
+        reduction: codeMoment - refinedMoment,
+        reductionPercent: ((c.value - f.value) / c.value) * 100,
+      });
+    }
+  }
+  // The design girder of each kind: the girder with the largest refined moment governs its
+  // kind, so the reduction that can be claimed is the one of that girder.
+  let largest: MomentReduction | null = null;
+  for (const kind of ['interior', 'exterior'] as const) {
+    const ofKind = reductions.filter((r) => r.girderKind === kind);
+    if (ofKind.length === 0) continue;
+    const design = ofKind.reduce((a, b) => (b.refinedMoment > a.refinedMoment ? b : a));
+    if (!largest || design.reductionPercent > largest.reductionPercent) largest = design;
+  }
+
+  const rangeFindings = code.findings.filter((f) => RANGE_CODES.has(f.code));
+  const otherFindings = code.findings.filter((f) => !RANGE_CODES.has(f.code));
+  const indicators: string[] = [];
+  const fallbacks = rangeFindings.filter((f) => f.code === 'fallback').length;
+  const outside = rangeFindings.filter((f) => f.code === 'out-of-range').length;
+  if (outside > 0) indicators.push(`${outside} range-of-applicability violation${outside === 1 ? '' : 's'}: the empirical formulas were used outside their ranges (Art. 4.6.2.2.1 calls for a refined analysis or engineering judgement there).`);
+  if (fallbacks > 0) indicators.push(`${fallbacks} fallback${fallbacks === 1 ? '' : 's'} to the lever rule or another method.`);
+  if (outside === 0 && fallbacks === 0) indicators.push('Every formula was used within its range of applicability.');
+  const maxSkew = Math.max(...skews.map(Math.abs));
+  if (maxSkew >= 30) indicators.push(`Skew up to ${maxSkew.toFixed(1)}°: the approximate skew corrections are significant here.`);
+  if (largest) {
+    indicators.push(
+      largest.reductionPercent > 0
+        ? `The refined factors would lower the governing ${largest.girderKind} girder's LL+IM moment by ${largest.reductionPercent.toFixed(1)} % (girder ${largest.girder}, ${largest.location}).`
+        : `The refined factors do not lower the governing girder moments (the code's factors are not conservative here by ${(-largest.reductionPercent).toFixed(1)} %).`,
+    );
+  }
+
+  return {
+    caution: CAUTION,
+    solverVersion,
+    source,
+    deckName: code.deckName,
+    girderCount: count,
+    rangeFindings,
+    otherFindings,
+    skew: { supports: skews, largest: maxSkew, words: skewWords(skews), effects },
+    governing: code.governing.map((g) => ({ girder: g.girder, effect: g.effect, location: g.location.description, value: g.value, reason: g.reason })),
+    refined: {
+      available: refined.factors !== null,
+      note: refined.note,
+      source: refined.source,
+      ratios,
+      momentReductions: reductions,
+      largestReduction: largest,
+    },
+    indicators,
+  };
+}
+
+export { governingRow };

@@ -1,0 +1,59 @@
+/**
+ * /api/reviews — review rounds of deck versions.
+ * - GET  /                      review:read    list (?view=assigned|submitted|all, ?state, ?deckId)
+ * - GET  /reviewers             review:submit  users who may be chosen as reviewer
+ * - GET  /status?deckId=        review:read    review state of every version of a deck
+ * - POST /                      review:submit  submit `{ versionId, reviewerId, note? }`
+ * - GET  /:reviewId             review:read    the round, its comments, earlier rounds, the refined-analysis summary
+ * - POST /:reviewId/comments    review:comment `{ body, anchor?, parentId? }` (reviewer and designer of the round)
+ * - PUT  /:reviewId/refined-analysis  review:decide `{ justified, reason }` (the assigned reviewer)
+ * - POST /:reviewId/decision    review:decide  `{ outcome: 'approve'|'send-back', note }` (the assigned reviewer)
+ * - POST /:reviewId/withdraw    review:submit  (the submitter, while awaiting review)
+ */
+import { Router } from 'express';
+import type { Config } from '../../config/env.js';
+import type { Db } from '../../db/client.js';
+import { allow } from '../../auth/passport.js';
+import { idParams, validate } from '../../middleware/validate.js';
+import type { Mailer } from '../../mail/mailer.js';
+import { commentBody, decisionBody, listQuery, refinedBody, statusQuery, submitBody } from './reviewModel.js';
+import { addComment, decide, deckReviewStatus, findRound, getReview, listReviewers, listReviews, recordRefinedDecision, submitForReview, withdrawReview, type ReviewDeps } from './reviewService.js';
+import { refinedSummaryOf } from './refinedSummary.js';
+import { findVersion } from './reviewService.js';
+
+export function reviewRouter(db: Db, config: Config, mailer: Mailer): Router {
+  const r = Router();
+  const deps: ReviewDeps = { db, mailer, publicUrl: config.publicUrl };
+  const reviewId = validate({ params: idParams('reviewId') });
+
+  r.get('/', allow('review:read'), validate({ query: listQuery }), (req, res) => {
+    res.json({ reviews: listReviews(db, req.user!, res.locals.query) });
+  });
+  r.get('/reviewers', allow('review:submit'), (req, res) => {
+    res.json({ reviewers: listReviewers(db, req.user!) });
+  });
+  r.get('/status', allow('review:read'), validate({ query: statusQuery }), (req, res) => {
+    res.json(deckReviewStatus(db, req.user!.firmId, res.locals.query.deckId));
+  });
+  r.post('/', allow('review:submit'), validate({ body: submitBody }), (req, res) => {
+    res.status(201).json({ review: submitForReview(deps, req.user!, res.locals.body) });
+  });
+  r.get('/:reviewId', allow('review:read'), reviewId, (req, res) => {
+    const review = getReview(db, req.user!, res.locals.params.reviewId);
+    const round = findRound(db, req.user!.firmId, review.id);
+    res.json({ review, summary: refinedSummaryOf(db, findVersion(db, req.user!.firmId, round.versionId).v) });
+  });
+  r.post('/:reviewId/comments', allow('review:comment'), validate({ params: idParams('reviewId'), body: commentBody }), (req, res) => {
+    res.status(201).json({ comment: addComment(deps, req.user!, res.locals.params.reviewId, res.locals.body) });
+  });
+  r.put('/:reviewId/refined-analysis', allow('review:decide'), validate({ params: idParams('reviewId'), body: refinedBody }), (req, res) => {
+    res.json({ review: recordRefinedDecision(deps, req.user!, res.locals.params.reviewId, res.locals.body) });
+  });
+  r.post('/:reviewId/decision', allow('review:decide'), validate({ params: idParams('reviewId'), body: decisionBody }), (req, res) => {
+    res.json({ review: decide(deps, req.user!, res.locals.params.reviewId, res.locals.body) });
+  });
+  r.post('/:reviewId/withdraw', allow('review:submit'), reviewId, (req, res) => {
+    res.json({ review: withdrawReview(deps, req.user!, res.locals.params.reviewId) });
+  });
+  return r;
+}

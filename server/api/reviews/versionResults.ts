@@ -1,0 +1,53 @@
+/**
+ * The results of one saved deck version, for reviews, reports and training: the results
+ * stored with the version (analysis_results rows, newest of each method) where present, and
+ * otherwise computed here with the shared solver from the version's deck (not stored: saving
+ * results is the deck service's job). Versions and results are immutable, so both paths give
+ * the same numbers for a given solver version.
+ */
+import { and, desc, eq } from 'drizzle-orm';
+import type { Db } from '../../db/client.js';
+import { analysisResults, type DeckVersionRow } from '../../db/schema.js';
+import { assertDeck, type Deck } from '../../../shared/deck/schema.js';
+import { girderOffsets } from '../../../shared/deck/geometry.js';
+import { computeCodeFactors, type CodeFactorResult } from '../../../shared/lrfd/index.js';
+import { SOLVER_VERSION } from '../../../shared/version.js';
+
+export function deckOf(v: Pick<DeckVersionRow, 'deckJson'>): Deck {
+  return assertDeck(JSON.parse(v.deckJson));
+}
+
+export function girderCountOf(v: Pick<DeckVersionRow, 'deckJson'>): number {
+  return girderOffsets(deckOf(v)).length;
+}
+
+/** The newest stored result of a method for a version, with its solver version, or null. */
+export function storedResult(db: Db, versionId: number, method: string): { data: unknown; solverVersion: string } | null {
+  const row = db
+    .select()
+    .from(analysisResults)
+    .where(and(eq(analysisResults.versionId, versionId), eq(analysisResults.method, method)))
+    .orderBy(desc(analysisResults.id))
+    .get();
+  return row ? { data: JSON.parse(row.dataJson) as unknown, solverVersion: row.solverVersion } : null;
+}
+
+function looksLikeCodeResult(d: unknown): d is CodeFactorResult {
+  if (typeof d !== 'object' || d === null) return false;
+  const o = d as Record<string, unknown>;
+  return Array.isArray(o.factors) && Array.isArray(o.governing) && typeof o.derived === 'object' && o.derived !== null;
+}
+
+export interface CodeResults {
+  result: CodeFactorResult;
+  solverVersion: string;
+  /** 'stored': read from analysis_results; 'computed': computed now from the version's deck. */
+  source: 'stored' | 'computed';
+}
+
+/** The code-method factors of a version. */
+export function codeResultsOf(db: Db, v: DeckVersionRow): CodeResults {
+  const stored = storedResult(db, v.id, 'code');
+  if (stored && looksLikeCodeResult(stored.data)) return { result: stored.data, solverVersion: stored.solverVersion, source: 'stored' };
+  return { result: computeCodeFactors(deckOf(v)), solverVersion: SOLVER_VERSION, source: 'computed' };
+}
