@@ -8,3 +8,4 @@ export * from './deck/section.js';
 export * from './version.js';
 export * from './lrfd/index.js';
 export * from './loads/index.js';
+export * from './placement/index.js';

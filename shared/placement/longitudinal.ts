@@ -1,0 +1,328 @@
+/**
+ * The governing position of one vehicle along a piecewise-linear line: exact.
+ *
+ * Units: x in m; line ordinates in response per unit downward force (any response unit);
+ * axle weights in N; the result is in response units (ordinate × N).
+ *
+ * The line is linear between its stations and zero beyond the deck's length [xMin, xMax].
+ * Where its end ordinates are not zero, it falls to zero over a ramp of RAMP m just beyond
+ * the end, so that the line is continuous everywhere; an axle on the ramp is off the deck and
+ * its true share is zero, so the ramp can change the largest effect by at most
+ * (axle weight) × (end ordinate) at a position 1 µm from one where the true value is reached.
+ *
+ * Why the search is exact. Fix the direction of travel. The effect
+ *   F(xf, s) = Σ_a W_a · ℓ(xf − d·p_a(s)),
+ * with xf the front axle's x, s the variable spacing in [sMin, sMax] and p_a(s) the axle
+ * positions behind the front axle, is linear on every cell of the arrangement of the lines
+ * "axle a at station x_j" in the (xf, s) plane: for the axles ahead of the variable gap these
+ * are lines xf = const, for the axles behind it lines xf − d·s = const. The legal domain
+ * (s in [sMin, sMax], at least one axle on the deck) is bounded by lines of the same
+ * arrangement (the deck's ends are stations) and by s = sMin, s = sMax. A linear function on
+ * a bounded polygon is largest at a vertex, and every vertex lies on
+ *  (A) a line xf = x_j + d·p_a (an axle ahead of the gap at a station), or
+ *  (B) the intersection of a line of an axle behind the gap with s = sMin or s = sMax.
+ * On each line (A) the effect is a function of s alone, maximised exactly: for one axle
+ * behind the gap it is that axle's weight times the largest ordinate over the interval its
+ * position sweeps (an end of the interval or a station inside it); for several axles behind
+ * the gap every s at which one of them meets a station is tried, with both bounds.
+ * Every candidate (A) and (B) is evaluated, so the largest of them is the largest effect.
+ * A vehicle without a variable spacing is the case of case (A) alone.
+ */
+import type { Vehicle } from '../loads/vehicles.js';
+import { PlacementError } from './rules.js';
+
+/** Width of the ramp to zero beyond a non-zero end ordinate, m. */
+export const RAMP = 1e-6;
+
+/** A line ready for the search: stations (with any end ramps), ordinates, and a fast locator. */
+export interface StationLine {
+  xs: Float64Array;
+  values: Float64Array;
+  /** The deck's length, m: legal vehicles have at least one axle in [xMin, xMax]. */
+  xMin: number;
+  xMax: number;
+  /** Bucket index for O(1) location. */
+  bucketStart: Int32Array;
+  bucketOrigin: number;
+  bucketWidth: number;
+}
+
+/**
+ * Prepare a line from stations xs (m, strictly increasing) and ordinates, zero beyond
+ * [xs[0], xs[n−1]] (the deck's length).
+ */
+export function stationLine(xs: ArrayLike<number>, values: ArrayLike<number>): StationLine {
+  const n = xs.length;
+  if (n < 2 || values.length !== n) throw new PlacementError([{ path: ['line'], message: 'a line needs at least two stations and one ordinate per station' }]);
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(xs[i]) || !Number.isFinite(values[i])) throw new PlacementError([{ path: ['line', i], message: 'stations and ordinates must be finite' }]);
+    if (i > 0 && !(xs[i] > xs[i - 1])) throw new PlacementError([{ path: ['line', 'xs', i], message: 'stations must increase strictly' }]);
+  }
+  const xMin = xs[0];
+  const xMax = xs[n - 1];
+  const rampL = values[0] !== 0;
+  const rampR = values[n - 1] !== 0;
+  const m = n + (rampL ? 1 : 0) + (rampR ? 1 : 0);
+  const X = new Float64Array(m);
+  const V = new Float64Array(m);
+  let k = 0;
+  if (rampL) {
+    X[k] = xMin - RAMP;
+    V[k++] = 0;
+  }
+  for (let i = 0; i < n; i++) {
+    X[k] = xs[i];
+    V[k++] = values[i];
+  }
+  if (rampR) {
+    X[k] = xMax + RAMP;
+    V[k++] = 0;
+  }
+  return withLocator(X, V, xMin, xMax);
+}
+
+/** Same stations, new ordinates (same ramps): for lines rebuilt many times on one grid. */
+export function withLocator(X: Float64Array, V: Float64Array, xMin: number, xMax: number): StationLine {
+  const m = X.length;
+  let hMin = Infinity;
+  for (let i = 1; i < m; i++) hMin = Math.min(hMin, X[i] - X[i - 1]);
+  const span = X[m - 1] - X[0];
+  const buckets = Math.max(1, Math.min(4 * m, Math.ceil(span / Math.max(hMin, span / (4 * m)))));
+  const width = span / buckets;
+  const start = new Int32Array(buckets + 1);
+  let j = 0;
+  for (let b = 0; b <= buckets; b++) {
+    const x = X[0] + b * width;
+    while (j < m - 2 && X[j + 1] <= x) j++;
+    start[b] = j;
+  }
+  return { xs: X, values: V, xMin, xMax, bucketStart: start, bucketOrigin: X[0], bucketWidth: width };
+}
+
+/** Ordinate of a prepared line at x (m); zero beyond its stations. */
+export function lineAt(line: StationLine, x: number): number {
+  const X = line.xs;
+  const m = X.length;
+  if (x < X[0] || x > X[m - 1]) return 0;
+  let b = Math.floor((x - line.bucketOrigin) / line.bucketWidth);
+  if (b < 0) b = 0;
+  else if (b >= line.bucketStart.length) b = line.bucketStart.length - 1;
+  let j = line.bucketStart[b];
+  while (j < m - 2 && X[j + 1] <= x) j++;
+  while (j > 0 && X[j] > x) j--;
+  const x0 = X[j];
+  const h = X[j + 1] - x0;
+  const t = (x - x0) / h;
+  return line.values[j] + t * (line.values[j + 1] - line.values[j]);
+}
+
+/** Largest ordinate of a prepared line over [a, b] (m, a ≤ b). */
+export function lineMaxOver(line: StationLine, a: number, b: number): number {
+  let best = Math.max(lineAt(line, a), lineAt(line, b));
+  const X = line.xs;
+  const V = line.values;
+  const m = X.length;
+  if (b < X[0] || a > X[m - 1]) return best;
+  // first station strictly greater than a
+  let lo = 0;
+  let hi = m;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (X[mid] <= a) lo = mid + 1;
+    else hi = mid;
+  }
+  for (let j = lo; j < m && X[j] < b; j++) if (V[j] > best) best = V[j];
+  return best;
+}
+
+/** A vehicle's geometry ready for the search. */
+export interface VehicleShape {
+  vehicle: Vehicle;
+  weights: Float64Array;
+  /** Positions behind the front axle with the variable spacing at sMin, m. */
+  basePositions: Float64Array;
+  /** First axle behind the variable gap, or the axle count when there is none. */
+  gapIndex: number;
+  sMin: number;
+  sMax: number;
+  /** Total weight, N. */
+  totalWeight: number;
+}
+
+export function vehicleShape(vehicle: Vehicle): VehicleShape {
+  const n = vehicle.axles.length;
+  if (n < 1) throw new PlacementError([{ path: ['vehicle', 'axles'], message: 'a vehicle needs at least one axle' }]);
+  const weights = new Float64Array(n);
+  const pos = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const a = vehicle.axles[i];
+    if (!(Number.isFinite(a.weight) && a.weight > 0)) throw new PlacementError([{ path: ['vehicle', 'axles', i, 'weight'], message: 'axle weights must be positive numbers of newtons' }]);
+    if (!Number.isFinite(a.position) || (i > 0 && a.position < vehicle.axles[i - 1].position)) {
+      throw new PlacementError([{ path: ['vehicle', 'axles', i, 'position'], message: 'axle positions must be finite and not decrease from front to rear' }]);
+    }
+    weights[i] = a.weight;
+    pos[i] = a.position;
+  }
+  const vs = vehicle.variableSpacing;
+  let gapIndex = n;
+  let sMin = 0;
+  let sMax = 0;
+  if (vs) {
+    if (!Number.isInteger(vs.axleIndex) || vs.axleIndex < 1 || vs.axleIndex >= n || !(vs.min > 0) || !(vs.max >= vs.min)) {
+      throw new PlacementError([{ path: ['vehicle', 'variableSpacing'], message: 'the variable spacing needs an axle index from 1 to the last axle and 0 < min ≤ max' }]);
+    }
+    gapIndex = vs.axleIndex;
+    sMin = vs.min;
+    sMax = vs.max;
+    const shift = sMin - (pos[gapIndex] - pos[gapIndex - 1]);
+    for (let i = gapIndex; i < n; i++) pos[i] += shift;
+  }
+  let total = 0;
+  for (let i = 0; i < n; i++) total += weights[i];
+  return { vehicle, weights, basePositions: pos, gapIndex, sMin, sMax, totalWeight: total };
+}
+
+export interface LongitudinalPosition {
+  /** x of the front axle, m. */
+  frontAxleAt: number;
+  direction: 1 | -1;
+  /** The variable spacing, m (vehicles with one). */
+  axleSpacing?: number;
+}
+
+export interface LineMaximum extends LongitudinalPosition {
+  /** Largest Σ W·ordinate, response units. */
+  value: number;
+}
+
+const TOL = 1e-9;
+
+/** Σ W·ℓ for a position; −Infinity when no axle is on the deck. */
+function effectAt(line: StationLine, v: VehicleShape, xf: number, d: number, s: number): number {
+  const W = v.weights;
+  const P = v.basePositions;
+  const ds = s - v.sMin;
+  let sum = 0;
+  let on = false;
+  for (let a = 0; a < W.length; a++) {
+    const x = xf - d * (P[a] + (a >= v.gapIndex ? ds : 0));
+    if (x >= line.xMin - TOL && x <= line.xMax + TOL) on = true;
+    sum += W[a] * lineAt(line, x);
+  }
+  return on ? sum : -Infinity;
+}
+
+/**
+ * The largest Σ W_a·ℓ(x_a) over every legal position of the vehicle on the line (both
+ * directions of travel unless `directions` says otherwise, variable spacing searched). Exact
+ * (see the header). Ties keep the first candidate found.
+ */
+export function bestVehicleOnLine(line: StationLine, v: VehicleShape, directions: readonly (1 | -1)[] = [1, -1]): LineMaximum {
+  const X = line.xs;
+  const m = X.length;
+  const W = v.weights;
+  const P = v.basePositions;
+  const n = W.length;
+  const g = v.gapIndex;
+  const variable = g < n;
+  let best: LineMaximum = { value: -Infinity, frontAxleAt: NaN, direction: 1 };
+  const consider = (value: number, xf: number, d: 1 | -1, s: number) => {
+    if (value > best.value) best = variable ? { value, frontAxleAt: xf, direction: d, axleSpacing: s } : { value, frontAxleAt: xf, direction: d };
+  };
+  const singleBehind = variable && n - g === 1;
+  for (const d of directions) {
+    // (A) an axle ahead of the gap (every axle when there is none) at a station.
+    for (let a = 0; a < g; a++) {
+      for (let j = 0; j < m; j++) {
+        const xf = X[j] + d * P[a];
+        if (!variable) {
+          consider(effectAt(line, v, xf, d, 0), xf, d, 0);
+          continue;
+        }
+        // Part of the effect from the axles ahead of the gap.
+        let ahead = 0;
+        let on = false;
+        for (let b = 0; b < g; b++) {
+          const x = xf - d * P[b];
+          if (x >= line.xMin - TOL && x <= line.xMax + TOL) on = true;
+          ahead += W[b] * lineAt(line, x);
+        }
+        if (singleBehind) {
+          // The rear axle sweeps [xf − d·(P + sMax − sMin), xf − d·P]; its best ordinate:
+          const x1 = xf - d * P[g];
+          const x2 = xf - d * (P[g] + v.sMax - v.sMin);
+          const lo = Math.min(x1, x2);
+          const hi = Math.max(x1, x2);
+          const sBest = bestSpacingSingle(line, lo, hi, x1, d, v);
+          const xr = xf - d * (P[g] + sBest - v.sMin);
+          const rearOn = xr >= line.xMin - TOL && xr <= line.xMax + TOL;
+          if (on || rearOn) consider(ahead + W[g] * lineAt(line, xr), xf, d, sBest);
+          else consider(-Infinity, xf, d, sBest);
+        } else {
+          for (const s of spacingCandidates(line, v, xf, d)) consider(effectAt(line, v, xf, d, s), xf, d, s);
+        }
+      }
+    }
+    // (B) an axle behind the gap at a station, with the spacing at a bound.
+    if (variable) {
+      for (let a = g; a < n; a++) {
+        for (const s of [v.sMin, v.sMax]) {
+          for (let j = 0; j < m; j++) {
+            const xf = X[j] + d * (P[a] + s - v.sMin);
+            consider(effectAt(line, v, xf, d, s), xf, d, s);
+          }
+        }
+      }
+    }
+  }
+  if (!Number.isFinite(best.value)) {
+    throw new PlacementError([{ path: ['line'], message: 'no legal position of the vehicle was found on the line' }]);
+  }
+  return best;
+}
+
+/** For one axle behind the gap: the spacing (m) at which it sits on the best ordinate of [lo, hi]. */
+function bestSpacingSingle(line: StationLine, lo: number, hi: number, xAtMin: number, d: number, v: VehicleShape): number {
+  const X = line.xs;
+  const V = line.values;
+  let bestX = lo;
+  let bestV = lineAt(line, lo);
+  const vh = lineAt(line, hi);
+  if (vh > bestV) {
+    bestV = vh;
+    bestX = hi;
+  }
+  const m = X.length;
+  if (!(hi < X[0] || lo > X[m - 1])) {
+    let a = 0;
+    let b = m;
+    while (a < b) {
+      const mid = (a + b) >> 1;
+      if (X[mid] <= lo) a = mid + 1;
+      else b = mid;
+    }
+    for (let j = a; j < m && X[j] < hi; j++) {
+      if (V[j] > bestV) {
+        bestV = V[j];
+        bestX = X[j];
+      }
+    }
+  }
+  // position x = xAtMin − d·(s − sMin)  ⇒  s = sMin + d·(xAtMin − x)
+  const s = v.sMin + d * (xAtMin - bestX);
+  return Math.min(v.sMax, Math.max(v.sMin, s));
+}
+
+/** Spacings to try when several axles ride behind the gap: both bounds and each axle at each station. */
+function spacingCandidates(line: StationLine, v: VehicleShape, xf: number, d: number): number[] {
+  const out = [v.sMin, v.sMax];
+  const X = line.xs;
+  for (let a = v.gapIndex; a < v.weights.length; a++) {
+    const xAtMin = xf - d * v.basePositions[a];
+    for (let j = 0; j < X.length; j++) {
+      const s = v.sMin + d * (xAtMin - X[j]);
+      if (s > v.sMin && s < v.sMax) out.push(s);
+    }
+  }
+  return out;
+}

@@ -1,0 +1,147 @@
+/**
+ * A sampled influence surface: the surface's ordinates on a grid of stations, bilinear in
+ * between. The placement search works on this representation; evaluation may use either it
+ * (fast, for dragging) or the surface itself.
+ *
+ * Units: x, y in m (x along girder 1's axis from support line 0, y from girder 1, positive
+ * right); ordinates in response units per unit downward force (N·m/N for a moment, N/N for a
+ * shear or reaction). Zero off the deck, i.e. outside [xMin, xMax] × [yMin, yMax].
+ *
+ * Representation error. If the surface is itself bilinear on every cell of the station grid
+ * (for a grillage that shares a wheel load among the corner nodes of its panel, when the
+ * stations include every node line), the representation is the surface and the search is
+ * exact. Otherwise let ε = sup |η − η̃| over the deck. `representationError` is ε as measured
+ * at the midpoints of every cell and cell edge, where a bilinear interpolant's error of a
+ * smooth surface is largest to leading order (for a C² surface ε ≤ hx²/8·max|η_xx| +
+ * hy²/8·max|η_yy|, the standard bilinear interpolation bound).
+ */
+import { PlacementError } from './rules.js';
+
+export interface SurfaceLike {
+  /** Response per unit downward point force at plan point (x, y), m; zero off the deck. */
+  at(x: number, y: number): number;
+  extent: { xMin: number; xMax: number; yMin: number; yMax: number };
+}
+
+export interface SampledSurface extends SurfaceLike {
+  /** Longitudinal stations, m, strictly increasing, from xMin to xMax. */
+  xs: Float64Array;
+  /** Transverse stations, m, strictly increasing, from yMin to yMax. */
+  ys: Float64Array;
+  /** rows[j][i] = ordinate at (xs[i], ys[j]). */
+  rows: Float64Array[];
+  /** Largest |surface − representation| found at cell and edge midpoints (0 when not measured). */
+  representationError: number;
+  /** Whether representationError was measured. */
+  representationMeasured: boolean;
+  /** Largest |ordinate| on the grid, for scale. */
+  maxOrdinate: number;
+  /** The surface sampled (results are evaluated on it). */
+  source: SurfaceLike;
+}
+
+function sortedUnique(values: ArrayLike<number>, lo: number, hi: number, what: string): Float64Array {
+  const arr: number[] = [];
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    if (!Number.isFinite(v)) throw new PlacementError([{ path: ['stations', what, i], message: `every ${what} station must be a finite number of metres` }]);
+    if (v >= lo && v <= hi) arr.push(v);
+  }
+  arr.push(lo, hi);
+  arr.sort((a, b) => a - b);
+  const out: number[] = [];
+  const tol = 1e-9 * Math.max(1, Math.abs(hi - lo));
+  for (const v of arr) if (!out.length || v - out[out.length - 1] > tol) out.push(v);
+  if (out[out.length - 1] !== hi) out[out.length - 1] = hi;
+  return Float64Array.from(out);
+}
+
+/** Index j of the cell [s[j], s[j+1]] holding v (clamped), binary search. */
+export function cellIndex(s: Float64Array, v: number): number {
+  const n = s.length;
+  if (v <= s[0]) return 0;
+  if (v >= s[n - 1]) return n - 2;
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (s[mid] <= v) lo = mid;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/**
+ * Sample a surface on the stations given (m; stations outside the extent are dropped and the
+ * extent's ends are added). `measure`: also measure the representation error (3 more
+ * evaluations of the surface per grid point).
+ */
+export function sampleSurface(
+  surface: SurfaceLike,
+  stations: { xs: ArrayLike<number>; ys: ArrayLike<number> },
+  options: { measure?: boolean } = {},
+): SampledSurface {
+  const e = surface.extent;
+  if (!(Number.isFinite(e.xMin) && Number.isFinite(e.xMax) && e.xMax > e.xMin)) {
+    throw new PlacementError([{ path: ['surface', 'extent'], message: 'the surface needs a finite length xMax > xMin' }]);
+  }
+  if (!(Number.isFinite(e.yMin) && Number.isFinite(e.yMax) && e.yMax > e.yMin)) {
+    throw new PlacementError([{ path: ['surface', 'extent'], message: 'the surface needs a finite width yMax > yMin' }]);
+  }
+  const xs = sortedUnique(stations.xs, e.xMin, e.xMax, 'x');
+  const ys = sortedUnique(stations.ys, e.yMin, e.yMax, 'y');
+  const nx = xs.length;
+  const ny = ys.length;
+  const rows: Float64Array[] = [];
+  let maxOrd = 0;
+  for (let j = 0; j < ny; j++) {
+    const r = new Float64Array(nx);
+    for (let i = 0; i < nx; i++) {
+      const v = surface.at(xs[i], ys[j]);
+      if (!Number.isFinite(v)) {
+        throw new PlacementError([{ path: ['surface'], message: `the surface's ordinate at x = ${xs[i]} m, y = ${ys[j]} m is not finite` }]);
+      }
+      r[i] = v;
+      if (Math.abs(v) > maxOrd) maxOrd = Math.abs(v);
+    }
+    rows.push(r);
+  }
+  const interp = (x: number, y: number): number => {
+    if (x < xs[0] || x > xs[nx - 1] || y < ys[0] || y > ys[ny - 1]) return 0;
+    const i = cellIndex(xs, x);
+    const j = cellIndex(ys, y);
+    const tx = (x - xs[i]) / (xs[i + 1] - xs[i]);
+    const ty = (y - ys[j]) / (ys[j + 1] - ys[j]);
+    const r0 = rows[j];
+    const r1 = rows[j + 1];
+    const a = r0[i] + tx * (r0[i + 1] - r0[i]);
+    const b = r1[i] + tx * (r1[i + 1] - r1[i]);
+    return a + ty * (b - a);
+  };
+  let err = 0;
+  if (options.measure) {
+    for (let j = 0; j < ny; j++) {
+      for (let i = 0; i < nx; i++) {
+        const pts: [number, number][] = [];
+        if (i < nx - 1) pts.push([(xs[i] + xs[i + 1]) / 2, ys[j]]);
+        if (j < ny - 1) pts.push([xs[i], (ys[j] + ys[j + 1]) / 2]);
+        if (i < nx - 1 && j < ny - 1) pts.push([(xs[i] + xs[i + 1]) / 2, (ys[j] + ys[j + 1]) / 2]);
+        for (const [x, y] of pts) {
+          const d = Math.abs(surface.at(x, y) - interp(x, y));
+          if (d > err) err = d;
+        }
+      }
+    }
+  }
+  return {
+    at: interp,
+    extent: { ...e },
+    xs,
+    ys,
+    rows,
+    representationError: err,
+    representationMeasured: !!options.measure,
+    maxOrdinate: maxOrd,
+    source: surface,
+  };
+}

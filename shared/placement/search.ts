@@ -1,0 +1,491 @@
+/**
+ * The governing placement: the legal placement of 1..NL loaded lanes, their wheel lines and
+ * (on a surface) their vehicles that gives the extreme effect of a response, times the
+ * multiple presence factor m (AASHTO LRFD Art. 3.6.1.3.1, Table 3.6.1.1.2-1). It serves the
+ * lever rule and the rigid-section method (transverse lines) and the grillage (surfaces).
+ *
+ * Units: as evaluate.ts. Transverse lines give a factor in lanes; surfaces give the response
+ * in its unit (N·m, N). `sense: 'negative'` seeks the most negative effect.
+ *
+ * ─── Tolerance statement ──────────────────────────────────────────────────────────────
+ * Transverse lines (piecewise linear): EXACT (up to floating-point rounding and the 1 nm
+ * tolerance on the rules). Surfaces: EXACT for the sampled representation (bilinear on the
+ * station grid, see sampledSurface.ts); against the surface itself no legal placement exceeds
+ * the reported effect by more than 2·m·k·ΣW·ε, ε the representation error (zero when the
+ * surface is bilinear on the grid), plus the end-ramp allowance of longitudinal.ts
+ * (ΣW·|end ordinate| at 1 µm, negligible). `tolerance.absolute` reports the bound.
+ *
+ * ─── Proof ────────────────────────────────────────────────────────────────────────────
+ * Notation: lane i has left edge p_i ∈ [L0, R0] (L0 the left curb face, R0 the right curb
+ * face minus the lane width w), p_{i+1} ≥ p_i + w; its left wheel line is at u_i ∈ [p_i + a(p_i),
+ * p_i + b(p_i)], a = 2 ft, b = w − 2 ft − gauge (the deck-overhang option widens the range of
+ * a lane whose edge is a curb face, see rules.ts). Let H(u) be the largest effect of one
+ * lane's vehicle with its left wheel line at u (for a line: ½(r(u) + r(u+gauge)); for a
+ * surface: the best longitudinal position, spacing and direction, found exactly by
+ * longitudinal.ts). The effect of k lanes is m(k)·Σ H(u_i), and for a lane at p the best
+ * wheel line gives g(p) = max{H(u) : u ∈ [p + a(p), p + b(p)]}.
+ *
+ * 1. H is convex between consecutive points of T = Y ∪ (Y − gauge), Y the transverse
+ *    stations. For a fixed longitudinal position, the effect is Σ ½W(η(x,u) + η(x,u+gauge)),
+ *    linear in u between points of T (the representation is linear in y between stations);
+ *    H is the largest of such functions, hence convex on each piece. (Lines: H itself is linear
+ *    on each piece.) H is also continuous (each function is Lipschitz in u with one bound).
+ * 2. So the largest H over an interval is at its ends or at a point of T inside it, and
+ *    g(p) = max(H(p+a), H(p+b), max H over T ∩ [p+a, p+b]) is computed exactly from H at
+ *    finitely many points (`exactLane`).
+ * 3. Some optimal set of k lanes has every lane at a point of
+ *      S = {c + j·w : c ∈ {t − a, t − b : t ∈ T} ∪ {L0, R0}, |j| < k} ∩ [L0, R0].
+ *    Take an optimal set (it exists: g is upper semicontinuous on a compact set) and split it
+ *    into blocks of lanes that touch (p_{i+1} = p_i + w). Call a block anchored if it touches a
+ *    curb (a lane at L0 or R0) or has a lane with p + a or p + b in T. Shift an unanchored
+ *    block rigidly by τ: until the next event (a lane's p + a or p + b meets T, or the block
+ *    meets a neighbour or a curb) every lane's window keeps the same points of T inside and
+ *    its ends stay inside pieces of T, so by 1. each g(p + τ) is convex in τ, and so is their
+ *    sum; a convex function on an interval is largest at an end, so the block can be moved to
+ *    an event without loss. Each move anchors the block or merges it with another, so after
+ *    finitely many moves every block is anchored, and every lane sits at its anchor ± j·w.
+ * 4. Dynamic programming over the sorted S (best set of k lanes ending at each candidate,
+ *    from the best set of k − 1 lanes ending at least w to its left) gives the best set of
+ *    lanes on S, which by 3. is the best set overall; × m(k), and the largest over k.
+ * 5. Laziness keeps it fast without changing the result: the DP first uses for each
+ *    candidate an upper bound of g (H at the ends of a window replaced by the chord of H
+ *    between the surrounding points of T, which bounds a convex function from above), then
+ *    evaluates g exactly for the lanes of the current best set and repeats. When the best
+ *    set uses exact values only, every other set's bound-valued total is at least its true
+ *    total, so the set is optimal.
+ * Surfaces: the representation differs from the surface by at most ε at every point, so each
+ * placement's effect differs by at most m·k·ΣW·ε; the search's placement, exact for the
+ * representation, is therefore within 2·m·k·ΣW·ε of the best legal placement on the surface.
+ */
+import type { Vehicle } from '../loads/vehicles.js';
+import { evaluateSurface, evaluateTransverse, type PlacementEffect, type Sense } from './evaluate.js';
+import { RAMP, bestVehicleOnLine, vehicleShape, withLocator, type StationLine, type LongitudinalPosition } from './longitudinal.js';
+import {
+  PlacementError,
+  RULE_TOLERANCE,
+  laneLeftMax,
+  laneLeftMin,
+  wheelOffsetRange,
+  type LanePlacement,
+  type Placement,
+  type PlacementRules,
+} from './rules.js';
+import { cellIndex, type SampledSurface, type SurfaceLike } from './sampledSurface.js';
+import { transverseAt, type TransverseLine } from './transverseLines.js';
+
+export interface ToleranceStatement {
+  /** 'exact': transverse line; 'sampled': exact on the sampled surface, bounded against the surface. */
+  kind: 'exact' | 'sampled';
+  /** No legal placement exceeds the reported effect by more than this (response units; 0 for exact). */
+  absolute: number;
+  /** ε: representation error of the sampled surface (response per N), when sampled. */
+  representationError?: number;
+  /** Plain statement. */
+  text: string;
+}
+
+export interface LaneCountResult {
+  loadedLanes: number;
+  multiplePresence: number;
+  /** The effect with its sign, m included (lanes for lines, response units for surfaces). */
+  value: number;
+  placement: Placement;
+  /** The placement evaluated (on the surface itself for surfaces). */
+  effect: PlacementEffect;
+}
+
+export interface GoverningPlacement extends LaneCountResult {
+  sense: Sense;
+  /** Best result for each number of loaded lanes searched, in the order asked. */
+  byLaneCount: LaneCountResult[];
+  tolerance: ToleranceStatement;
+  /** Work done, for the benchmark: exact lane evaluations and evaluations of H. */
+  work: { candidates: number; exactLanes: number; wheelLineEvaluations: number; passes: number };
+}
+
+export interface SearchOptions {
+  /** 'positive' (default): largest effect; 'negative': most negative effect. */
+  sense?: Sense;
+  /** Numbers of loaded lanes to search (default 1..NL). */
+  laneCounts?: number[];
+  /** Apply the multiple presence factor (default true; false for fatigue). */
+  multiplePresence?: boolean;
+}
+
+interface LaneObjective<D> {
+  /** Points T between which H is convex. */
+  breakpoints: ArrayLike<number>;
+  /** Exact H(u) (to be maximised) and what achieves it. */
+  evaluate(u: number): { value: number; detail: D };
+}
+
+interface LaneChoice<D> {
+  left: number;
+  wheel: number;
+  detail: D;
+}
+
+interface LaneSetResult<D> {
+  k: number;
+  total: number;
+  lanes: LaneChoice<D>[];
+}
+
+function laneCountsFor(rules: PlacementRules, counts: number[] | undefined): number[] {
+  const list = counts ?? Array.from({ length: rules.laneCount }, (_, i) => i + 1);
+  if (!list.length) throw new PlacementError([{ path: ['laneCounts'], message: 'give at least one number of loaded lanes' }]);
+  list.forEach((k, i) => {
+    if (!Number.isInteger(k) || k < 1 || k > rules.laneCount) {
+      throw new PlacementError([{ path: ['laneCounts', i], message: `the number of loaded lanes must be a whole number from 1 to ${rules.laneCount}; got ${k}` }]);
+    }
+  });
+  return list;
+}
+
+/** Steps 2–5 of the proof. */
+function searchLaneSets<D>(rules: PlacementRules, objective: LaneObjective<D>, laneCounts: number[]) {
+  const lw = rules.laneWidth;
+  const L0 = laneLeftMin(rules);
+  const R0 = laneLeftMax(rules);
+  const a = rules.wheelToLaneEdge;
+  const b = lw - a - rules.gauge;
+  const tol = RULE_TOLERANCE;
+  const uLo = L0 + wheelOffsetRange(rules, L0).min;
+  const uHi = R0 + wheelOffsetRange(rules, R0).max;
+
+  // T within reach, plus the ends of the reach.
+  const tList: number[] = [uLo, uHi];
+  for (let i = 0; i < objective.breakpoints.length; i++) {
+    const t = objective.breakpoints[i];
+    if (t > uLo && t < uHi) tList.push(t);
+  }
+  tList.sort((x, y) => x - y);
+  const T: number[] = [];
+  for (const t of tList) if (!T.length || t - T[T.length - 1] > 1e-12) T.push(t);
+
+  let wheelLineEvaluations = 0;
+  const cache = new Map<number, { value: number; detail: D }>();
+  const H = (u: number) => {
+    let r = cache.get(u);
+    if (!r) {
+      r = objective.evaluate(u);
+      wheelLineEvaluations++;
+      cache.set(u, r);
+    }
+    return r;
+  };
+  const HT = T.map((t) => H(t).value);
+
+  // Chord upper bound of H at u (convex between points of T).
+  const chord = (u: number): number => {
+    if (u <= T[0]) return HT[0];
+    if (u >= T[T.length - 1]) return HT[T.length - 1];
+    let lo = 0;
+    let hi = T.length - 1;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (T[mid] <= u) lo = mid;
+      else hi = mid;
+    }
+    const t = (u - T[lo]) / (T[hi] - T[lo]);
+    return HT[lo] + t * (HT[hi] - HT[lo]);
+  };
+  const firstAtLeast = (u: number): number => {
+    let lo = 0;
+    let hi = T.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (T[mid] < u) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+
+  // Candidate lane edges S (step 3).
+  const K = Math.max(...laneCounts);
+  const base: number[] = [L0, R0];
+  for (const t of T) base.push(t - a, t - b);
+  const sList: number[] = [];
+  for (const c of base) {
+    for (let j = -(K - 1); j <= K - 1; j++) {
+      const p = c + j * lw;
+      if (p >= L0 - tol && p <= R0 + tol) sList.push(Math.min(R0, Math.max(L0, p)));
+    }
+  }
+  sList.sort((x, y) => x - y);
+  const S: number[] = [];
+  for (const p of sList) if (!S.length || p - S[S.length - 1] > 1e-10) S.push(p);
+  const M = S.length;
+
+  // Windows and bounds (step 5).
+  const alpha = new Float64Array(M);
+  const beta = new Float64Array(M);
+  const val = new Float64Array(M);
+  const exact = new Uint8Array(M);
+  const bestWheel = new Float64Array(M);
+  const interior = new Float64Array(M);
+  const interiorAt = new Float64Array(M);
+  for (let i = 0; i < M; i++) {
+    const r = wheelOffsetRange(rules, S[i]);
+    alpha[i] = S[i] + r.min;
+    beta[i] = S[i] + r.max;
+    let best = -Infinity;
+    let at = NaN;
+    for (let j = firstAtLeast(alpha[i] - 1e-12); j < T.length && T[j] <= beta[i] + 1e-12; j++) {
+      if (HT[j] > best) {
+        best = HT[j];
+        at = T[j];
+      }
+    }
+    interior[i] = best;
+    interiorAt[i] = at;
+    val[i] = Math.max(chord(alpha[i]), chord(beta[i]), best);
+  }
+  let exactLanes = 0;
+  const exactLane = (i: number) => {
+    let best = interior[i];
+    let u = interiorAt[i];
+    const ha = H(alpha[i]).value;
+    if (ha > best || !Number.isFinite(best)) {
+      best = ha;
+      u = alpha[i];
+    }
+    const hb = H(beta[i]).value;
+    if (hb > best) {
+      best = hb;
+      u = beta[i];
+    }
+    val[i] = best;
+    bestWheel[i] = Math.min(beta[i], Math.max(alpha[i], u));
+    exact[i] = 1;
+    exactLanes++;
+  };
+
+  // Last candidate at least one lane width to the left of each candidate.
+  const prevIdx = new Int32Array(M);
+  {
+    let j = -1;
+    for (let i = 0; i < M; i++) {
+      while (j + 1 < M && S[j + 1] <= S[i] - lw + 1e-9) j++;
+      prevIdx[i] = j;
+    }
+  }
+  const dp: Float64Array[] = [];
+  const from: Int32Array[] = [];
+  const runDp = () => {
+    dp.length = 0;
+    from.length = 0;
+    dp.push(Float64Array.from(val));
+    from.push(new Int32Array(M).fill(-1));
+    for (let k = 2; k <= K; k++) {
+      const prev = dp[k - 2];
+      const pm = new Float64Array(M);
+      const pmArg = new Int32Array(M);
+      let m = -Infinity;
+      let arg = -1;
+      for (let j = 0; j < M; j++) {
+        if (prev[j] > m) {
+          m = prev[j];
+          arg = j;
+        }
+        pm[j] = m;
+        pmArg[j] = arg;
+      }
+      const cur = new Float64Array(M);
+      const fr = new Int32Array(M);
+      for (let i = 0; i < M; i++) {
+        const j = prevIdx[i];
+        if (j < 0 || !Number.isFinite(pm[j])) {
+          cur[i] = -Infinity;
+          fr[i] = -1;
+        } else {
+          cur[i] = val[i] + pm[j];
+          fr[i] = pmArg[j];
+        }
+      }
+      dp.push(cur);
+      from.push(fr);
+    }
+  };
+  const reconstruct = (k: number): { total: number; idx: number[] } => {
+    const row = dp[k - 1];
+    let best = -Infinity;
+    let at = -1;
+    for (let i = 0; i < M; i++) {
+      if (row[i] > best) {
+        best = row[i];
+        at = i;
+      }
+    }
+    const idx: number[] = [];
+    let kk = k;
+    while (at >= 0 && kk >= 1) {
+      idx.push(at);
+      at = from[kk - 1][at];
+      kk--;
+    }
+    return { total: best, idx: idx.reverse() };
+  };
+
+  const done = new Map<number, { total: number; idx: number[] }>();
+  let passes = 0;
+  while (done.size < new Set(laneCounts).size) {
+    passes++;
+    runDp();
+    const refine: number[] = [];
+    for (const k of laneCounts) {
+      if (done.has(k)) continue;
+      const r = reconstruct(k);
+      if (r.idx.length !== k || !Number.isFinite(r.total)) {
+        throw new PlacementError([{ path: ['laneCounts'], message: `${k} lanes do not fit on the roadway` }]);
+      }
+      const open = r.idx.filter((i) => !exact[i]);
+      if (open.length === 0) done.set(k, r);
+      else refine.push(...open);
+    }
+    for (const i of new Set(refine)) exactLane(i);
+  }
+  const results: LaneSetResult<D>[] = laneCounts.map((k) => {
+    const r = done.get(k)!;
+    return {
+      k,
+      total: r.total,
+      lanes: r.idx.map((i) => ({ left: S[i], wheel: bestWheel[i], detail: H(bestWheel[i]).detail })),
+    };
+  });
+  return { results, work: { candidates: M, exactLanes, wheelLineEvaluations, passes } };
+}
+
+function toLane(rules: PlacementRules, c: { left: number; wheel: number }): LanePlacement {
+  const r = wheelOffsetRange(rules, c.left);
+  const offset = Math.min(r.max, Math.max(r.min, c.wheel - c.left));
+  return { left: c.left, wheelOffset: offset };
+}
+
+function pickGoverning(sense: Sense, list: LaneCountResult[]): LaneCountResult {
+  const sgn = sense === 'positive' ? 1 : -1;
+  let best = list[0];
+  for (const r of list) if (sgn * r.value > sgn * best.value) best = r;
+  return best;
+}
+
+/**
+ * Governing placement on a transverse line (lever rule, rigid section): exact.
+ * The line must cover the roadway (curb face to curb face).
+ */
+export function governingTransversePlacement(line: TransverseLine, rules: PlacementRules, options: SearchOptions = {}): GoverningPlacement {
+  const sense = options.sense ?? 'positive';
+  const sgn = sense === 'positive' ? 1 : -1;
+  const counts = laneCountsFor(rules, options.laneCounts);
+  if (line.ys[0] > rules.curbLeft + RULE_TOLERANCE || line.ys[line.ys.length - 1] < rules.curbRight - RULE_TOLERANCE) {
+    throw new PlacementError([{ path: ['line'], message: 'the transverse line must cover the roadway from curb face to curb face' }]);
+  }
+  const G = rules.gauge;
+  const bp: number[] = [];
+  for (const y of line.ys) bp.push(y, y - G);
+  const objective: LaneObjective<null> = {
+    breakpoints: bp,
+    evaluate: (u) => ({ value: sgn * 0.5 * (transverseAt(line, u) + transverseAt(line, u + G)), detail: null }),
+  };
+  const { results, work } = searchLaneSets(rules, objective, counts);
+  const byLaneCount = results.map((r): LaneCountResult => {
+    const placement: Placement = { lanes: r.lanes.map((c) => toLane(rules, c)) };
+    const effect = evaluateTransverse(line, placement, rules, { multiplePresence: options.multiplePresence });
+    return { loadedLanes: r.k, multiplePresence: effect.multiplePresence, value: effect.value, placement, effect };
+  });
+  const g = pickGoverning(sense, byLaneCount);
+  return {
+    ...g,
+    sense,
+    byLaneCount,
+    tolerance: { kind: 'exact', absolute: 0, text: 'exact: the transverse line is piecewise linear and every breakpoint was checked' },
+    work,
+  };
+}
+
+export interface SurfaceSearchOptions extends SearchOptions {
+  /** Evaluate the result on this surface (default: the surface that was sampled). */
+  source?: SurfaceLike;
+  /** Directions of travel to search (default both). */
+  directions?: (1 | -1)[];
+}
+
+/**
+ * Governing placement of `vehicle` in 1..NL lanes on a sampled influence surface: exact on the
+ * sample, within `tolerance.absolute` of the best legal placement on the surface itself.
+ */
+export function governingSurfacePlacement(
+  surface: SampledSurface,
+  rules: PlacementRules,
+  vehicle: Vehicle,
+  options: SurfaceSearchOptions = {},
+): GoverningPlacement {
+  const sense = options.sense ?? 'positive';
+  const sgn = sense === 'positive' ? 1 : -1;
+  const counts = laneCountsFor(rules, options.laneCounts);
+  const { xs, ys, rows } = surface;
+  if (ys[0] > rules.curbLeft + RULE_TOLERANCE || ys[ys.length - 1] < rules.curbRight - RULE_TOLERANCE) {
+    throw new PlacementError([{ path: ['surface', 'extent'], message: 'the influence surface must cover the roadway from curb face to curb face' }]);
+  }
+  const shape = vehicleShape(vehicle);
+  const G = rules.gauge;
+  const nx = xs.length;
+  // Stations with a ramp to zero just beyond each end (longitudinal.ts).
+  const X = new Float64Array(nx + 2);
+  X[0] = xs[0] - RAMP;
+  X.set(xs, 1);
+  X[nx + 1] = xs[nx - 1] + RAMP;
+  const template: StationLine = withLocator(X, new Float64Array(nx + 2), surface.extent.xMin, surface.extent.xMax);
+  const weights = (y: number): [number, number, number] => {
+    const j = cellIndex(ys, y);
+    const t = (y - ys[j]) / (ys[j + 1] - ys[j]);
+    return [j, 1 - t, t];
+  };
+  const objective: LaneObjective<LongitudinalPosition> = {
+    breakpoints: (() => {
+      const bp: number[] = [];
+      for (const y of ys) bp.push(y, y - G);
+      return bp;
+    })(),
+    evaluate: (u) => {
+      const [j1, a1, b1] = weights(u);
+      const [j2, a2, b2] = weights(u + G);
+      const r1 = rows[j1];
+      const s1 = rows[j1 + 1];
+      const r2 = rows[j2];
+      const s2 = rows[j2 + 1];
+      const V = new Float64Array(nx + 2);
+      const h = 0.5 * sgn;
+      for (let i = 0; i < nx; i++) V[i + 1] = h * (a1 * r1[i] + b1 * s1[i] + a2 * r2[i] + b2 * s2[i]);
+      const line: StationLine = { ...template, values: V };
+      const best = bestVehicleOnLine(line, shape, options.directions ?? [1, -1]);
+      const detail: LongitudinalPosition = { frontAxleAt: best.frontAxleAt, direction: best.direction };
+      if (best.axleSpacing !== undefined) detail.axleSpacing = best.axleSpacing;
+      return { value: best.value, detail };
+    },
+  };
+  const { results, work } = searchLaneSets(rules, objective, counts);
+  const source = options.source ?? surface.source;
+  const eps = surface.representationError;
+  let bound = 0;
+  const byLaneCount = results.map((r): LaneCountResult => {
+    const placement: Placement = { lanes: r.lanes.map((c) => ({ ...toLane(rules, c), ...c.detail })) };
+    const effect = evaluateSurface(source, placement, rules, vehicle, { multiplePresence: options.multiplePresence });
+    bound = Math.max(bound, 2 * effect.multiplePresence * r.k * shape.totalWeight * eps);
+    return { loadedLanes: r.k, multiplePresence: effect.multiplePresence, value: effect.value, placement, effect };
+  });
+  const g = pickGoverning(sense, byLaneCount);
+  const text =
+    eps === 0
+      ? surface.representationMeasured
+        ? 'exact: the surface equals its sampled representation at every point checked (bilinear on the station grid)'
+        : 'exact for the sampled representation (bilinear on the station grid); the representation error was not measured'
+      : `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (2·m·k·ΣW·ε, ε = ${eps.toPrecision(3)} per unit force)`;
+  return {
+    ...g,
+    sense,
+    byLaneCount,
+    tolerance: { kind: 'sampled', absolute: bound, representationError: eps, text },
+    work,
+  };
+}

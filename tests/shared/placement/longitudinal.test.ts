@@ -1,0 +1,108 @@
+/**
+ * The exact governing vehicle position along a piecewise-linear line.
+ * Closed forms for a simple span, hand derivation by statics (influence line of the
+ * midspan moment is a triangle of height L/4; of the end shear a straight line from 1 to 0):
+ *   design truck at midspan, 14 ft rear spacing:   M = 18L − 280 kip·ft (L ≥ 28 ft)
+ *   design tandem at midspan:                       M = 12.5L − 50 kip·ft (L ≥ 4 ft)
+ *   design truck, shear at the end:                 V = 72 − 672/L kip (L ≥ 28 ft)
+ * Vehicles: AASHTO LRFD Art. 3.6.1.2.2 and 3.6.1.2.3.
+ */
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { DESIGN_TANDEM, DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from '../../../shared/loads/vehicles.js';
+import { bestVehicleOnLine, lineAt, stationLine, vehicleShape } from '../../../shared/placement/longitudinal.js';
+import { axlePositions } from '../../../shared/placement/rules.js';
+import { fromUs, toUs } from '../../../shared/units.js';
+
+const ft = fromUs.ft;
+
+describe('vehicle on a simple-span line: closed forms', () => {
+  for (const Lft of [30, 60, 110, 200]) {
+    const L = ft(Lft);
+    it(`L = ${Lft} ft: truck 18L − 280, tandem 12.5L − 50 at midspan; truck end shear 72 − 672/L`, () => {
+      const moment = stationLine([0, L / 2, L], [0, L / 4, 0]);
+      const truck = bestVehicleOnLine(moment, vehicleShape(DESIGN_TRUCK));
+      expect(toUs.kipFt(truck.value)).toBeRelativelyClose(18 * Lft - 280, 1e-12);
+      expect(toUs.ft(truck.axleSpacing!)).toBeRelativelyClose(14, 1e-9);
+      const tandem = bestVehicleOnLine(moment, vehicleShape(DESIGN_TANDEM));
+      expect(toUs.kipFt(tandem.value)).toBeRelativelyClose(12.5 * Lft - 50, 1e-12);
+      const shear = stationLine([0, L], [1, 0]);
+      const v = bestVehicleOnLine(shear, vehicleShape(DESIGN_TRUCK));
+      expect(toUs.kip(v.value)).toBeRelativelyClose(72 - 672 / Lft, 1e-5);
+    });
+  }
+});
+
+/** Dense scan: front axle on a fine grid, both directions, spacing on a grid. */
+function scan(line: ReturnType<typeof stationLine>, v: Vehicle, steps: number): number {
+  const len = Math.max(...axlePositions(v, v.variableSpacing?.max));
+  const x0 = line.xMin - len;
+  const x1 = line.xMax + len;
+  const spacings = v.variableSpacing ? Array.from({ length: 9 }, (_, i) => v.variableSpacing!.min + ((v.variableSpacing!.max - v.variableSpacing!.min) * i) / 8) : [undefined];
+  let best = -Infinity;
+  for (const d of [1, -1]) {
+    for (const s of spacings) {
+      const pos = axlePositions(v, s);
+      for (let i = 0; i <= steps; i++) {
+        const xf = x0 + ((x1 - x0) * i) / steps;
+        const xs = pos.map((p) => xf - d * p);
+        if (!xs.some((x) => x >= line.xMin && x <= line.xMax)) continue;
+        const val = xs.reduce((sum, x, a) => sum + v.axles[a].weight * lineAt(line, x), 0);
+        if (val > best) best = val;
+      }
+    }
+  }
+  return best;
+}
+
+describe('vehicle on random lines against a dense scan (fast-check)', () => {
+  it('no scanned position beats the exact search, and the search position gives its value', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: 0.5, max: 8, noNaN: true }), { minLength: 2, maxLength: 14 }),
+        fc.array(fc.double({ min: -1, max: 1, noNaN: true }), { minLength: 15, maxLength: 15 }),
+        fc.constantFrom(DESIGN_TRUCK, DESIGN_TANDEM, FATIGUE_TRUCK),
+        (gaps, ords, v) => {
+          const xs = [0];
+          for (const g of gaps) xs.push(xs[xs.length - 1] + g);
+          const vals = xs.map((_, i) => ords[i]);
+          const line = stationLine(xs, vals);
+          const best = bestVehicleOnLine(line, vehicleShape(v));
+          const dense = scan(line, v, 3000);
+          expect(best.value).toBeGreaterThanOrEqual(dense - 1e-9 * Math.abs(dense) - 1e-9);
+          const pos = axlePositions(v, best.axleSpacing);
+          const again = pos.reduce((s, p, a) => s + v.axles[a].weight * lineAt(line, best.frontAxleAt - best.direction * p), 0);
+          expect(again).toBeRelativelyClose(best.value, 1e-9);
+          if (v.variableSpacing) {
+            expect(best.axleSpacing!).toBeGreaterThanOrEqual(v.variableSpacing.min - 1e-12);
+            expect(best.axleSpacing!).toBeLessThanOrEqual(v.variableSpacing.max + 1e-12);
+          }
+        },
+      ),
+      { numRuns: 150 },
+    );
+  });
+
+  it('a vehicle with several axles behind its variable gap is searched exactly too', () => {
+    const v: Vehicle = {
+      name: 'test vehicle',
+      axles: [
+        { weight: 10, position: 0 },
+        { weight: 30, position: 3 },
+        { weight: 20, position: 8 },
+        { weight: 25, position: 10 },
+      ],
+      gauge: ft(6),
+      variableSpacing: { axleIndex: 2, min: 5, max: 9 },
+    };
+    fc.assert(
+      fc.property(fc.array(fc.double({ min: -1, max: 1, noNaN: true }), { minLength: 12, maxLength: 12 }), (ords) => {
+        const xs = ords.map((_, i) => i * 2.5);
+        const line = stationLine(xs, ords);
+        const best = bestVehicleOnLine(line, vehicleShape(v));
+        expect(best.value).toBeGreaterThanOrEqual(scan(line, v, 2000) - 1e-9);
+      }),
+      { numRuns: 60 },
+    );
+  });
+});
