@@ -8,6 +8,8 @@ import type { Db } from './client.js';
 import { firms, projects, userRoles, users, type Role } from './schema.js';
 import { hashPassword } from '../auth/password.js';
 import { recordAudit } from '../api/audit/auditService.js';
+import { createDeck } from '../api/decks/deckService.js';
+import { demoDecks } from './demoDecks.js';
 
 export const DEMO_PASSWORD = 'deckshare-demo-1';
 export const DEMO_FIRM = 'Larchmont Ridge Engineering';
@@ -41,8 +43,11 @@ export const DEMO_PROJECTS = [
 export async function seedDemo(db: Db): Promise<boolean> {
   const n = db.select({ n: count() }).from(firms).get();
   if ((n?.n ?? 0) > 0) return false;
+  // Build and validate the demo decks before writing anything, so a failure leaves the
+  // database empty rather than half-seeded.
+  const decksToSeed = demoDecks();
   const hash = await hashPassword(DEMO_PASSWORD);
-  db.transaction((tx) => {
+  const { firmId, designerId, projectIds } = db.transaction((tx) => {
     const firm = tx.insert(firms).values({ name: DEMO_FIRM }).returning().get();
     const ids: number[] = [];
     for (const u of DEMO_USERS) {
@@ -51,11 +56,17 @@ export async function seedDemo(db: Db): Promise<boolean> {
       for (const role of u.roles) tx.insert(userRoles).values({ userId: row.id, role }).run();
     }
     const designerId = ids[1];
+    const projectIds = new Map<string, number>();
     for (const p of DEMO_PROJECTS) {
       const row = tx.insert(projects).values({ ...p, firmId: firm.id, createdBy: designerId }).returning().get();
+      projectIds.set(row.name, row.id);
       recordAudit(tx, { firmId: firm.id, projectId: row.id, actorId: designerId, action: 'create', entityType: 'project', entityId: row.id, summary: `created project “${row.name}” (demo data)` });
     }
+    return { firmId: firm.id, designerId, projectIds };
   });
+  for (const d of decksToSeed) {
+    createDeck(db, { id: designerId, firmId }, projectIds.get(d.project)!, { deck: d.deck, message: d.message });
+  }
   return true;
 }
 

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { count } from 'drizzle-orm';
 import { makeTestApp, type TestContext } from './helpers.js';
 import { seedDemo, DEMO_USERS } from '../../server/db/seed.js';
-import { auditLog, firms, projects, users } from '../../server/db/schema.js';
+import { analysisResults, auditLog, deckVersions, firms, projects, users } from '../../server/db/schema.js';
 
 let ctx: TestContext;
 beforeAll(async () => {
@@ -23,6 +23,9 @@ describe('database', () => {
     expect(ctx.db.select({ n: count() }).from(firms).get()!.n).toBe(1);
     expect(ctx.db.select({ n: count() }).from(users).get()!.n).toBe(DEMO_USERS.length);
     expect(ctx.db.select({ n: count() }).from(projects).get()!.n).toBeGreaterThanOrEqual(2);
+    // each demo project opens with one saved deck version whose factors were computed
+    expect(ctx.db.select({ n: count() }).from(deckVersions).get()!.n).toBe(2);
+    expect(ctx.db.select({ n: count() }).from(analysisResults).get()!.n).toBeGreaterThanOrEqual(2);
   });
 
   it('never seeds a database that already has data', async () => {
