@@ -510,7 +510,8 @@ function effectOfLocation(e: Effect): FactorEffect {
   return e;
 }
 
-function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[]): void {
+function locationInits(en: Engine, loc: EffectLocation): FactorRowInit[] {
+  const inits: FactorRowInit[] = [];
   const laneCases: Lanes[] = en.lanes.count >= 2 ? ['one', 'multiple'] : ['one'];
   const location = locationOf(loc);
   const effect = effectOfLocation(loc.effect);
@@ -544,11 +545,11 @@ function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[]): 
           method: 'formula',
           baseValue: o.value,
           findings: [...spacingFindings, ...o.findings],
-          trace: [loc.trace, ...o.steps],
+          trace: [...o.steps],
         };
         if (mOne !== undefined) init.oneLaneMultiplePresence = mOne;
         if (o.kind === 'lesser-of-formula-and-lever-rule') init.combine = 'lesser-of';
-        rows.push(buildFactorRow(init));
+        inits.push(init);
       }
       if (o.kind === 'lever-rule' || o.kind === 'lesser-of-formula-and-lever-rule') {
         const lv = interiorLever(en, lanes);
@@ -559,12 +560,12 @@ function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[]): 
           loadedLanes: lv.result.loadedLanes,
           baseValue: lv.result.value,
           findings: [...(o.kind === 'lever-rule' ? [...spacingFindings, ...o.findings] : []), ...leverFindings(en, lanes)],
-          trace: [loc.trace, ...lv.result.trace],
+          trace: [...lv.result.trace],
           leverRule: lv.result.worksheet,
         };
         if (lanes === 'one') init.oneLaneMultiplePresence = en.deck.policy.leverRuleWithoutMultiplePresence ? 1.0 : 1.2;
         if (o.kind === 'lesser-of-formula-and-lever-rule') init.combine = 'lesser-of';
-        rows.push(buildFactorRow(init));
+        inits.push(init);
       }
     }
   }
@@ -597,19 +598,19 @@ function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[]): 
           loadedLanes: lv.loadedLanes,
           baseValue: lv.value,
           findings: [...sideFindings, ...extraFindings, ...leverFindings(en, lanes)],
-          trace: [loc.trace, ...lv.trace],
+          trace: [...lv.trace],
           leverRule: lv.worksheet,
         };
         if (lanes === 'one') init.oneLaneMultiplePresence = en.deck.policy.leverRuleWithoutMultiplePresence ? 1.0 : 1.2;
         if (combine) init.combine = combine;
-        rows.push(buildFactorRow(init));
+        inits.push(init);
       };
       if (o.kind === 'lever-rule') {
         leverRow(o.findings);
       } else if (o.kind === 'formula') {
-        const init: FactorRowInit = { ...common, method: 'formula', baseValue: o.value, findings: [...sideFindings, ...o.findings], trace: [loc.trace, ...o.steps] };
+        const init: FactorRowInit = { ...common, method: 'formula', baseValue: o.value, findings: [...sideFindings, ...o.findings], trace: [...o.steps] };
         if (lanes === 'one') init.oneLaneMultiplePresence = 1.2;
-        rows.push(buildFactorRow(init));
+        inits.push(init);
       } else if (o.kind === 'e-times-interior') {
         if (en.Nb < 3) {
           leverRow([
@@ -637,11 +638,11 @@ function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[]): 
           method: 'formula',
           baseValue: base,
           findings: [...sideFindings, ...o.findings, ...gi.findings.filter((f) => f.code !== 'assumption')],
-          trace: [loc.trace, ...o.steps, ...gi.steps, product],
+          trace: [...o.steps, ...gi.steps, product],
         };
         if (lanes === 'one') init.oneLaneMultiplePresence = 1.2;
         if (o.lesserWithLeverRule) init.combine = 'lesser-of';
-        rows.push(buildFactorRow(init));
+        inits.push(init);
         if (o.lesserWithLeverRule) leverRow([], 'lesser-of');
       }
       if (en.rigid) {
@@ -654,11 +655,11 @@ function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[]): 
             loadedLanes: cs.loadedLanes,
             baseValue: cs.value,
             findings: [],
-            trace: [loc.trace, ...rs.trace.filter((_, i) => (lanes === 'one' ? i === 0 : i > 0))],
+            trace: [...rs.trace.filter((_, i) => (lanes === 'one' ? i === 0 : i > 0))],
             rigidSection: rs.worksheet,
           };
           if (lanes === 'one') init.oneLaneMultiplePresence = 1.2;
-          rows.push(buildFactorRow(init));
+          inits.push(init);
         }
       }
     }
@@ -669,8 +670,7 @@ function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[]): 
     const eq = equalShare(en);
     const kinds: GirderKind[] = en.Nb >= 3 ? ['interior', 'exterior'] : ['exterior'];
     for (const girderKind of kinds) {
-      rows.push(
-        buildFactorRow({
+      inits.push({
           girderKind,
           effect,
           lanes: eq.lanes,
@@ -680,11 +680,38 @@ function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[]): 
           location,
           findings: [{ code: 'policy', message: `owner policy: no factor below m·NL/Nb = ${eq.value.toFixed(3)}`, article: 'owner policy (floor at the equal share of all loaded lanes)' }],
           trace: [eq.step],
-        }),
-      );
+        });
     }
   }
+  return inits;
 }
+
+/** Skew angles a location's correction reads (for sharing rows between equal locations). */
+function skewKey(en: Engine, loc: EffectLocation): string {
+  const t = en.deck.supports.map((x) => x.skew);
+  if (loc.effect === 'moment') return `M|${t[loc.span!]},${t[loc.span! + 1]}`;
+  if (loc.effect === 'negative-moment') {
+    const j = loc.support!;
+    // Equal adjacent skews reduce to the positive-moment case of one span.
+    if (t[j - 1] === t[j] && t[j] === t[j + 1]) return `M|${t[j]},${t[j]}`;
+    return `N|${t[j - 1]},${t[j]},${t[j + 1]}`;
+  }
+  if (loc.effect === 'shear') return `V|${Math.max(Math.abs(t[loc.span!]), Math.abs(t[loc.span! + 1]))}`;
+  return `V|${Math.abs(t[loc.support!])}`;
+}
+
+/** Rows of one location; locations with the same L, skews and kind of effect share their computation. */
+function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[], cache: Map<string, FactorRowInit[]>): void {
+  const key = `${loc.length}|${skewKey(en, loc)}`;
+  let inits = cache.get(key);
+  if (!inits) {
+    inits = locationInits(en, loc);
+    cache.set(key, inits);
+  }
+  const location = locationOf(loc);
+  for (const init of inits) rows.push(buildFactorRow({ ...init, effect: loc.effect, location, trace: [loc.trace, ...(init.trace ?? [])] }));
+}
+
 
 function equalShare(en: Engine): { value: number; lanes: Lanes; step: TraceStep } {
   const NL = en.lanes.count;
@@ -905,7 +932,8 @@ export function computeCodeFactors(deck: Deck): CodeFactorResult {
   const en = makeEngine(deck);
   const rows: FactorRow[] = [];
   const locations = effectLocations(deck);
-  for (const loc of locations) buildLocationRows(en, loc, rows);
+  const cache = new Map<string, FactorRowInit[]>();
+  for (const loc of locations) buildLocationRows(en, loc, rows, cache);
   selectGoverning(rows);
   rows.push(...addDerivedRows(en, rows));
   let governing = selectGoverning(rows);
