@@ -74,7 +74,14 @@ export function updateProject(db: Db, actor: { id: number; firmId: number }, pro
       action,
       entityType: 'project',
       entityId: projectId,
-      summary: changed.length ? `${action === 'change' ? 'changed' : action + 'd'} project “${p.name}” (${changed.join(', ')})` : `saved project “${p.name}” without changes`,
+      summary:
+        action === 'archive'
+          ? `archived project “${p.name}”`
+          : action === 'restore'
+            ? `restored project “${p.name}”`
+            : changed.length
+              ? `changed project “${p.name}” (${changed.join(', ')})`
+              : `saved project “${p.name}” without changes`,
     });
     return p;
   });
