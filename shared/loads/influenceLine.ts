@@ -187,7 +187,8 @@ export class BeamInfluenceLine implements InfluenceLine, HasPiecewise {
           last.s1 = e.s1;
         } else merged.push({ ...e });
       }
-      this.cached = PiecewiseCubic.fromHermite(merged);
+      const length = this.elements.length ? this.elements[this.elements.length - 1].x1 - this.elements[0].x0 : 1;
+      this.cached = PiecewiseCubic.fromHermite(merged, this.response.kind === 'moment' ? length : 1);
     }
     return this.cached;
   }

@@ -147,8 +147,12 @@ export class PiecewiseCubic {
     return this.a.length;
   }
 
-  /** Build from cubic Hermite elements (contiguous, increasing). Splits pieces at their zeros. */
-  static fromHermite(elements: readonly HermiteElement[]): PiecewiseCubic {
+  /**
+   * Build from cubic Hermite elements (contiguous, increasing). Splits pieces at their zeros.
+   * @param scale natural size of the ordinates (m for a moment line, 1 for a shear or
+   *   reaction line): ordinates below 1e-12 of it count as zero (round-off, not load effect)
+   */
+  static fromHermite(elements: readonly HermiteElement[], scale = 0): PiecewiseCubic {
     let maxAbs = 0;
     const raw: { x0: number; h: number; c: [number, number, number, number] }[] = [];
     for (const e of elements) {
@@ -163,7 +167,7 @@ export class PiecewiseCubic {
       maxAbs = Math.max(maxAbs, Math.abs(e.v0), Math.abs(e.v1));
       for (const r of derivativeRoots(c[1], c[2], c[3], 0, h)) maxAbs = Math.max(maxAbs, Math.abs(evalPoly(c[0], c[1], c[2], c[3], r)));
     }
-    return PiecewiseCubic.split(raw, maxAbs);
+    return PiecewiseCubic.split(raw, maxAbs, scale);
   }
 
   /**
@@ -183,7 +187,7 @@ export class PiecewiseCubic {
     return PiecewiseCubic.split(raw, maxAbs);
   }
 
-  private static split(raw: { x0: number; h: number; c: [number, number, number, number] }[], maxAbs: number): PiecewiseCubic {
+  private static split(raw: { x0: number; h: number; c: [number, number, number, number] }[], maxAbs: number, scale = 0): PiecewiseCubic {
     const a: number[] = [];
     const b: number[] = [];
     const c0: number[] = [];
@@ -191,7 +195,7 @@ export class PiecewiseCubic {
     const c2: number[] = [];
     const c3: number[] = [];
     const sign: number[] = [];
-    const tiny = 1e-12 * maxAbs;
+    const tiny = 1e-12 * Math.max(maxAbs, scale);
     for (const { x0, h, c } of raw) {
       const f = (u: number) => evalPoly(c[0], c[1], c[2], c[3], u);
       // Monotone segments between stationary points; a sign change in one is a single root.
