@@ -99,8 +99,6 @@ interface CachedSweep {
   result: SweepResult;
 }
 
-/** Sweeps already made on a line (the line is immutable), so both senses share one pass. */
-const sweepCache = new WeakMap<PiecewiseCubic, CachedSweep[]>();
 
 function sameLayout(c: CachedSweep, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1): boolean {
   if (c.d !== d || c.o.length !== o.length) return false;
@@ -119,11 +117,8 @@ function sameLayout(c: CachedSweep, o: ArrayLike<number>, w: ArrayLike<number>, 
  * into plateaus), so that window maxima can be taken exactly afterwards.
  */
 function searchRigid(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1, sigma: 1 | -1, collect: boolean): RigidResult {
-  let list = sweepCache.get(pw);
-  if (!list) {
-    list = [];
-    sweepCache.set(pw, list);
-  }
+  // Sweeps already made on this line are kept on it, so both senses share one pass.
+  const list = pw.memo as CachedSweep[];
   let hit: CachedSweep | undefined;
   for (const c of list) {
     if (sameLayout(c, o, w, d)) {

@@ -120,6 +120,8 @@ export class PiecewiseCubic {
   readonly xMax: number;
   /** Largest |ordinate| found at piece ends and stationary points. */
   readonly maxAbs: number;
+  /** Results of moving-load searches already made on this (immutable) function. */
+  readonly memo: unknown[] = [];
 
   private constructor(
     a: number[],
