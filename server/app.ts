@@ -28,6 +28,7 @@ import { mailRouter } from './api/mail/mailRouter.js';
 import { attachmentRouter, projectAttachmentsRouter } from './api/attachments/attachmentRouter.js';
 import { defaultAttachmentsDir } from './api/attachments/attachmentStore.js';
 import { reviewRouter } from './api/reviews/reviewRouter.js';
+import { trainingRouter } from './api/training/trainingRouter.js';
 
 export interface AppDeps {
   db: Db;
@@ -87,6 +88,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));
   api.use('/attachments', attachmentRouter(db, filesDir));
   api.use('/reviews', reviewRouter(db, config, mailer));
+  api.use('/training', trainingRouter(db, config, mailer));
   api.use(notFoundHandler);
   app.use('/api', api);
 
