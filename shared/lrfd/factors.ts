@@ -181,11 +181,10 @@ export interface FactorRowInit {
 export function buildFactorRow(init: FactorRowInit): FactorRow {
   const skewFactor = init.skew?.factor ?? 1;
   const value = init.baseValue * skewFactor;
-  const trace = [...(init.trace ?? [])];
-  const findings = [...(init.findings ?? [])];
+  const trace = (init.trace ?? []).slice();
+  const findings = init.skew && init.skew.findings.length > 0 ? (init.findings ?? []).concat(init.skew.findings) : (init.findings ?? []).slice();
   if (init.skew && init.skew.steps.length > 0) {
     trace.push(...init.skew.steps);
-    findings.push(...init.skew.findings);
     trace.push({
       label: 'Distribution factor with the skew correction',
       formula: 'g = g₀ · skew factor',
@@ -197,8 +196,6 @@ export function buildFactorRow(init: FactorRowInit): FactorRow {
       kind: 'none',
       article: init.skew.steps[init.skew.steps.length - 1].article,
     });
-  } else if (init.skew) {
-    findings.push(...init.skew.findings);
   }
   const idGirder = init.girderNumber !== undefined && init.girderKind === 'exterior' ? `/g${init.girderNumber}` : '';
   const row: FactorRow = {
@@ -830,6 +827,10 @@ function addDerivedRows(en: Engine, rows: FactorRow[]): FactorRow[] {
       kind: 'none',
       article: FATIGUE_ARTICLE,
     };
+    const sdNote: Finding[] =
+      en.family === 'keyed' && r.method === 'formula'
+        ? [{ code: 'assumption', message: 'the S/D factor applies regardless of the number of loaded lanes; for fatigue it is divided by 1.2 like the other single-lane factors (Art. 3.6.1.1.2)', article: FATIGUE_ARTICLE }]
+        : [];
     const init: FactorRowInit = {
       girderKind: r.girderKind,
       effect,
@@ -837,7 +838,7 @@ function addDerivedRows(en: Engine, rows: FactorRow[]): FactorRow[] {
       method: r.method,
       baseValue: r.value / m,
       location: r.location,
-      findings: r.findings,
+      findings: sdNote.length ? r.findings.concat(sdNote) : r.findings,
       trace: [...r.trace, step],
       oneLaneMultiplePresence: 1,
     };

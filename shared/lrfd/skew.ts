@@ -3,7 +3,8 @@
  * - Moment reduction, AASHTO LRFD Art. 4.6.2.2.2e, Table 4.6.2.2.2e-1: allowed when the
  *   skews of the two support lines of a span differ by no more than 10°.
  *     a, e, k; i, j acting as a unit: 1 − c1·(tanθ)^1.5, c1 = 0.25·(Kg/(12.0·L·ts³))^0.25·(S/L)^0.5;
- *       c1 = 0 for θ < 30°; θ > 60° taken as 60°.
+ *       c1 = 0 for θ < 30°; θ > 60° taken as 60°. Where inputs far outside the table's
+ *       ranges make 1 − c1·(tanθ)^1.5 ≤ 0, no reduction is taken (a finding says so).
  *     b, c, d, f, g: 1.05 − 0.25·tanθ ≤ 1.0; θ > 60° taken as 60°.
  *     other types: no reduction tabulated.
  * - Shear correction at the obtuse corner, Art. 4.6.2.2.3c, Table 4.6.2.2.3c-1:
@@ -122,7 +123,18 @@ export function momentSkewFactor(inp: SkewInputs, skews: [number, number]): Skew
       ),
     );
     const c1 = 0.25 * (Kg.us / (12.0 * inp.L.us * inp.ts.us ** 3)) ** 0.25 * (inp.S.us / inp.L.us) ** 0.5;
-    const factor = 1 - c1 * t ** 1.5;
+    const computed = 1 - c1 * t ** 1.5;
+    if (!(computed > 0)) {
+      findings.push({
+        code: 'not-applicable',
+        message: `1 − c1·(tanθ)^1.5 = ${computed.toFixed(3)} is not positive for these inputs (c1 = ${c1.toFixed(3)}): no moment reduction taken (engineering judgement)`,
+        article: T_M,
+        parameter: 'c1',
+        value: c1,
+      });
+      return { factor: 1, steps: [formulaStep('Skew reduction, moment', '1 − c1·(tanθ)^1.5 (not positive: no reduction)', [thetaP, inp.S, inp.L, inp.ts, Kg], 1, T_M, `c1 = ${c1.toFixed(4)}`)], findings };
+    }
+    const factor = computed;
     return {
       factor,
       steps: [formulaStep('Skew reduction, moment', '1 − c1·(tanθ)^1.5,  c1 = 0.25·(Kg/(12.0·L·ts³))^0.25·(S/L)^0.5', [thetaP, inp.S, inp.L, inp.ts, Kg], factor, T_M, `c1 = ${c1.toFixed(4)}`)],
