@@ -652,7 +652,7 @@ function locationInits(en: Engine, loc: EffectLocation): FactorRowInit[] {
             loadedLanes: cs.loadedLanes,
             baseValue: cs.value,
             findings: [],
-            trace: [...rs.trace.filter((_, i) => (lanes === 'one' ? i === 0 : i > 0))],
+            trace: rs.trace.filter((_, i) => (lanes === 'one' ? i === 0 : i > 0)).map((st) => (momentLike ? st : { ...st, article: `${st.article}; applied to shear by Art. 4.6.2.2.3b` })),
             rigidSection: rs.worksheet,
           };
           if (lanes === 'one') init.oneLaneMultiplePresence = 1.2;
