@@ -128,7 +128,7 @@ describe('clampPlacement', () => {
       }),
       { numRuns: 2000 },
     );
-  });
+  }, 60000);
 
   it('leaves a legal placement unchanged and is idempotent', () => {
     fc.assert(

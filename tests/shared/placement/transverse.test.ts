@@ -151,5 +151,5 @@ describe('transverse search against brute force (fast-check)', () => {
       }),
       { numRuns: 60 },
     );
-  });
+  }, 60000);
 });
