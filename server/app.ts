@@ -29,6 +29,7 @@ import { attachmentRouter, projectAttachmentsRouter } from './api/attachments/at
 import { defaultAttachmentsDir } from './api/attachments/attachmentStore.js';
 import { reviewRouter } from './api/reviews/reviewRouter.js';
 import { trainingRouter } from './api/training/trainingRouter.js';
+import { importRouter } from './api/imports/importRouter.js';
 
 export interface AppDeps {
   db: Db;
@@ -89,6 +90,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/attachments', attachmentRouter(db, filesDir));
   api.use('/reviews', reviewRouter(db, config, mailer));
   api.use('/training', trainingRouter(db, config, mailer));
+  api.use('/imports', importRouter(db));
   api.use(notFoundHandler);
   app.use('/api', api);
 
