@@ -27,7 +27,7 @@
  */
 import { simpleSpanMoment } from './element.js';
 import { GrillageInputError } from './errors.js';
-import { SHARE_STRIDE, type LoadTransfer } from './loadTransfer.js';
+import { SHARE_STRIDE, type LoadShareTable, type LoadTransfer } from './loadTransfer.js';
 import type { GrillageModel } from './model.js';
 import { compileResponse, responseLabel, validateResponse, type GrillageResponse } from './responses.js';
 
@@ -48,22 +48,31 @@ export interface InfluenceSurface {
   atMany(xs: ArrayLike<number>, ys: ArrayLike<number>, out?: Float64Array): Float64Array;
   /** Ordinates on the grid xs × ys, m, row-major by x: out[ix·ys.length + iy]. */
   sampleGrid(xs: ArrayLike<number>, ys: ArrayLike<number>, out?: Float64Array): Float64Array;
+  /**
+   * Ordinates at the points of a table from `model.transfer.tabulate` / `tabulateGrid`
+   * (located once, reused by every surface of the model): ~6–12 multiply-adds per point.
+   * The fastest way to evaluate many surfaces at the same points.
+   */
+  evaluate(table: LoadShareTable, out?: Float64Array): Float64Array;
   /** Plan extent of the deck this surface covers, m. */
   readonly extent: { xMin: number; xMax: number; yMin: number; yMax: number };
   /** The adjoint solution K⁻¹a on the free unknowns (diagnostics, tests). */
   readonly adjoint: Float64Array;
 }
 
-class GrillageInfluenceSurface implements InfluenceSurface {
+export class GrillageInfluenceSurface implements InfluenceSurface {
   readonly response: GrillageResponse;
   readonly label: string;
   readonly unit: 'm' | '1';
   readonly extent: { xMin: number; xMax: number; yMin: number; yMax: number };
   readonly adjoint: Float64Array;
-  private readonly t: LoadTransfer;
-  private readonly W: Float64Array;
-  private readonly iSeg: number;
-  private readonly iXi0: number;
+  /** @internal The load transfer of the model. */
+  readonly t: LoadTransfer;
+  /** @internal Six weights per global segment (adjoint at the member's end DOFs + local coefficients). */
+  readonly W: Float64Array;
+  /** @internal Segment and position of a moment point between nodes (−1 when at a node). */
+  readonly iSeg: number;
+  readonly iXi0: number;
   private readonly sc = new Float64Array(2 * SHARE_STRIDE);
 
   constructor(model: GrillageModel, response: GrillageResponse, W: Float64Array, adjoint: Float64Array, interior?: { seg: number; xi0: number }) {
@@ -132,6 +141,32 @@ class GrillageInfluenceSurface implements InfluenceSurface {
     }
     return res;
   }
+
+  evaluate(table: LoadShareTable, out?: Float64Array): Float64Array {
+    const res = out ?? new Float64Array(table.count);
+    if (res.length < table.count) throw new RangeError(`evaluate output needs ${table.count} entries, has ${res.length}`);
+    const { seg, feq, raw } = table;
+    const W = this.W;
+    const iSeg = this.iSeg;
+    if (table.source !== this.t) throw new RangeError('the load-share table was located on another grillage model');
+    for (let k = 0; k < table.count; k++) {
+      let v = 0;
+      for (let s = 0; s < 2; s++) {
+        const slot = 2 * k + s;
+        const g = seg[slot];
+        if (g < 0) continue;
+        const b = g * 6;
+        const f = 6 * slot;
+        v += W[b] * feq[f] + W[b + 1] * feq[f + 1] + W[b + 2] * feq[f + 2] + W[b + 3] * feq[f + 3] + W[b + 4] * feq[f + 4] + W[b + 5] * feq[f + 5];
+        if (g === iSeg) {
+          const r = 4 * slot;
+          v += simpleSpanMoment(raw[r + 1], this.iXi0, raw[r], raw[r + 2], raw[r + 3]);
+        }
+      }
+      res[k] = v;
+    }
+    return res;
+  }
 }
 
 /** Anything that solves K·X = B for a column-interleaved block (the banded factors by default; the dense oracle in tests). */
@@ -182,4 +217,44 @@ export function influenceSurfaces(
     for (const l of c.local) for (let q = 0; q < 6; q++) W[l.seg * 6 + q] += l.coef[q];
     return new GrillageInfluenceSurface(model, c.response, W, v, c.interior);
   });
+}
+
+/**
+ * Ordinates of several surfaces of one model at the points of one table, point by point
+ * (each point's shares are read once for all surfaces: the fastest bulk path).
+ * Returns one Float64Array per surface (or fills `outs`).
+ */
+export function evaluateSurfaces(surfaces: InfluenceSurface[], table: LoadShareTable, outs?: Float64Array[]): Float64Array[] {
+  const ss = surfaces.map((s) => {
+    if (!(s instanceof GrillageInfluenceSurface)) throw new RangeError('evaluateSurfaces needs surfaces made by influenceSurfaces');
+    if (table.source !== s.t) throw new RangeError('the load-share table was located on another grillage model');
+    return s;
+  });
+  const m = ss.length;
+  const res = outs ?? ss.map(() => new Float64Array(table.count));
+  if (res.length !== m || res.some((o) => o.length < table.count)) throw new RangeError(`evaluateSurfaces needs ${m} outputs of ${table.count} entries`);
+  const Ws = ss.map((s) => s.W);
+  const { seg, feq, raw } = table;
+  for (let k = 0; k < table.count; k++) {
+    const g0 = seg[2 * k];
+    const g1 = seg[2 * k + 1];
+    for (let r = 0; r < m; r++) {
+      const W = Ws[r];
+      let v = 0;
+      if (g0 >= 0) {
+        const b = g0 * 6;
+        const f = 12 * k;
+        v = W[b] * feq[f] + W[b + 1] * feq[f + 1] + W[b + 2] * feq[f + 2] + W[b + 3] * feq[f + 3] + W[b + 4] * feq[f + 4] + W[b + 5] * feq[f + 5];
+        if (g0 === ss[r].iSeg) v += simpleSpanMoment(raw[8 * k + 1], ss[r].iXi0, raw[8 * k], raw[8 * k + 2], raw[8 * k + 3]);
+      }
+      if (g1 >= 0) {
+        const b = g1 * 6;
+        const f = 12 * k + 6;
+        v += W[b] * feq[f] + W[b + 1] * feq[f + 1] + W[b + 2] * feq[f + 2] + W[b + 3] * feq[f + 3] + W[b + 4] * feq[f + 4] + W[b + 5] * feq[f + 5];
+        if (g1 === ss[r].iSeg) v += simpleSpanMoment(raw[8 * k + 5], ss[r].iXi0, raw[8 * k + 4], raw[8 * k + 6], raw[8 * k + 7]);
+      }
+      res[r][k] = v;
+    }
+  }
+  return res;
 }

@@ -29,6 +29,7 @@
  * a point exactly on a simple-span joint belongs to the span that starts there.
  * Points off the deck (outside the deck edges or beyond the end support lines) carry nothing.
  */
+import { consistentLoads } from './element.js';
 import type { GrillageMesh } from './mesh.js';
 
 /** One share of a load: a point action on segment `seg` (global segment index) of a line. */
@@ -44,6 +45,24 @@ export interface LoadShare {
   P: number;
   Mx: number;
   My: number;
+}
+
+/**
+ * Pre-located load shares of many plan points, shared by every influence surface of one model
+ * (the geometry of a point does not depend on the response). Two slots per point; a slot
+ * with seg −1 is empty (off the deck, or a point on a line, which has one share).
+ */
+export interface LoadShareTable {
+  /** Number of points. */
+  readonly count: number;
+  /** Global segment index of slot s of point k at 2k + s, −1 when empty. */
+  readonly seg: Int32Array;
+  /** The 6 consistent nodal loads of each slot (per unit force), at 6·(2k + s). */
+  readonly feq: Float64Array;
+  /** [xi, L, P, My] of each slot at 4·(2k + s) (for the moment between nodes). */
+  readonly raw: Float64Array;
+  /** The load transfer (model) that located the points. */
+  readonly source: LoadTransfer;
 }
 
 /** Scratch layout of `locate`: per share 6 numbers [seg, xi, L, P, Mx, My]. */
@@ -71,10 +90,16 @@ export class LoadTransfer {
   private readonly A: Float64Array;
   private readonly B: Float64Array;
   private readonly lineY: Float64Array;
-  private readonly lineXs: Float64Array[];
-  private readonly spanFirst: Int32Array[];
-  private readonly spanLast: Int32Array[];
-  private readonly bucketSeg: Int32Array[];
+  /** All lines' node x, line l from lineNodeOffset[l]. */
+  private readonly xsFlat: Float64Array;
+  private readonly lineNodeOffset: Int32Array;
+  /** spanFirst/spanLast of line l, span j at l·N + j (positions on the line). */
+  private readonly spanFirstFlat: Int32Array;
+  private readonly spanLastFlat: Int32Array;
+  /** Bucket tables of all lines (segment position at each bucket start), line l from bucketOffset[l]. */
+  private readonly bucketFlat: Int32Array;
+  private readonly bucketOffset: Int32Array;
+  private readonly bucketCount: Int32Array;
   private readonly bucketX0: Float64Array;
   private readonly bucketInv: Float64Array;
   // strips: sorted by y; strip s covers [stripY0[s], stripY1[s]]
@@ -103,9 +128,16 @@ export class LoadTransfer {
     const nL = lines.length;
     this.lineCount = nL;
     this.lineY = Float64Array.from(lines, (l) => l.y);
-    this.lineXs = lines.map((l) => l.xs);
-    this.spanFirst = lines.map((l) => l.spanFirst);
-    this.spanLast = lines.map((l) => l.spanLast);
+    this.lineNodeOffset = new Int32Array(nL + 1);
+    for (let l = 0; l < nL; l++) this.lineNodeOffset[l + 1] = this.lineNodeOffset[l] + lines[l].xs.length;
+    this.xsFlat = new Float64Array(this.lineNodeOffset[nL]);
+    lines.forEach((l, k) => this.xsFlat.set(l.xs, this.lineNodeOffset[k]));
+    this.spanFirstFlat = new Int32Array(nL * N);
+    this.spanLastFlat = new Int32Array(nL * N);
+    lines.forEach((l, k) => {
+      this.spanFirstFlat.set(l.spanFirst, k * N);
+      this.spanLastFlat.set(l.spanLast, k * N);
+    });
     this.lineSegOffset = new Int32Array(nL + 1);
     for (let l = 0; l < nL; l++) this.lineSegOffset[l + 1] = this.lineSegOffset[l] + lines[l].segMember.length;
     this.segmentCount = this.lineSegOffset[nL];
@@ -115,25 +147,29 @@ export class LoadTransfer {
       this.segMember.set(l.segMember, this.lineSegOffset[k]);
       this.segLine.fill(k, this.lineSegOffset[k], this.lineSegOffset[k + 1]);
     });
-    // bucket lookup of segments along each line
-    this.bucketSeg = [];
+    // bucket lookup of segments along each line: 2 buckets per segment
+    this.bucketOffset = new Int32Array(nL + 1);
+    this.bucketCount = new Int32Array(nL);
     this.bucketX0 = new Float64Array(nL);
     this.bucketInv = new Float64Array(nL);
     lines.forEach((l, k) => {
+      const nb = 2 * Math.max(1, l.xs.length - 1);
+      this.bucketCount[k] = nb;
+      this.bucketOffset[k + 1] = this.bucketOffset[k] + nb + 1;
+    });
+    this.bucketFlat = new Int32Array(this.bucketOffset[nL]);
+    lines.forEach((l, k) => {
       const xs = l.xs;
-      const nseg = Math.max(1, xs.length - 1);
-      const nb = 2 * nseg;
+      const nb = this.bucketCount[k];
       const x0 = xs[0];
-      const span = xs[xs.length - 1] - x0;
-      const inv = span > 0 ? nb / span : 0;
-      const table = new Int32Array(nb + 1);
+      const extent = xs[xs.length - 1] - x0;
+      const inv = extent > 0 ? nb / extent : 0;
       let p = 0;
       for (let b = 0; b <= nb; b++) {
-        const xb = x0 + b / inv;
+        const xb = x0 + (b * extent) / nb;
         while (p + 1 < xs.length - 1 && xs[p + 1] <= xb) p++;
-        table[b] = p;
+        this.bucketFlat[this.bucketOffset[k] + b] = p;
       }
-      this.bucketSeg.push(table);
       this.bucketX0[k] = x0;
       this.bucketInv[k] = inv;
     });
@@ -231,8 +267,11 @@ export class LoadTransfer {
     if (x > xr) return 0;
     const xl = A[j] + B[j] * y;
     // strip
-    let s = this.stripBucket[Math.floor((y - this.stripBucketY0) * this.stripBucketInv)] ?? this.stripCount - 1;
     const S = this.stripCount;
+    let bs = Math.floor((y - this.stripBucketY0) * this.stripBucketInv);
+    if (bs < 0) bs = 0;
+    else if (bs >= this.stripBucket.length) bs = this.stripBucket.length - 1;
+    let s = this.stripBucket[bs];
     while (s + 1 < S && y >= this.stripY0[s + 1]) s++;
     while (s > 0 && y < this.stripY0[s]) s--;
     const kind = this.stripKind[s];
@@ -273,16 +312,20 @@ export class LoadTransfer {
 
   /** Writes one share on line l in span j at x; returns 1. */
   private share(l: number, j: number, x: number, P: number, Mx: number, My: number, out: Float64Array, o: number): number {
-    const xs = this.lineXs[l];
-    const first = this.spanFirst[l][j];
-    const lastSeg = this.spanLast[l][j] - 1;
-    let p = this.bucketSeg[l][Math.floor((x - this.bucketX0[l]) * this.bucketInv[l])] ?? lastSeg;
+    const xs = this.xsFlat;
+    const base = this.lineNodeOffset[l];
+    const first = this.spanFirstFlat[l * this.spanCount + j];
+    const lastSeg = this.spanLastFlat[l * this.spanCount + j] - 1;
+    let b = Math.floor((x - this.bucketX0[l]) * this.bucketInv[l]);
+    if (b < 0) b = 0;
+    else if (b > this.bucketCount[l]) b = this.bucketCount[l];
+    let p = this.bucketFlat[this.bucketOffset[l] + b];
     if (p < first) p = first;
     else if (p > lastSeg) p = lastSeg;
-    while (p < lastSeg && x >= xs[p + 1]) p++;
-    while (p > first && x < xs[p]) p--;
-    const xa = xs[p];
-    const L = xs[p + 1] - xa;
+    while (p < lastSeg && x >= xs[base + p + 1]) p++;
+    while (p > first && x < xs[base + p]) p--;
+    const xa = xs[base + p];
+    const L = xs[base + p + 1] - xa;
     let xi = (x - xa) / L;
     if (xi < 0) xi = 0;
     else if (xi > 1) xi = 1;
@@ -317,6 +360,49 @@ export class LoadTransfer {
       });
     }
     return out;
+  }
+
+  /** Locates the points (xs[k], ys[k]), m, once for every surface of the model. */
+  tabulate(xs: ArrayLike<number>, ys: ArrayLike<number>): LoadShareTable {
+    if (xs.length !== ys.length) throw new RangeError(`tabulate needs as many x as y values (${xs.length} and ${ys.length})`);
+    const table = this.emptyTable(xs.length);
+    for (let k = 0; k < xs.length; k++) this.fillSlot(table, k, xs[k], ys[k]);
+    return table;
+  }
+
+  /** Locates the grid points xs × ys, m; point k = ix·ys.length + iy (row-major by x). */
+  tabulateGrid(xs: ArrayLike<number>, ys: ArrayLike<number>): LoadShareTable {
+    const ny = ys.length;
+    const table = this.emptyTable(xs.length * ny);
+    for (let i = 0; i < xs.length; i++) {
+      const x = xs[i];
+      for (let k = 0; k < ny; k++) this.fillSlot(table, i * ny + k, x, ys[k]);
+    }
+    return table;
+  }
+
+  private emptyTable(count: number): LoadShareTable {
+    return { count, seg: new Int32Array(2 * count).fill(-1), feq: new Float64Array(12 * count), raw: new Float64Array(8 * count), source: this };
+  }
+
+  private fillSlot(table: LoadShareTable, k: number, x: number, y: number): void {
+    const sc = this.scratch;
+    const n = this.locate(x, y, sc);
+    for (let s = 0; s < n; s++) {
+      const o = s * SHARE_STRIDE;
+      const slot = 2 * k + s;
+      table.seg[slot] = sc[o];
+      const xi = sc[o + 1];
+      const L = sc[o + 2];
+      const P = sc[o + 3];
+      const My = sc[o + 5];
+      consistentLoads(L, xi, P, sc[o + 4], My, table.feq, 6 * slot);
+      const r = 4 * slot;
+      table.raw[r] = xi;
+      table.raw[r + 1] = L;
+      table.raw[r + 2] = P;
+      table.raw[r + 3] = My;
+    }
   }
 
   /** Whether (x, y) lies on the deck (between its edges and its end support lines). */
