@@ -7,8 +7,8 @@
  * Sign conventions as in influenceLine.ts: sagging moment positive; shear = resultant of
  * the upward forces on the part left of the section; reactions upward positive.
  *
- * AASHTO LRFD Bridge Design Specifications (the provisions below are unchanged from the
- * 2nd through the 9th edition in the parts used here):
+ * AASHTO LRFD Bridge Design Specifications (these provisions have kept this form across the
+ * editions; from memory, check the edition a project is designed to):
  * - Art. 3.6.1.2.2 design truck (rear spacing 14–30 ft chosen for the extreme);
  *   Art. 3.6.1.2.3 design tandem; Art. 3.6.1.2.4 design lane load 0.64 klf.
  * - Art. 3.6.1.3.1: the extreme of (design tandem + lane) and (design truck + lane); for

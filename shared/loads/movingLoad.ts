@@ -86,8 +86,6 @@ export function piecewiseOf(line: LineLike | HasPiecewise): PiecewiseCubic {
   return PiecewiseCubic.fromStations(l.xs, l.values);
 }
 
-const roots = new Float64Array(2);
-
 /** Results of one sweep, for σ = +1 and σ = −1. */
 type SweepResult = [RigidResult, RigidResult];
 
@@ -116,7 +114,7 @@ function sameLayout(c: CachedSweep, o: ArrayLike<number>, w: ArrayLike<number>, 
  * interval end limit and stationary point is a candidate; runs of equal value are merged
  * into plateaus), so that window maxima can be taken exactly afterwards.
  */
-function searchRigid(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1, sigma: 1 | -1, collect: boolean): RigidResult {
+function searchRigid(ws: Workspace, pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1, sigma: 1 | -1, collect: boolean): RigidResult {
   // Sweeps already made on this line are kept on it, so both senses share one pass.
   const list = pw.memo as CachedSweep[];
   let hit: CachedSweep | undefined;
@@ -127,7 +125,7 @@ function searchRigid(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<numb
     }
   }
   if (!hit || (collect && !hit.collect)) {
-    const entry: CachedSweep = { d, o: Float64Array.from(o), w: Float64Array.from(w), collect, result: sweep(pw, o, w, d, collect) };
+    const entry: CachedSweep = { d, o: Float64Array.from(o), w: Float64Array.from(w), collect, result: sweep(ws, pw, o, w, d, collect) };
     if (hit) list[list.indexOf(hit)] = entry;
     else list.push(entry);
     hit = entry;
@@ -135,7 +133,7 @@ function searchRigid(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<numb
   return hit.result[sigma > 0 ? 0 : 1];
 }
 
-/** Growable scratch list of (p, value) candidates. */
+/** Growable list of (p, value) candidates. */
 class CandidateList {
   p = new Float64Array(256);
   v = new Float64Array(256);
@@ -155,14 +153,15 @@ class CandidateList {
   }
 }
 
-const scratchPos = new CandidateList();
-
-/** Reused work arrays of the sweep (the search is synchronous, so one set suffices). */
-const scratch = {
-  delta: new Float64Array(8),
-  head: new Int32Array(8),
-  ptr: new Int32Array(8),
-  bps: new Float64Array(256),
+/** Work arrays of one search, made once per call and reused by its sweeps. */
+class Workspace {
+  delta = new Float64Array(8);
+  head = new Int32Array(8);
+  ptr = new Int32Array(8);
+  bps = new Float64Array(256);
+  readonly roots = new Float64Array(2);
+  readonly pos = new CandidateList();
+  readonly neg = new CandidateList();
   ensure(nA: number, nBp: number): void {
     if (this.delta.length < nA) {
       this.delta = new Float64Array(nA);
@@ -170,12 +169,11 @@ const scratch = {
       this.ptr = new Int32Array(nA);
     }
     if (this.bps.length < nBp) this.bps = new Float64Array(nBp);
-  },
-};
-const scratchNeg = new CandidateList();
+  }
+}
 
 /** One pass over the breakpoints giving the positive and the negative extreme together. */
-function sweep(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1, collect: boolean): SweepResult {
+function sweep(ws: Workspace, pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d: 1 | -1, collect: boolean): SweepResult {
   const K = pw.count;
   const nA = o.length;
   if (K === 0 || nA === 0) {
@@ -183,8 +181,8 @@ function sweep(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d
     return [empty(), empty()];
   }
   const nB = K + 1;
-  scratch.ensure(nA, nA * nB);
-  const { delta, head, ptr, bps } = scratch;
+  ws.ensure(nA, nA * nB);
+  const { delta, head, ptr, bps, roots } = ws;
   let dMin = Infinity;
   let dMax = -Infinity;
   for (let i = 0; i < nA; i++) {
@@ -221,8 +219,8 @@ function sweep(pw: PiecewiseCubic, o: ArrayLike<number>, w: ArrayLike<number>, d
   let bestPP = pLo;
   let bestN = 0;
   let bestNP = pLo;
-  const cp = scratchPos;
-  const cn = scratchNeg;
+  const cp = ws.pos;
+  const cn = ws.neg;
   cp.n = 0;
   cn.n = 0;
   if (collect) {
@@ -399,7 +397,7 @@ function offsetsWithGap(o: number[], k: number, s: number): number[] {
   return o.map((v, i) => (i >= k ? v + shift : v));
 }
 
-function searchVariable(pw: PiecewiseCubic, o: number[], w: number[], k: number, sMin: number, sMax: number, d: 1 | -1, sigma: 1 | -1): Found {
+function searchVariable(ws: Workspace, pw: PiecewiseCubic, o: number[], w: number[], k: number, sMin: number, sMax: number, d: 1 | -1, sigma: 1 | -1): Found {
   const base = o[k - 1];
   const oMin = offsetsWithGap(o, k, sMin);
   const oMax = offsetsWithGap(o, k, sMax);
@@ -408,11 +406,11 @@ function searchVariable(pw: PiecewiseCubic, o: number[], w: number[], k: number,
   const wF = w.slice(0, k);
   const oR = o.slice(k).map((v) => v - o[k]);
   const wR = w.slice(k);
-  const F = searchRigid(pw, oF, wF, d, sigma, true);
-  const G = searchRigid(pw, oR, wR, d, sigma, true);
-  const rMin = searchRigid(pw, oMin, w, d, sigma, false);
+  const F = searchRigid(ws, pw, oF, wF, d, sigma, true);
+  const G = searchRigid(ws, pw, oR, wR, d, sigma, true);
+  const rMin = searchRigid(ws, pw, oMin, w, d, sigma, false);
   // With a gap as long as the line, the two groups are never on it together.
-  const rMax = sMax >= pw.xMax - pw.xMin ? (F.best >= G.best ? { best: F.best, p: F.p } : { best: G.best, p: G.p + d * (base + sMax) }) : searchRigid(pw, oMax, w, d, sigma, false);
+  const rMax = sMax >= pw.xMax - pw.xMin ? (F.best >= G.best ? { best: F.best, p: F.p } : { best: G.best, p: G.p + d * (base + sMax) }) : searchRigid(ws, pw, oMax, w, d, sigma, false);
   let found: Found = rMin.best >= rMax.best ? { best: rMin.best, p: rMin.p, d, spacing: sMin } : { best: rMax.best, p: rMax.p, d, spacing: sMax };
   if (sMax - sMin <= 1e-12 * Math.max(1, sMax)) return found;
   const fr = F.runs!;
@@ -451,17 +449,7 @@ function searchVariable(pw: PiecewiseCubic, o: number[], w: number[], k: number,
   return found;
 }
 
-const validated = new WeakMap<Vehicle, { o: number[]; w: number[] }>();
-
 function validateVehicle(v: Vehicle): { o: number[]; w: number[] } {
-  const known = v && typeof v === 'object' && Object.isFrozen(v) ? validated.get(v) : undefined;
-  if (known) return known;
-  const checked = checkVehicle(v);
-  if (v && typeof v === 'object' && Object.isFrozen(v)) validated.set(v, checked);
-  return checked;
-}
-
-function checkVehicle(v: Vehicle): { o: number[]; w: number[] } {
   if (!v || !Array.isArray(v.axles) || v.axles.length === 0) throw new DeckInputError(['vehicle', 'axles'], 'a vehicle needs at least one axle');
   const o: number[] = [];
   const w: number[] = [];
@@ -524,13 +512,14 @@ export function maxVehicleEffect(line: LineLike | HasPiecewise, vehicle: Vehicle
   const sigma: 1 | -1 = sense === 'positive' ? 1 : -1;
   const vs = vehicle.variableSpacing;
   const dirs: (1 | -1)[] = !vs && isSymmetric(o, w) ? [1] : [1, -1];
+  const ws = new Workspace();
   let found: Found = { best: -1, p: pw.xMin, d: 1 };
   for (const d of dirs) {
     let f: Found;
     if (vs) {
-      f = searchVariable(pw, o, w, vs.axleIndex, vs.min, vs.max, d, sigma);
+      f = searchVariable(ws, pw, o, w, vs.axleIndex, vs.min, vs.max, d, sigma);
     } else {
-      const r = searchRigid(pw, o, w, d, sigma, false);
+      const r = searchRigid(ws, pw, o, w, d, sigma, false);
       f = { best: r.best, p: r.p, d };
     }
     if (f.best > found.best) found = f;
