@@ -6,3 +6,4 @@ export { PiecewiseCubic, type HermiteElement, type HasPiecewise } from './piecew
 export * from './beamLine.js';
 export * from './girderEffects.js';
 export * from './combinations.js';
+export * from './deckEffects.js';
