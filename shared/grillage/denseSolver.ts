@@ -56,9 +56,11 @@ export class DenseCholesky {
   readonly n: number;
   private readonly chol: CholeskyDecomposition;
 
+  /** K is symmetrised as (K + Kᵀ)/2 first: ml-matrix demands exact symmetry, and skew member products differ in the last bit. */
   constructor(K: Matrix) {
     this.n = K.rows;
-    this.chol = new CholeskyDecomposition(K);
+    const S = K.clone().add(K.transpose()).mul(0.5);
+    this.chol = new CholeskyDecomposition(S);
     if (!this.chol.isPositiveDefinite()) throw new RangeError('dense stiffness is not positive definite');
   }
 
