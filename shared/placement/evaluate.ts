@@ -9,6 +9,10 @@
  * + η(x_a, y_right)), plus, when asked for, the design lane load of each lane. No dynamic load
  * allowance is applied here.
  *
+ * Axles that do not contribute to the extreme effect of the chosen sense are neglected
+ * (Art. 3.6.1.3.1): an axle counts ½·W_a·(η_left + η_right) only when that has the sign of
+ * `sense` (default 'positive'); `countAdverseAxles: true` counts every axle.
+ *
  * Multiple presence factor m (Table 3.6.1.1.2-1) for the number of loaded lanes, unless
  * `multiplePresence: false` (fatigue: Art. 3.6.1.4.3b removes it).
  *
@@ -42,8 +46,8 @@ export interface LaneEffect {
   right: number;
   /** y of the left and right wheel lines, m. */
   wheelLines: [number, number];
-  /** Axle positions and weights (surfaces), m and N. */
-  axles?: { x: number; weight: number }[];
+  /** Surfaces: axle positions (m), weights (N), contribution before m (response units), and whether it counts. */
+  axles?: { x: number; weight: number; contribution: number; counted: boolean }[];
   /** This lane's vehicle effect before m. */
   vehicleValue: number;
   /** This lane's lane-load effect before m (0 when not asked for). */
@@ -88,8 +92,12 @@ export function evaluateTransverse(line: TransverseLine, placement: Placement, r
 }
 
 export interface SurfaceEvaluateOptions extends EvaluateOptions {
+  /** The sense of the extreme sought (default 'positive'): decides which axles are neglected and which lengths the lane load covers. */
+  sense?: Sense;
+  /** Count every axle, contributing or not (default false: Art. 3.6.1.3.1 neglects the others). */
+  countAdverseAxles?: boolean;
   /** Add the design lane load in each lane, over the lengths that add to `sense`. */
-  laneLoad?: { sense: Sense; intensity?: number /* N/m, default 0.64 klf */; width?: number /* m, default 10 ft */ };
+  laneLoad?: { intensity?: number /* N/m, default 0.64 klf */; width?: number /* m, default 10 ft */ };
 }
 
 /**
@@ -106,6 +114,8 @@ export function evaluateSurface(
   if (options.check !== false) assertPlacement(placement, rules, { vehicle, extent: surface.extent });
   const k = placement.lanes.length;
   const m = presence(k, options.multiplePresence);
+  const sense = options.sense ?? 'positive';
+  const sgn = sense === 'positive' ? 1 : -1;
   let sum = 0;
   const lanes: LaneEffect[] = placement.lanes.map((l, i) => {
     const w = wheelLines(rules, l);
@@ -113,11 +123,13 @@ export function evaluateSurface(
     let v = 0;
     const axles = xs.map((x, a) => {
       const W = vehicle.axles[a].weight;
-      v += 0.5 * W * (surface.at(x, w[0]) + surface.at(x, w[1]));
-      return { x, weight: W };
+      const c = 0.5 * W * (surface.at(x, w[0]) + surface.at(x, w[1]));
+      const counted = options.countAdverseAxles === true || sgn * c > 0;
+      if (counted) v += c;
+      return { x, weight: W, contribution: c, counted };
     });
     let lane = 0;
-    if (options.laneLoad) lane = laneLoadEffect(surface, (w[0] + w[1]) / 2, options.laneLoad);
+    if (options.laneLoad) lane = laneLoadEffect(surface, (w[0] + w[1]) / 2, { ...options.laneLoad, sense });
     sum += v + lane;
     return { lane: i, left: l.left, right: l.left + rules.laneWidth, wheelLines: w, axles, vehicleValue: v, laneLoadValue: lane };
   });

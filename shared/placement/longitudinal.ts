@@ -27,6 +27,13 @@
  * the gap every s at which one of them meets a station is tried, with both bounds.
  * Every candidate (A) and (B) is evaluated, so the largest of them is the largest effect.
  * A vehicle without a variable spacing is the case of case (A) alone.
+ *
+ * Axles that do not contribute are neglected (Art. 3.6.1.3.1: "axles that do not contribute
+ * to the extreme force effect under consideration shall be neglected"): each axle counts
+ * W·max(0, ℓ). The positive part is again piecewise linear, with extra breakpoints where ℓ
+ * crosses zero; those crossings join the stations in (A) and (B), and the largest positive
+ * part over an interval is the positive part of the largest ordinate, so the argument above
+ * holds unchanged. `countAdverse: true` counts every axle as it is instead.
  */
 import type { Vehicle } from '../loads/vehicles.js';
 import { PlacementError } from './rules.js';
@@ -197,79 +204,96 @@ export interface LineMaximum extends LongitudinalPosition {
 
 const TOL = 1e-9;
 
-/** Σ W·ℓ for a position; −Infinity when no axle is on the deck. */
-function effectAt(line: StationLine, v: VehicleShape, xf: number, d: number, s: number): number {
-  const W = v.weights;
-  const P = v.basePositions;
-  const ds = s - v.sMin;
-  let sum = 0;
-  let on = false;
-  for (let a = 0; a < W.length; a++) {
-    const x = xf - d * (P[a] + (a >= v.gapIndex ? ds : 0));
-    if (x >= line.xMin - TOL && x <= line.xMax + TOL) on = true;
-    sum += W[a] * lineAt(line, x);
+/** Stations and zero crossings of a line: the breakpoints of its positive part. */
+function breakpointsOf(line: StationLine, withCrossings: boolean): Float64Array {
+  if (!withCrossings) return line.xs;
+  const X = line.xs;
+  const V = line.values;
+  const out: number[] = [X[0]];
+  for (let j = 1; j < X.length; j++) {
+    const a = V[j - 1];
+    const b = V[j];
+    if ((a > 0 && b < 0) || (a < 0 && b > 0)) out.push(X[j - 1] + ((X[j] - X[j - 1]) * a) / (a - b));
+    out.push(X[j]);
   }
-  return on ? sum : -Infinity;
+  return Float64Array.from(out);
 }
 
 /**
- * The largest Σ W_a·ℓ(x_a) over every legal position of the vehicle on the line (both
- * directions of travel unless `directions` says otherwise, variable spacing searched). Exact
- * (see the header). Ties keep the first candidate found.
+ * The largest Σ W_a·max(0, ℓ(x_a)) (or Σ W_a·ℓ(x_a) with `countAdverse`) over every legal
+ * position of the vehicle on the line: both directions of travel unless `directions` says
+ * otherwise, variable spacing searched. Exact (see the header). Ties keep the first found.
  */
-export function bestVehicleOnLine(line: StationLine, v: VehicleShape, directions: readonly (1 | -1)[] = [1, -1]): LineMaximum {
-  const X = line.xs;
+export function bestVehicleOnLine(
+  line: StationLine,
+  v: VehicleShape,
+  directions: readonly (1 | -1)[] = [1, -1],
+  options: { countAdverse?: boolean } = {},
+): LineMaximum {
+  const all = options.countAdverse === true;
+  const val = all ? (x: number) => lineAt(line, x) : (x: number) => Math.max(0, lineAt(line, x));
+  const X = breakpointsOf(line, !all);
   const m = X.length;
   const W = v.weights;
   const P = v.basePositions;
   const n = W.length;
   const g = v.gapIndex;
   const variable = g < n;
+  const xMin = line.xMin - TOL;
+  const xMax = line.xMax + TOL;
+  /** Σ W·val for a position; −Infinity when no axle is on the deck. */
+  const effectAt = (xf: number, d: number, s: number): number => {
+    const ds = s - v.sMin;
+    let sum = 0;
+    let on = false;
+    for (let a = 0; a < n; a++) {
+      const x = xf - d * (P[a] + (a >= g ? ds : 0));
+      if (x >= xMin && x <= xMax) on = true;
+      sum += W[a] * val(x);
+    }
+    return on ? sum : -Infinity;
+  };
   let best: LineMaximum = { value: -Infinity, frontAxleAt: NaN, direction: 1 };
   const consider = (value: number, xf: number, d: 1 | -1, s: number) => {
     if (value > best.value) best = variable ? { value, frontAxleAt: xf, direction: d, axleSpacing: s } : { value, frontAxleAt: xf, direction: d };
   };
   const singleBehind = variable && n - g === 1;
   for (const d of directions) {
-    // (A) an axle ahead of the gap (every axle when there is none) at a station.
+    // (A) an axle ahead of the gap (every axle when there is none) at a breakpoint.
     for (let a = 0; a < g; a++) {
       for (let j = 0; j < m; j++) {
         const xf = X[j] + d * P[a];
         if (!variable) {
-          consider(effectAt(line, v, xf, d, 0), xf, d, 0);
+          consider(effectAt(xf, d, 0), xf, d, 0);
           continue;
         }
-        // Part of the effect from the axles ahead of the gap.
-        let ahead = 0;
-        let on = false;
-        for (let b = 0; b < g; b++) {
-          const x = xf - d * P[b];
-          if (x >= line.xMin - TOL && x <= line.xMax + TOL) on = true;
-          ahead += W[b] * lineAt(line, x);
-        }
         if (singleBehind) {
+          let ahead = 0;
+          let on = false;
+          for (let b = 0; b < g; b++) {
+            const x = xf - d * P[b];
+            if (x >= xMin && x <= xMax) on = true;
+            ahead += W[b] * val(x);
+          }
           // The rear axle sweeps [xf − d·(P + sMax − sMin), xf − d·P]; its best ordinate:
           const x1 = xf - d * P[g];
           const x2 = xf - d * (P[g] + v.sMax - v.sMin);
-          const lo = Math.min(x1, x2);
-          const hi = Math.max(x1, x2);
-          const sBest = bestSpacingSingle(line, lo, hi, x1, d, v);
+          const sBest = bestSpacingSingle(line, Math.min(x1, x2), Math.max(x1, x2), x1, d, v, !all);
           const xr = xf - d * (P[g] + sBest - v.sMin);
-          const rearOn = xr >= line.xMin - TOL && xr <= line.xMax + TOL;
-          if (on || rearOn) consider(ahead + W[g] * lineAt(line, xr), xf, d, sBest);
-          else consider(-Infinity, xf, d, sBest);
+          const rearOn = xr >= xMin && xr <= xMax;
+          consider(on || rearOn ? ahead + W[g] * val(xr) : -Infinity, xf, d, sBest);
         } else {
-          for (const s of spacingCandidates(line, v, xf, d)) consider(effectAt(line, v, xf, d, s), xf, d, s);
+          for (const s of spacingCandidates(X, v, xf, d)) consider(effectAt(xf, d, s), xf, d, s);
         }
       }
     }
-    // (B) an axle behind the gap at a station, with the spacing at a bound.
+    // (B) an axle behind the gap at a breakpoint, with the spacing at a bound.
     if (variable) {
       for (let a = g; a < n; a++) {
         for (const s of [v.sMin, v.sMax]) {
           for (let j = 0; j < m; j++) {
             const xf = X[j] + d * (P[a] + s - v.sMin);
-            consider(effectAt(line, v, xf, d, s), xf, d, s);
+            consider(effectAt(xf, d, s), xf, d, s);
           }
         }
       }
@@ -281,8 +305,8 @@ export function bestVehicleOnLine(line: StationLine, v: VehicleShape, directions
   return best;
 }
 
-/** For one axle behind the gap: the spacing (m) at which it sits on the best ordinate of [lo, hi]. */
-function bestSpacingSingle(line: StationLine, lo: number, hi: number, xAtMin: number, d: number, v: VehicleShape): number {
+/** For one axle behind the gap: the spacing (m) at which it sits on the best ordinate of [lo, hi] (positive part when `positive`). */
+function bestSpacingSingle(line: StationLine, lo: number, hi: number, xAtMin: number, d: number, v: VehicleShape, positive: boolean): number {
   const X = line.xs;
   const V = line.values;
   let bestX = lo;
@@ -308,15 +332,16 @@ function bestSpacingSingle(line: StationLine, lo: number, hi: number, xAtMin: nu
       }
     }
   }
+  // With the positive part, a non-positive best means any position is as good: keep the first.
+  if (positive && bestV <= 0) bestX = lo;
   // position x = xAtMin − d·(s − sMin)  ⇒  s = sMin + d·(xAtMin − x)
   const s = v.sMin + d * (xAtMin - bestX);
   return Math.min(v.sMax, Math.max(v.sMin, s));
 }
 
-/** Spacings to try when several axles ride behind the gap: both bounds and each axle at each station. */
-function spacingCandidates(line: StationLine, v: VehicleShape, xf: number, d: number): number[] {
+/** Spacings to try when several axles ride behind the gap: both bounds and each axle at each breakpoint. */
+function spacingCandidates(X: Float64Array, v: VehicleShape, xf: number, d: number): number[] {
   const out = [v.sMin, v.sMax];
-  const X = line.xs;
   for (let a = v.gapIndex; a < v.weights.length; a++) {
     const xAtMin = xf - d * v.basePositions[a];
     for (let j = 0; j < X.length; j++) {

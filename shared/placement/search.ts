@@ -22,12 +22,13 @@
  * a lane whose edge is a curb face, see rules.ts). Let H(u) be the largest effect of one
  * lane's vehicle with its left wheel line at u (for a line: ½(r(u) + r(u+gauge)); for a
  * surface: the best longitudinal position, spacing and direction, found exactly by
- * longitudinal.ts). The effect of k lanes is m(k)·Σ H(u_i), and for a lane at p the best
+ * longitudinal.ts, each axle counting only when it contributes, Art. 3.6.1.3.1). The effect of k lanes is m(k)·Σ H(u_i), and for a lane at p the best
  * wheel line gives g(p) = max{H(u) : u ∈ [p + a(p), p + b(p)]}.
  *
  * 1. H is convex between consecutive points of T = Y ∪ (Y − gauge), Y the transverse
- *    stations. For a fixed longitudinal position, the effect is Σ ½W(η(x,u) + η(x,u+gauge)),
- *    linear in u between points of T (the representation is linear in y between stations);
+ *    stations. For a fixed longitudinal position, each axle's share ½W(η(x,u) + η(x,u+gauge))
+ *    is linear in u between points of T (the representation is linear in y between stations),
+ *    so its positive part (a neglected axle counts zero) is convex there, and so is their sum;
  *    H is the largest of such functions, hence convex on each piece. (Lines: H itself is linear
  *    on each piece.) H is also continuous (each function is Lipschitz in u with one bound).
  * 2. So the largest H over an interval is at its ends or at a point of T inside it, and
@@ -470,7 +471,7 @@ export function governingSurfacePlacement(
   let bound = 0;
   const byLaneCount = results.map((r): LaneCountResult => {
     const placement: Placement = { lanes: r.lanes.map((c) => ({ ...toLane(rules, c), ...c.detail })) };
-    const effect = evaluateSurface(source, placement, rules, vehicle, { multiplePresence: options.multiplePresence });
+    const effect = evaluateSurface(source, placement, rules, vehicle, { multiplePresence: options.multiplePresence, sense });
     bound = Math.max(bound, 2 * effect.multiplePresence * r.k * shape.totalWeight * eps);
     return { loadedLanes: r.k, multiplePresence: effect.multiplePresence, value: effect.value, placement, effect };
   });

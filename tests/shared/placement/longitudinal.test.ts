@@ -5,7 +5,8 @@
  *   design truck at midspan, 14 ft rear spacing:   M = 18L − 280 kip·ft (L ≥ 28 ft)
  *   design tandem at midspan:                       M = 12.5L − 50 kip·ft (L ≥ 4 ft)
  *   design truck, shear at the end:                 V = 72 − 672/L kip (L ≥ 28 ft)
- * Vehicles: AASHTO LRFD Art. 3.6.1.2.2 and 3.6.1.2.3.
+ * Vehicles: AASHTO LRFD Art. 3.6.1.2.2 and 3.6.1.2.3. Axles that do not contribute are
+ * neglected (Art. 3.6.1.3.1), in the search and in the brute-force scans alike.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
@@ -33,8 +34,8 @@ describe('vehicle on a simple-span line: closed forms', () => {
   }
 });
 
-/** Dense scan: front axle on a fine grid, both directions, spacing on a grid. */
-function scan(line: ReturnType<typeof stationLine>, v: Vehicle, steps: number): number {
+/** Dense scan: front axle on a fine grid, both directions, spacing on a grid; adverse axles neglected unless `all`. */
+function scan(line: ReturnType<typeof stationLine>, v: Vehicle, steps: number, all = false): number {
   const len = Math.max(...axlePositions(v, v.variableSpacing?.max));
   const x0 = line.xMin - len;
   const x1 = line.xMax + len;
@@ -47,7 +48,7 @@ function scan(line: ReturnType<typeof stationLine>, v: Vehicle, steps: number): 
         const xf = x0 + ((x1 - x0) * i) / steps;
         const xs = pos.map((p) => xf - d * p);
         if (!xs.some((x) => x >= line.xMin && x <= line.xMax)) continue;
-        const val = xs.reduce((sum, x, a) => sum + v.axles[a].weight * lineAt(line, x), 0);
+        const val = xs.reduce((sum, x, a) => sum + v.axles[a].weight * (all ? lineAt(line, x) : Math.max(0, lineAt(line, x))), 0);
         if (val > best) best = val;
       }
     }
@@ -71,7 +72,11 @@ describe('vehicle on random lines against a dense scan (fast-check)', () => {
           const dense = scan(line, v, 1500);
           expect(best.value).toBeGreaterThanOrEqual(dense - 1e-9 * Math.abs(dense) - 1e-9);
           const pos = axlePositions(v, best.axleSpacing);
-          const again = pos.reduce((s, p, a) => s + v.axles[a].weight * lineAt(line, best.frontAxleAt - best.direction * p), 0);
+          const again = pos.reduce((s, p, a) => s + v.axles[a].weight * Math.max(0, lineAt(line, best.frontAxleAt - best.direction * p)), 0);
+          // counting every axle as it is (no neglect) is searched exactly too, and never exceeds the neglecting search
+          const all = bestVehicleOnLine(line, vehicleShape(v), [1, -1], { countAdverse: true });
+          expect(all.value).toBeGreaterThanOrEqual(scan(line, v, 600, true) - 1e-9);
+          expect(all.value).toBeLessThanOrEqual(best.value + 1e-9);
           expect(again).toBeRelativelyClose(best.value, 1e-7);
           if (v.variableSpacing) {
             expect(best.axleSpacing!).toBeGreaterThanOrEqual(v.variableSpacing.min - 1e-12);
