@@ -33,7 +33,7 @@ describe('evaluateSurface', () => {
     const two = evaluateSurface(beamLine, { lanes: [lane, { ...lane, left: ft(20) }] }, rules, DESIGN_TRUCK);
     expect(two.multiplePresence).toBe(1);
     expect(two.value).toBeRelativelyClose(2 * one.lanes[0].vehicleValue, 1e-12);
-    const three = evaluateSurface(beamLine, { lanes: [lane, { ...lane, left: ft(15) }, { ...lane, left: ft(26.5) }] }, rules, DESIGN_TRUCK);
+    const three = evaluateSurface(beamLine, { lanes: [{ ...lane, left: 0 }, { ...lane, left: ft(12) }, { ...lane, left: ft(24) }] }, rules, DESIGN_TRUCK);
     expect(three.multiplePresence).toBe(0.85);
     expect(evaluateSurface(beamLine, { lanes: [lane] }, rules, DESIGN_TRUCK, { multiplePresence: false }).value).toBeRelativelyClose(one.lanes[0].vehicleValue, 1e-12);
   });
