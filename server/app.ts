@@ -30,6 +30,7 @@ import { defaultAttachmentsDir } from './api/attachments/attachmentStore.js';
 import { reviewRouter } from './api/reviews/reviewRouter.js';
 import { trainingRouter } from './api/training/trainingRouter.js';
 import { importRouter } from './api/imports/importRouter.js';
+import { reportRouter } from './reports/reportRouter.js';
 
 export interface AppDeps {
   db: Db;
@@ -91,6 +92,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/reviews', reviewRouter(db, config, mailer));
   api.use('/training', trainingRouter(db, config, mailer));
   api.use('/imports', importRouter(db));
+  api.use('/reports', reportRouter(db));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -10,7 +10,7 @@ import type { Db } from '../../db/client.js';
 import { analysisResults, type DeckVersionRow } from '../../db/schema.js';
 import { assertDeck, type Deck } from '../../../shared/deck/schema.js';
 import { girderOffsets } from '../../../shared/deck/geometry.js';
-import { computeCodeFactors, type CodeFactorResult } from '../../../shared/lrfd/index.js';
+import { computeCodeFactors, type CodeFactorResult, type FactorRow } from '../../../shared/lrfd/index.js';
 import { SOLVER_VERSION } from '../../../shared/version.js';
 
 export function deckOf(v: Pick<DeckVersionRow, 'deckJson'>): Deck {
@@ -50,4 +50,14 @@ export function codeResultsOf(db: Db, v: DeckVersionRow): CodeResults {
   const stored = storedResult(db, v.id, 'code');
   if (stored && looksLikeCodeResult(stored.data)) return { result: stored.data, solverVersion: stored.solverVersion, source: 'stored' };
   return { result: computeCodeFactors(deckOf(v)), solverVersion: SOLVER_VERSION, source: 'computed' };
+}
+
+/**
+ * The article a factor row rests on: that of the first trace step whose value is the row's
+ * value before the skew correction (the method's own step; the skew steps come after it),
+ * else the last step's.
+ */
+export function factorArticle(row: Pick<FactorRow, 'trace' | 'baseValue'>): string {
+  const own = row.trace.find((s) => s.kind === 'none' && Math.abs(s.value - row.baseValue) <= 1e-12 * Math.max(1, Math.abs(row.baseValue)));
+  return (own ?? row.trace[row.trace.length - 1])?.article ?? '';
 }

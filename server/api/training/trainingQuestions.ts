@@ -19,6 +19,7 @@ import type { TraceStep } from '../../../shared/trace.js';
 import { checkPlacement, evaluateTransverse, governingTransversePlacement, leverRuleLine, placementRulesForDeck, rigidSectionLine, wheelLines, type Placement } from '../../../shared/placement/index.js';
 import { toUs } from '../../../shared/units.js';
 import { ApiError } from '../../middleware/errors.js';
+import { factorArticle } from '../reviews/versionResults.js';
 import type { FactorParams, PlacementInput, SubmissionBody, TruckPositionParams } from './trainingModel.js';
 
 export interface ExpectedAnswer {
@@ -82,11 +83,10 @@ export function expectedFactor(code: CodeFactorResult, p: FactorParams): Expecte
     if (p.location && !locations.includes(p.location)) throw paramsError(`no ${EFFECT_WORDS[p.effect]} factor at ${p.location}: choose one of ${locations.join(', ')}`);
     throw paramsError(`this deck version has no ${factorQuestion(p, p.location ?? locations[0])}: the code does not use that method for that case here`);
   }
-  const last = row.trace[row.trace.length - 1];
   return {
     question: factorQuestion(p, row.location.description),
     value: row.value,
-    article: last?.article ?? '',
+    article: factorArticle(row),
     trace: row.trace,
     rowId: row.id,
     method: row.method,

@@ -1,0 +1,100 @@
+/**
+ * CSV exports of a deck version: the factor table (every code-method row, then the refined
+ * rows where a grillage result is stored) and the girder HL-93 LL+IM envelopes. Values are
+ * written at full precision in the project's unit system (the header names each column's
+ * unit); the last line carries the caution.
+ */
+import Papa from 'papaparse';
+import { toUs, unitSymbol, toDisplay, type QuantityKind, type UnitSystem } from '../../shared/units.js';
+import type { ReportData } from './reportData.js';
+import { refinedResultsOf } from '../api/reviews/refinedResults.js';
+import { factorArticle } from '../api/reviews/versionResults.js';
+import type { Db } from '../db/client.js';
+import type { DeckVersionRow } from '../db/schema.js';
+
+export const CSV_CAUTION = '# Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
+
+function unitTag(kind: QuantityKind, units: UnitSystem): string {
+  return unitSymbol(kind, units).replace('·', '_').replace('/', '_per_').replace('²', '2').replace('³', '3').replace('⁴', '4');
+}
+
+function csv(rows: (string | number | boolean | null)[][]): string {
+  return Papa.unparse(rows.map((r) => r.map((c) => (c === null ? '' : typeof c === 'number' ? String(c) : String(c)))), { newline: '\r\n' }) + `\r\n${JSON.stringify(CSV_CAUTION)}\r\n`;
+}
+
+export function factorsCsv(db: Db, version: DeckVersionRow, data: ReportData): string {
+  const u = data.units;
+  const len = (m: number | undefined) => (m === undefined ? null : Number((u === 'US' ? toUs.ft(m) : m).toPrecision(12)));
+  const header = ['row_id', 'girder', 'girder_number', 'effect', 'location', `span_length_${u === 'US' ? 'ft' : 'm'}`, 'lanes', 'loaded_lanes', 'method', 'value_before_skew', 'skew_factor', 'value', 'adopted', 'governing', 'article', 'findings'];
+  const rows: (string | number | boolean | null)[][] = [header];
+  for (const r of data.code.factors) {
+    rows.push([
+      r.id,
+      r.girderKind,
+      r.girderNumber ?? null,
+      r.effect,
+      r.location.description,
+      len(r.location.spanLength),
+      r.lanes,
+      r.loadedLanes ?? null,
+      r.method,
+      r.baseValue,
+      r.skewFactor,
+      r.value,
+      r.adopted,
+      r.governing,
+      factorArticle(r),
+      r.findings.map((f) => f.message).join(' | '),
+    ]);
+  }
+  const refined = refinedResultsOf(db, version);
+  for (const f of refined.factors ?? []) {
+    rows.push([`refined/${f.girder}/${f.effect}/${f.locationKey}`, f.girder === 1 || f.girder === data.code.derived.girderCount ? 'exterior' : 'interior', f.girder, f.effect, f.location, null, f.lanes, null, 'grillage', f.value, 1, f.value, false, false, refined.source, '']);
+  }
+  return csv(rows);
+}
+
+export function envelopesCsv(data: ReportData): string {
+  const u = data.units;
+  const m = unitTag('moment', u);
+  const v = unitTag('force', u);
+  const x = unitTag('length', u);
+  const header = [
+    'girder',
+    'span',
+    'fraction',
+    `x_${x}`,
+    `moment_max_${m}`,
+    `moment_min_${m}`,
+    `shear_max_${v}`,
+    `shear_min_${v}`,
+    `fatigue_moment_max_${m}`,
+    `fatigue_moment_min_${m}`,
+    'moment_factor',
+    'negative_moment_factor',
+    'shear_factor',
+    'governing_loading_moment_max',
+  ];
+  const rows: (string | number | boolean | null)[][] = [header];
+  for (const g of data.envelopes) {
+    for (const p of g.effects.points) {
+      rows.push([
+        g.girder,
+        p.span + 1,
+        p.fraction,
+        toDisplay(p.x, 'length', u),
+        toDisplay(p.moment.max.value, 'moment', u),
+        toDisplay(p.moment.min.value, 'moment', u),
+        toDisplay(p.shear.max.value, 'force', u),
+        toDisplay(p.shear.min.value, 'force', u),
+        p.fatigueMoment ? toDisplay(p.fatigueMoment.max.value, 'moment', u) : null,
+        p.fatigueMoment ? toDisplay(p.fatigueMoment.min.value, 'moment', u) : null,
+        p.moment.max.factor,
+        p.moment.min.factor,
+        p.shear.max.factor,
+        p.moment.max.governing,
+      ]);
+    }
+  }
+  return csv(rows);
+}

@@ -1,0 +1,62 @@
+/**
+ * /api/reports — the calculation package and CSV tables of a deck version (report:export).
+ * - GET /decks/:deckId/versions/:number/package.pdf
+ * - GET /decks/:deckId/versions/:number/factors.csv
+ * - GET /decks/:deckId/versions/:number/envelopes.csv
+ * Each download is recorded in the project's audit trail ("export").
+ */
+import { Router } from 'express';
+import { and, eq } from 'drizzle-orm';
+import type { Db } from '../db/client.js';
+import { deckVersions } from '../db/schema.js';
+import { allow } from '../auth/passport.js';
+import { validate } from '../middleware/validate.js';
+import { versionParams } from '../api/decks/deckModel.js';
+import { recordAudit } from '../api/audit/auditService.js';
+import { reportData, type ReportData } from './reportData.js';
+import { calculationPackagePdf } from './calculationPackage.js';
+import { envelopesCsv, factorsCsv } from './csvExport.js';
+
+function fileStem(data: ReportData): string {
+  const clean = data.deck.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'deck';
+  return `${clean}-v${data.version.number}`;
+}
+
+export function reportRouter(db: Db): Router {
+  const r = Router();
+  const params = validate({ params: versionParams });
+  const audit = (req: Express.Request, data: ReportData, what: string) =>
+    recordAudit(db, { firmId: req.user!.firmId, projectId: data.project.id, actorId: req.user!.id, action: 'export', entityType: 'deck', entityId: data.deck.id, summary: `exported ${what} of version ${data.version.number} of deck “${data.deck.name}”` });
+
+  r.get('/decks/:deckId/versions/:number/package.pdf', allow('report:export'), params, async (req, res) => {
+    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const pdf = await calculationPackagePdf(data);
+    audit(req, data, 'the calculation package (PDF)');
+    res.attachment(`${fileStem(data)}-calculation-package.pdf`);
+    res.type('application/pdf');
+    res.set('Cache-Control', 'private, no-store');
+    res.send(pdf);
+  });
+
+  r.get('/decks/:deckId/versions/:number/factors.csv', allow('report:export'), params, (req, res) => {
+    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const v = db.select().from(deckVersions).where(and(eq(deckVersions.id, data.version.id))).get()!;
+    const text = factorsCsv(db, v, data);
+    audit(req, data, 'the factor table (CSV)');
+    res.attachment(`${fileStem(data)}-factors.csv`);
+    res.type('text/csv; charset=utf-8');
+    res.set('Cache-Control', 'private, no-store');
+    res.send(text);
+  });
+
+  r.get('/decks/:deckId/versions/:number/envelopes.csv', allow('report:export'), params, (req, res) => {
+    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const text = envelopesCsv(data);
+    audit(req, data, 'the girder envelopes (CSV)');
+    res.attachment(`${fileStem(data)}-envelopes.csv`);
+    res.type('text/csv; charset=utf-8');
+    res.set('Cache-Control', 'private, no-store');
+    res.send(text);
+  });
+  return r;
+}
