@@ -9,3 +9,4 @@ export * from './version.js';
 export * from './lrfd/index.js';
 export * from './loads/index.js';
 export * from './placement/index.js';
+export * from './grillage/index.js';
