@@ -28,12 +28,8 @@
  * are exact and member end forces are exact once f_eq is subtracted.
  */
 
-/** DOFs per node. */
+/** DOFs per node, in the order w, θx, θy (global DOF of node k, component c: 3k + c). */
 export const DOF_PER_NODE = 3;
-/** Offsets of w, θx, θy within a node's DOFs. */
-export const DOF_W = 0;
-export const DOF_RX = 1;
-export const DOF_RY = 2;
 
 /**
  * Local 6×6 stiffness of a grid member in local DOFs (w_i, θξ_i, θη_i, w_j, θξ_j, θη_j),
@@ -99,13 +95,6 @@ export function gridMemberStiffness(EI: number, GJ: number, dx: number, dy: numb
 const scratchLocal = new Float64Array(36);
 const scratchTmp = new Float64Array(36);
 const scratchR = new Float64Array(9);
-
-/** Cubic Hermite shape functions on [0, 1] for (w_i, dw/dx_i, w_j, dw/dx_j); L in m. */
-export function hermite(xi: number, L: number): [number, number, number, number] {
-  const x2 = xi * xi;
-  const x3 = x2 * xi;
-  return [1 - 3 * x2 + 2 * x3, L * (xi - 2 * x2 + x3), 3 * x2 - 2 * x3, L * (x3 - x2)];
-}
 
 /**
  * Statically equivalent (consistent) nodal loads of a point action on a longitudinal member

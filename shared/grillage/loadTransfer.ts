@@ -405,6 +405,31 @@ export class LoadTransfer {
     }
   }
 
+  private breaksCache?: { xs: Float64Array; ys: Float64Array };
+
+  /**
+   * Where the transfer changes piece, for callers that sample surfaces on a grid: ys = the
+   * deck edges and every longitudinal line (across, ordinates are linear between lines when
+   * the split runs at right angles to the girders: right decks, and the perpendicular layout
+   * away from skewed supports); xs = every node station on any line and the end support
+   * lines at the deck edges (along a line, ordinates are cubic between its nodes, with the
+   * kinks and jumps of the responses at nodes). Sorted, duplicates (1e-9 m) removed.
+   */
+  breakpoints(): { xs: Float64Array; ys: Float64Array } {
+    if (this.breaksCache) return this.breaksCache;
+    const uniq = (v: number[]) => {
+      v.sort((a, b) => a - b);
+      const out: number[] = [];
+      for (const x of v) if (!out.length || x - out[out.length - 1] > 1e-9) out.push(x);
+      return Float64Array.from(out);
+    };
+    const xs = Array.from(this.xsFlat);
+    const N = this.spanCount;
+    for (const y of [this.yMin, this.yMax]) for (let j = 0; j <= N; j++) xs.push(this.A[j] + this.B[j] * y);
+    this.breaksCache = { xs: uniq(xs), ys: uniq([this.yMin, this.yMax, ...this.lineY]) };
+    return this.breaksCache;
+  }
+
   /** Whether (x, y) lies on the deck (between its edges and its end support lines). */
   onDeck(x: number, y: number): boolean {
     if (!(y >= this.yMin && y <= this.yMax)) return false;

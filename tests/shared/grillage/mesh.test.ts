@@ -1,6 +1,11 @@
+import { readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { assertDeck, DeckInputError } from '../../../shared/deck/schema.js';
 import { compositeInertia, derivedSection } from '../../../shared/deck/section.js';
-import { analyseLoads, buildGrillage, PANEL_ASPECT_LIMIT, worstPanel } from '../../../shared/grillage/index.js';
+import { deckFromDisplay } from '../../../shared/deck/units.js';
+import { analyseLoads, buildGrillage, influenceSurfaces, PANEL_ASPECT_LIMIT, worstPanel } from '../../../shared/grillage/index.js';
 import { fromUs } from '../../../shared/units.js';
 import { steelDeck } from './fixtures.js';
 
@@ -169,4 +174,31 @@ describe('simple spans and continuity', () => {
     const res = analyseLoads(model, [{ x: 10, y: model.extent.yMin + 0.1, P: 1e4 }]);
     expect(res.totalReaction).toBeRelativelyClose(1e4, 1e-10);
   });
+});
+
+describe('the example decks', () => {
+  // Every example deck either builds a grillage whose reactions balance a load, or is refused
+  // with a typed error naming the missing field (decks without a girder moment of inertia).
+  const dir = fileURLToPath(new URL('../../../public/examples/', import.meta.url));
+  for (const file of readdirSync(dir).filter((f) => f.endsWith('.deck.json'))) {
+    it(file, () => {
+      const f = JSON.parse(readFileSync(join(dir, file), 'utf8')) as { units: 'US' | 'SI'; deck: unknown };
+      const deck = assertDeck(deckFromDisplay(f.deck, f.units));
+      if (deck.section.inertia === undefined) {
+        expect(() => buildGrillage(deck)).toThrow(DeckInputError);
+        return;
+      }
+      const model = buildGrillage(deck);
+      const y = model.girderOffsets[1];
+      const x = (model.supportLineX(0, y) + model.supportLineX(1, y)) / 2;
+      expect(analyseLoads(model, [{ x, y, P: 1e5 }]).totalReaction).toBeRelativelyClose(1e5, 1e-10);
+      const [s] = influenceSurfaces(model, [{ kind: 'girder-moment', girder: 1, span: 0, fraction: 0.5 }]);
+      expect(s.at(x, y)).toBeGreaterThan(0);
+      const { xs, ys } = s.breaks;
+      expect(ys[0]).toBe(model.extent.yMin);
+      expect(ys[ys.length - 1]).toBe(model.extent.yMax);
+      expect(xs[0]).toBeCloseTo(model.extent.xMin, 9);
+      for (let k = 1; k < xs.length; k++) expect(xs[k]).toBeGreaterThan(xs[k - 1]);
+    });
+  }
 });
