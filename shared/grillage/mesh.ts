@@ -67,6 +67,9 @@ export interface MeshOptions {
 }
 
 export const MIN_EDGE_OVERHANG = 0.15;
+/** Smallest girder spacing and span length the mesher accepts, m (shorter members make the stiffness meaningless). */
+export const MIN_GIRDER_SPACING = 0.05;
+export const MIN_SPAN_LENGTH = 0.5;
 
 export interface MeshNode {
   x: number;
@@ -197,6 +200,22 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
   geom.offsets.forEach((y, g) => lineSpecs.push({ kind: 'girder', girder: g, y, label: `girder ${g + 1}` }));
   if (edgeRight) lineSpecs.push({ kind: 'edge', girder: -1, side: 'right', y: geom.deckRight, label: 'the right edge member' });
   const nL = lineSpecs.length;
+
+  // ---- members must have a length a grillage can use
+  geom.spacings.forEach((sp, k) => {
+    if (sp < MIN_GIRDER_SPACING) {
+      throw new GrillageInputError(
+        'degenerate-mesh',
+        ['girders', deck.girders.kind === 'offsets' ? 'offsets' : 'spacing', ...(deck.girders.kind === 'offsets' ? [k + 1] : [])],
+        `girders ${k + 1} and ${k + 2} are ${sp.toFixed(4)} m apart: the grillage needs at least ${MIN_GIRDER_SPACING} m between girders`,
+      );
+    }
+  });
+  spanLengths.forEach((len, j) => {
+    if (len < MIN_SPAN_LENGTH) {
+      throw new GrillageInputError('degenerate-mesh', ['spans', j, 'length'], `span ${j + 1} is ${len.toFixed(4)} m long: the grillage needs spans of at least ${MIN_SPAN_LENGTH} m`);
+    }
+  });
 
   // ---- spans must stay open along every line and at the deck edges
   const checkYs = [geom.deckLeft, ...lineSpecs.map((l) => l.y), geom.deckRight];

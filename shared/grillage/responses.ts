@@ -25,6 +25,13 @@ import type { LoadShare } from './loadTransfer.js';
 import { supportX } from './mesh.js';
 import type { GrillageModel } from './model.js';
 
+/**
+ * A girder response. Indices are 0-based: girder 0 is girder 1 (left), support 0 the first
+ * support line. `fraction` is measured along the girder's own span, from its bearing on
+ * support line `span` to its bearing on support line `span + 1` (on a skewed deck each
+ * girder's midspan lies at a different x). `side` of a shear: just before ('left', lower x)
+ * or just after ('right') the girder's bearing on support line `support`.
+ */
 export type GrillageResponse =
   | { kind: 'girder-moment'; girder: number /* 0-based */; span: number /* 0-based */; fraction: number /* 0..1 along the span */ }
   | { kind: 'girder-shear'; girder: number; support: number; side: 'left' | 'right' }

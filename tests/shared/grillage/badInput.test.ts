@@ -105,6 +105,13 @@ describe('bad input gives a typed error naming the cause', () => {
     expect((thrown(() => assembleGrid(coincident)) as GrillageInputError).code).toBe('degenerate-mesh');
     expect((thrown(() => assembleGrid({ ...coincident, members: [{ i: 0, j: 5, EI: 1, GJ: 1 }] })) as GrillageInputError).code).toBe('degenerate-mesh');
     expect((thrown(() => assembleGrid({ ...coincident, nodes: [{ x: 0, y: Number.NaN }, { x: 1, y: 1 }] })) as GrillageInputError).code).toBe('degenerate-mesh');
+    // girders a hair apart, a span a hair long
+    const close = thrown(() => buildGrillage(steelDeck({ offsetsFt: [0, 0.0001, 8, 16] }))) as GrillageInputError;
+    expect(close.code).toBe('degenerate-mesh');
+    expect(close.path).toEqual(['girders', 'offsets', 1]);
+    const short = thrown(() => buildGrillage(steelDeck({ spansFt: [60, 0.5] }))) as GrillageInputError;
+    expect(short.code).toBe('degenerate-mesh');
+    expect(short.path).toEqual(['spans', 1, 'length']);
   });
 
   it('a deck the mesher cannot build: support lines that cross, a section without I, an invalid deck', () => {
