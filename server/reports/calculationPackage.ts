@@ -12,7 +12,7 @@ import { SECTION_TYPE_DESCRIPTIONS, type Deck } from '../../shared/deck/schema.j
 import { deckGeometry } from '../../shared/deck/geometry.js';
 import type { FactorRow } from '../../shared/lrfd/index.js';
 import type { TraceStep } from '../../shared/trace.js';
-import { toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '../../shared/units.js';
+import { fromUs, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '../../shared/units.js';
 import { baseFont, heightOf, printable, registerFonts, write, type Weight } from './pdfFonts.js';
 import type { ReportData } from './reportData.js';
 
@@ -168,6 +168,7 @@ class Writer {
     this.table(['Item', 'Value'], items.map(([a, b]) => [a, b]), [labelWidth, 1 - labelWidth], { size: 8.5 });
   }
 
+  /** One trace step in two or three lines: "label: formula", the inputs, "= value [article]". */
   traceStep(s: TraceStep, indent = 10): void {
     const inputs = s.inputs
       .map((i) => {
@@ -176,17 +177,22 @@ class Writer {
         return `${i.symbol} = ${shown}${formulaUnit}`;
       })
       .join(';  ');
-    const lines = [`${s.label}`, `${s.formula}`, inputs ? `with ${inputs}` : '', `= ${qty(s.value, s.kind, this.units)}   [${s.article}]${s.note ? `   ${s.note}` : ''}`].filter(Boolean);
+    const lines: { text: string; weight: Weight; color: string }[] = [
+      { text: `${s.label}:  ${s.formula}`, weight: 'regular', color: INK },
+      ...(inputs ? [{ text: `with ${inputs}`, weight: 'regular' as Weight, color: MUTED }] : []),
+      { text: `= ${qty(s.value, s.kind, this.units)}   [${s.article}]${s.note ? `   ${s.note}` : ''}`, weight: 'bold', color: ACCENT },
+    ];
     this.doc.fontSize(8);
     const w = CONTENT_W - indent - 6;
-    const h = lines.reduce((t, l, i) => t + heightOf(this.doc, l, w, i === 0 ? 'bold' : 'regular') + 1, 0) + 4;
+    const heights = lines.map((l) => heightOf(this.doc, l.text, w, l.weight));
+    const h = heights.reduce((a, b) => a + b + 0.5, 0) + 3;
     this.need(h);
     this.doc.moveTo(PAGE.margin + indent, this.y).lineTo(PAGE.margin + indent, this.y + h - 3).lineWidth(1.2).strokeColor(LANE).stroke();
     let y = this.y;
     lines.forEach((l, i) => {
-      this.doc.fillColor(i === 3 ? ACCENT : i === 0 ? INK : MUTED).fontSize(8);
-      write(this.doc, l, PAGE.margin + indent + 6, y, { width: w, weight: i === 0 || i === 3 ? 'bold' : 'regular' });
-      y += heightOf(this.doc, l, w, i === 0 ? 'bold' : 'regular') + 1;
+      this.doc.fillColor(l.color).fontSize(8);
+      write(this.doc, l.text, PAGE.margin + indent + 6, y, { width: w, weight: l.weight });
+      y += heights[i] + 0.5;
     });
     this.y += h + 2;
   }
@@ -341,7 +347,7 @@ function drawCrossSection(w: Writer, data: ReportData, p: Drawn): void {
   // Spacing note
   doc.fillColor(MUTED);
   const spacingText = g.spacings.every((s) => Math.abs(s - g.spacings[0]) < 1e-9) ? `${g.girderCount} girders at ${qty(g.spacings[0], 'length', w.units)}` : `${g.girderCount} girders, spacings ${g.spacings.map((s) => num(toDisplay(s, 'length', w.units), 2)).join(', ')} ${unitSymbol('length', w.units)}`;
-  write(doc, `${spacingText}; roadway ${qty(g.roadwayWidth, 'length', w.units)} between barrier faces; wheel lines 6 ft apart, 2 ft from the lane edge (Art. 3.6.1.3.1); girder considered in colour.`, PAGE.margin, top + slabT + depth + 14, { size: 7, width: CONTENT_W });
+  write(doc, `${spacingText}; roadway ${qty(g.roadwayWidth, 'length', w.units)} between barrier faces; wheel lines ${w.units === 'US' ? '6 ft apart, 2 ft from the lane edge' : `${qty(fromUs.ft(6), 'length', 'SI')} (6 ft) apart, ${qty(fromUs.ft(2), 'length', 'SI')} (2 ft) from the lane edge`} (Art. 3.6.1.3.1); girder considered in colour.`, PAGE.margin, top + slabT + depth + 14, { size: 7, width: CONTENT_W });
   w.y = top + slabT + depth + 34;
 }
 
@@ -475,12 +481,21 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   // ── 3 Every factor with its trace ───────────────────────────────────────────────────
   w.heading('3  Every factor with its trace', 1, 150);
   w.text('Each factor lists the steps that produced it: the formula in the code’s notation, its inputs (in the formula’s own unit where that differs), the value and the article. * marks the adopted value of a lane case; “governing” marks the value adopted for the girder and effect.', { color: MUTED });
+  // Rows whose steps repeat an earlier row's formulas and values (e.g. a reaction worked exactly
+  // as the shear next to it) point at that row instead of repeating the steps.
+  const printed = new Map<string, string>();
   for (const r of data.code.factors) {
+    const signature = r.trace.map((t) => `${t.formula}|${t.value.toPrecision(12)}|${t.inputs.map((i) => i.value.toPrecision(12)).join(',')}`).join('#');
+    const same = printed.get(signature);
     // Keep a factor's title with its first step.
-    w.need(95);
+    w.need(same ? 30 : 80);
     w.text(`${rowTitle(r)} — g = ${factor(r.value)}${r.governing ? '  (governing)' : r.adopted ? '  *' : ''}`, { size: 9.5, weight: 'bold', gap: 2 });
-    for (const s of r.trace) w.traceStep(s);
-    for (const f of r.findings) w.text(`Finding (${f.code}): ${f.message} [${f.article}]`, { size: 8, color: WHEEL, indent: 10 });
+    if (same) w.text(`Same steps, inputs and values as: ${same}.`, { size: 8, color: MUTED, indent: 10 });
+    else {
+      printed.set(signature, rowTitle(r));
+      for (const s of r.trace) w.traceStep(s);
+    }
+    for (const f of r.findings) w.text(`Finding (${f.code}): ${f.message}${f.message.includes(f.article) ? '' : ` [${f.article}]`}`, { size: 8, color: WHEEL, indent: 10 });
     w.y += 4;
   }
 
