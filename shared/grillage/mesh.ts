@@ -156,10 +156,11 @@ interface LineSpec {
   label: string;
 }
 
-/** A node to create on one line piece; `key` ties it to a transverse line (grid line id) or a support. */
+/** A node to create on one line piece (perpendicular layout): a support node or a grid-line crossing. */
 interface PieceNode {
   x: number;
-  support: number; // support index for support nodes, −1 otherwise
+  /** Support index for a support node, −1 for a grid-line crossing. */
+  support: number;
 }
 
 const DEG = Math.PI / 180;
@@ -297,7 +298,7 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
       seg: -1,
     });
   };
-  // supportNode[l][j] = node id of line l at support j, for the span piece starting (side 1) or ending (side 0) there
+  // node id of line l at support j: supportNodeEnd for the piece of span j − 1 ending there, supportNodeStart for the piece of span j starting there (the same node when continuous)
   const supportNodeEnd: number[][] = lineSpecs.map(() => new Array<number>(N + 1).fill(-1)); // end of span j−1 at support j
   const supportNodeStart: number[][] = lineSpecs.map(() => new Array<number>(N + 1).fill(-1)); // start of span j at support j
 

@@ -24,9 +24,16 @@ export interface GrillageOptions {
   skewParallelLimit?: number;
   /** Longitudinal edge members at the deck edges: true for the default slab-edge properties, or explicit I and J (m⁴, deck concrete). Default false. */
   edgeMembers?: boolean | { inertia?: number; torsion?: number };
-  /** Multiplies the bending stiffness of transverse slab strips and diaphragms (default 1; studies such as the rigid limit). */
+  /**
+   * Multiplies the bending stiffness of transverse slab strips and diaphragms (default 1;
+   * studies such as the rigid limit). Ratios beyond ~10⁶ lose digits (ill-conditioning).
+   */
   transverseStiffnessFactor?: number;
-  /** Multiplies every St Venant torsional stiffness (default 1; 0 removes torsion). */
+  /**
+   * Multiplies every St Venant torsional stiffness (default 1; 0 removes torsion, e.g. for the
+   * rigid limit). Without torsion, girder nodes with no transverse member (the skewed end zones
+   * of a perpendicular mesh) cannot hold their twist: a GrillageMechanismError says where.
+   */
   torsionFactor?: number;
   /** Girder torsion constant J, m⁴, overriding section.torsion. */
   girderTorsion?: number;

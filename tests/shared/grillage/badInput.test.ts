@@ -48,6 +48,15 @@ describe('bad input gives a typed error naming the cause', () => {
     expect(m.message).toMatch(/is unrestrained/);
   });
 
+  it('a mechanism: torsion removed on a skewed deck leaves end-zone girder nodes free to twist', () => {
+    // perpendicular members at 40°: girder nodes in the skewed end triangles have no
+    // transverse member; without torsion nothing holds their rotation about the girder axis
+    const e = thrown(() => buildGrillage(steelDeck({ girders: 8, skew: 40, spansFt: [60, 60], continuous: true }), { torsionFactor: 0 })) as GrillageMechanismError;
+    expect(e).toBeInstanceOf(GrillageMechanismError);
+    expect(e.location.direction).toBe('rx');
+    expect(e.location.where).toMatch(/^girder \d at x = [\d.]+ m \(span \d, [\d.]+ of the span\)$/);
+  });
+
   it('a mechanism in a bare grid: a beam line free to twist names the node and the twist direction', () => {
     const def: GridDefinition = {
       nodes: [0, 1, 2, 3].map((k) => ({ x: 2 * k, y: 0 })),
