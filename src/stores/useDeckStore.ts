@@ -39,10 +39,10 @@ export interface SavedPlacements {
   vehicle: VehicleKey;
   lanes: WorkspaceLane[];
   studied: { girder: number; effect: StudyEffect };
-  /** Each girder's share (lanes per girder) for this placement, as shown when saved. */
-  shares?: { moment: number[]; shear: number[] };
-  /** Governing values per girder (grillage), as shown when saved. */
-  governing?: { moment: number[]; shear: number[] };
+  /** Each girder's share (lanes per girder) of this placement for the studied effect, as shown when saved. */
+  shares?: Partial<Record<StudyEffect, number[]>>;
+  /** Governing (grillage) values per girder of the studied vehicle, as shown when saved (null: not yet found). */
+  governing?: Partial<Record<StudyEffect, (number | null)[]>>;
 }
 
 export function isSavedPlacements(value: unknown): value is SavedPlacements {

@@ -23,7 +23,7 @@ async function mountEditor(): Promise<void> {
 }
 
 function input(key: string) {
-  const el = wrapper.find(`input[data-test="field-${key}"]`);
+  const el = wrapper.find<HTMLInputElement>(`input[data-test="field-${key}"]`);
   if (!el.exists()) throw new Error(`no input for ${key}`);
   return el;
 }
