@@ -223,8 +223,11 @@ function breakpointsOf(line: StationLine, withCrossings: boolean): Float64Array 
  * The largest Σ W_a·max(0, ℓ(x_a)) (or Σ W_a·ℓ(x_a) with `countAdverse`) over every legal
  * position of the vehicle on the line: both directions of travel unless `directions` says
  * otherwise, variable spacing searched. Exact (see the header). Ties keep the first found.
+ *
+ * This is the plain form of the search, for any vehicle; `bestVehicleOnLine` evaluates the
+ * same candidates by monotone sweeps for vehicles with at most one axle behind the gap.
  */
-export function bestVehicleOnLine(
+export function bestVehicleOnLineReference(
   line: StationLine,
   v: VehicleShape,
   directions: readonly (1 | -1)[] = [1, -1],
@@ -350,4 +353,218 @@ function spacingCandidates(X: Float64Array, v: VehicleShape, xf: number, d: numb
     }
   }
   return out;
+}
+
+/** Scratch arrays for `bestVehicleOnLine`, reused between calls (grown as needed). */
+export interface LineWorkspace {
+  capacity: number;
+  X: Float64Array;
+  acc: Float64Array;
+  tmp: Float64Array;
+  fLo: Float64Array;
+  fHi: Float64Array;
+  argX: Float64Array;
+  deque: Int32Array;
+}
+
+export function lineWorkspace(capacity = 64): LineWorkspace {
+  return {
+    capacity,
+    X: new Float64Array(capacity),
+    acc: new Float64Array(capacity),
+    tmp: new Float64Array(capacity),
+    fLo: new Float64Array(capacity),
+    fHi: new Float64Array(capacity),
+    argX: new Float64Array(capacity),
+    deque: new Int32Array(capacity),
+  };
+}
+
+/** Stations and zero crossings (when `withCrossings`) into w.X; returns their count. */
+function breakpointsInto(line: StationLine, withCrossings: boolean, w: LineWorkspace): number {
+  const X = line.xs;
+  const V = line.values;
+  const n = X.length;
+  const need = withCrossings ? 2 * n : n;
+  if (w.capacity < need) Object.assign(w, lineWorkspace(2 * need));
+  const out = w.X;
+  let m = 0;
+  out[m++] = X[0];
+  for (let j = 1; j < n; j++) {
+    if (withCrossings) {
+      const a = V[j - 1];
+      const b = V[j];
+      if ((a > 0 && b < 0) || (a < 0 && b > 0)) out[m++] = X[j - 1] + ((X[j] - X[j - 1]) * a) / (a - b);
+    }
+    out[m++] = X[j];
+  }
+  return m;
+}
+
+/**
+ * PL values of the line at X[j] + c for every j (X increasing), by one forward sweep;
+ * zero beyond the stations; the positive part when `positive`.
+ */
+function sweep(xs: Float64Array, vs: Float64Array, X: Float64Array, m: number, c: number, positive: boolean, out: Float64Array): void {
+  const n = xs.length;
+  const x0 = xs[0];
+  const xn = xs[n - 1];
+  let k = 0;
+  for (let j = 0; j < m; j++) {
+    const x = X[j] + c;
+    if (x < x0 || x > xn) {
+      out[j] = 0;
+      continue;
+    }
+    while (k < n - 2 && xs[k + 1] <= x) k++;
+    const t = (x - xs[k]) / (xs[k + 1] - xs[k]);
+    const v = vs[k] + t * (vs[k + 1] - vs[k]);
+    out[j] = positive && v < 0 ? 0 : v;
+  }
+}
+
+/**
+ * The largest Σ W_a·max(0, ℓ(x_a)) (or Σ W_a·ℓ(x_a) with `countAdverse`) over every legal
+ * position of the vehicle: exact, the same candidates as `bestVehicleOnLineReference`
+ * (header, cases A and B). For a candidate family "axle a at breakpoint j" the other axles
+ * sit at X[j] + constant, so their ordinates come from forward sweeps, and the rear axle's
+ * best ordinate over the interval its spacing sweeps comes from a sliding-window maximum
+ * over the stations. Vehicles with several axles behind the gap use the plain form.
+ */
+export function bestVehicleOnLine(
+  line: StationLine,
+  v: VehicleShape,
+  directions: readonly (1 | -1)[] = [1, -1],
+  options: { countAdverse?: boolean } = {},
+  work: LineWorkspace = lineWorkspace(),
+): LineMaximum {
+  const n = v.weights.length;
+  const g = v.gapIndex;
+  const variable = g < n;
+  if (variable && n - g !== 1) return bestVehicleOnLineReference(line, v, directions, options);
+  const positive = options.countAdverse !== true;
+  const xs = line.xs;
+  const vs = line.values;
+  const ns = xs.length;
+  const m = breakpointsInto(line, positive, work);
+  if (work.capacity < ns) Object.assign(work, lineWorkspace(2 * ns));
+  const { X, acc, tmp, fLo, fHi, argX, deque } = work;
+  const W = v.weights;
+  const P = v.basePositions;
+  const lo = line.xMin - TOL;
+  const hi = line.xMax + TOL;
+  let bestV = -Infinity;
+  let bestXf = NaN;
+  let bestD: 1 | -1 = 1;
+  let bestS = v.sMin;
+  const onDeckAny = (xf: number, d: number, s: number): boolean => {
+    const ds = s - v.sMin;
+    for (let a = 0; a < n; a++) {
+      const x = xf - d * (P[a] + (a >= g ? ds : 0));
+      if (x >= lo && x <= hi) return true;
+    }
+    return false;
+  };
+  const ahead = variable ? g : n;
+  for (const d of directions) {
+    // (A) axle a (ahead of the gap, or any axle) at breakpoint j.
+    for (let a = 0; a < ahead; a++) {
+      for (let j = 0; j < m; j++) acc[j] = 0;
+      for (let b = 0; b < ahead; b++) {
+        sweep(xs, vs, X, m, d * (P[a] - P[b]), positive, tmp);
+        const w = W[b];
+        for (let j = 0; j < m; j++) acc[j] += w * tmp[j];
+      }
+      if (variable) {
+        // rear axle r = g: at spacing s its x is X[j] + c0 − d·(s − sMin)
+        const c0 = d * (P[a] - P[g]);
+        const c1 = c0 - d * (v.sMax - v.sMin);
+        const cl = Math.min(c0, c1);
+        const ch = Math.max(c0, c1);
+        sweep(xs, vs, X, m, cl, positive, fLo);
+        sweep(xs, vs, X, m, ch, positive, fHi);
+        // sliding maximum of station ordinates strictly inside (X[j] + cl, X[j] + ch)
+        let head = 0;
+        let tail = 0;
+        let enter = 0;
+        for (let j = 0; j < m; j++) {
+          const wl = X[j] + cl;
+          const wh = X[j] + ch;
+          while (enter < ns && xs[enter] < wh) {
+            const val = positive && vs[enter] < 0 ? 0 : vs[enter];
+            while (tail > head && (positive && vs[deque[tail - 1]] < 0 ? 0 : vs[deque[tail - 1]]) <= val) tail--;
+            deque[tail++] = enter;
+            enter++;
+          }
+          while (tail > head && xs[deque[head]] <= wl) head++;
+          let best = fLo[j];
+          let bx = wl;
+          if (fHi[j] > best) {
+            best = fHi[j];
+            bx = wh;
+          }
+          if (tail > head) {
+            const k = deque[head];
+            const val = positive && vs[k] < 0 ? 0 : vs[k];
+            if (val > best) {
+              best = val;
+              bx = xs[k];
+            }
+          }
+          tmp[j] = best;
+          argX[j] = bx;
+        }
+        const wr = W[g];
+        for (let j = 0; j < m; j++) {
+          const total = acc[j] + wr * tmp[j];
+          if (!(total > bestV)) continue;
+          const xf = X[j] + d * P[a];
+          // position at sMin is X[j] + c0; x = X[j] + c0 − d·(s − sMin)
+          let s = v.sMin + d * (X[j] + c0 - argX[j]);
+          s = s < v.sMin ? v.sMin : s > v.sMax ? v.sMax : s;
+          if (positive && tmp[j] <= 0) s = v.sMin;
+          if (!(X[j] >= lo && X[j] <= hi) && !onDeckAny(xf, d, s)) continue;
+          bestV = total;
+          bestXf = xf;
+          bestD = d;
+          bestS = s;
+        }
+      } else {
+        for (let j = 0; j < m; j++) {
+          if (!(acc[j] > bestV)) continue;
+          const xf = X[j] + d * P[a];
+          if (!(X[j] >= lo && X[j] <= hi) && !onDeckAny(xf, d, 0)) continue;
+          bestV = acc[j];
+          bestXf = xf;
+          bestD = d;
+        }
+      }
+    }
+    // (B) the rear axle at breakpoint j with the spacing at a bound.
+    if (variable) {
+      for (const s of [v.sMin, v.sMax]) {
+        sweep(xs, vs, X, m, 0, positive, acc);
+        const wr = W[g];
+        for (let j = 0; j < m; j++) acc[j] *= wr;
+        for (let b = 0; b < g; b++) {
+          sweep(xs, vs, X, m, d * (P[g] + s - v.sMin - P[b]), positive, tmp);
+          const w = W[b];
+          for (let j = 0; j < m; j++) acc[j] += w * tmp[j];
+        }
+        for (let j = 0; j < m; j++) {
+          if (!(acc[j] > bestV)) continue;
+          const xf = X[j] + d * (P[g] + s - v.sMin);
+          if (!(X[j] >= lo && X[j] <= hi) && !onDeckAny(xf, d, s)) continue;
+          bestV = acc[j];
+          bestXf = xf;
+          bestD = d;
+          bestS = s;
+        }
+      }
+    }
+  }
+  if (!Number.isFinite(bestV)) {
+    throw new PlacementError([{ path: ['line'], message: 'no legal position of the vehicle was found on the line' }]);
+  }
+  return variable ? { value: bestV, frontAxleAt: bestXf, direction: bestD, axleSpacing: bestS } : { value: bestV, frontAxleAt: bestXf, direction: bestD };
 }

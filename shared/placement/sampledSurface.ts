@@ -38,6 +38,12 @@ export interface SampledSurface extends SurfaceLike {
   maxOrdinate: number;
   /** The surface sampled (results are evaluated on it). */
   source: SurfaceLike;
+  /**
+   * Per station xs[i], a bound of |surface − representation| over the cells next to it, as
+   * measured (absent when not measured). The search uses it, linear between stations, to
+   * bound what a placement could gain on the surface itself (search.ts).
+   */
+  errorEnvelope?: Float64Array;
 }
 
 function sortedUnique(values: ArrayLike<number>, lo: number, hi: number, what: string): Float64Array {
@@ -90,6 +96,63 @@ export function sampleSurface(
   }
   const xs = sortedUnique(stations.xs, e.xMin, e.xMax, 'x');
   const ys = sortedUnique(stations.ys, e.yMin, e.yMax, 'y');
+  const ny = ys.length;
+  const values = new Float64Array(xs.length * ny);
+  for (let i = 0; i < xs.length; i++) for (let j = 0; j < ny; j++) values[i * ny + j] = surface.at(xs[i], ys[j]);
+  if (!options.measure) return sampledFromGrid(surface, xs, ys, values);
+  const points = checkPoints(xs, ys);
+  const truth = new Float64Array(points.x.length);
+  for (let k = 0; k < truth.length; k++) truth[k] = surface.at(points.x[k], points.y[k]);
+  return sampledFromGrid(surface, xs, ys, values, { points, values: truth });
+}
+
+/** Cells narrower than this (m) are the steps of a jump (see refinedFactors.ts) and are not checked. */
+export const JUMP_CELL = 1e-5;
+
+/** Points where the representation is checked: cell midpoints and edge midpoints of the grid. */
+export interface CheckPoints {
+  x: Float64Array;
+  y: Float64Array;
+  /** Station index i whose envelope each point feeds (its x-cell's left station, or its own column). */
+  column: Int32Array;
+  /** Whether the point is inside an x-cell (feeds stations i and i+1) or on column i. */
+  inCell: Uint8Array;
+}
+
+export function checkPoints(xs: Float64Array, ys: Float64Array): CheckPoints {
+  const px: number[] = [];
+  const py: number[] = [];
+  const col: number[] = [];
+  const inc: number[] = [];
+  const nx = xs.length;
+  const ny = ys.length;
+  for (let i = 0; i < nx; i++) {
+    const cellOk = i < nx - 1 && xs[i + 1] - xs[i] > JUMP_CELL;
+    const xm = cellOk ? (xs[i] + xs[i + 1]) / 2 : NaN;
+    for (let j = 0; j < ny; j++) {
+      const ym = j < ny - 1 ? (ys[j] + ys[j + 1]) / 2 : NaN;
+      if (cellOk) {
+        px.push(xm), py.push(ys[j]), col.push(i), inc.push(1);
+        if (j < ny - 1) px.push(xm), py.push(ym), col.push(i), inc.push(1);
+      }
+      if (j < ny - 1) px.push(xs[i]), py.push(ym), col.push(i), inc.push(0);
+    }
+  }
+  return { x: Float64Array.from(px), y: Float64Array.from(py), column: Int32Array.from(col), inCell: Uint8Array.from(inc) };
+}
+
+/**
+ * A sampled surface from ordinates already computed on the grid (values[i·ys.length + j] at
+ * (xs[i], ys[j]), row-major by x), and, when given, the surface's ordinates at `check`
+ * points to measure the representation error and its envelope.
+ */
+export function sampledFromGrid(
+  source: SurfaceLike,
+  xs: Float64Array,
+  ys: Float64Array,
+  values: Float64Array,
+  check?: { points: CheckPoints; values: Float64Array },
+): SampledSurface {
   const nx = xs.length;
   const ny = ys.length;
   const rows: Float64Array[] = [];
@@ -97,10 +160,8 @@ export function sampleSurface(
   for (let j = 0; j < ny; j++) {
     const r = new Float64Array(nx);
     for (let i = 0; i < nx; i++) {
-      const v = surface.at(xs[i], ys[j]);
-      if (!Number.isFinite(v)) {
-        throw new PlacementError([{ path: ['surface'], message: `the surface's ordinate at x = ${xs[i]} m, y = ${ys[j]} m is not finite` }]);
-      }
+      const v = values[i * ny + j];
+      if (!Number.isFinite(v)) throw new PlacementError([{ path: ['surface'], message: `the surface's ordinate at x = ${xs[i]} m, y = ${ys[j]} m is not finite` }]);
       r[i] = v;
       if (Math.abs(v) > maxOrd) maxOrd = Math.abs(v);
     }
@@ -112,36 +173,34 @@ export function sampleSurface(
     const j = cellIndex(ys, y);
     const tx = (x - xs[i]) / (xs[i + 1] - xs[i]);
     const ty = (y - ys[j]) / (ys[j + 1] - ys[j]);
-    const r0 = rows[j];
-    const r1 = rows[j + 1];
-    const a = r0[i] + tx * (r0[i + 1] - r0[i]);
-    const b = r1[i] + tx * (r1[i + 1] - r1[i]);
+    const a = rows[j][i] + tx * (rows[j][i + 1] - rows[j][i]);
+    const b = rows[j + 1][i] + tx * (rows[j + 1][i + 1] - rows[j + 1][i]);
     return a + ty * (b - a);
   };
   let err = 0;
-  if (options.measure) {
-    for (let j = 0; j < ny; j++) {
-      for (let i = 0; i < nx; i++) {
-        const pts: [number, number][] = [];
-        if (i < nx - 1) pts.push([(xs[i] + xs[i + 1]) / 2, ys[j]]);
-        if (j < ny - 1) pts.push([xs[i], (ys[j] + ys[j + 1]) / 2]);
-        if (i < nx - 1 && j < ny - 1) pts.push([(xs[i] + xs[i + 1]) / 2, (ys[j] + ys[j + 1]) / 2]);
-        for (const [x, y] of pts) {
-          const d = Math.abs(surface.at(x, y) - interp(x, y));
-          if (d > err) err = d;
-        }
-      }
+  let envelope: Float64Array | undefined;
+  if (check) {
+    envelope = new Float64Array(nx);
+    const p = check.points;
+    for (let k = 0; k < p.x.length; k++) {
+      const d = Math.abs(check.values[k] - interp(p.x[k], p.y[k]));
+      if (d > err) err = d;
+      const i = p.column[k];
+      if (d > envelope[i]) envelope[i] = d;
+      if (p.inCell[k] && d > envelope[i + 1]) envelope[i + 1] = d;
     }
   }
-  return {
+  const out: SampledSurface = {
     at: interp,
-    extent: { ...e },
+    extent: { ...source.extent },
     xs,
     ys,
     rows,
     representationError: err,
-    representationMeasured: !!options.measure,
+    representationMeasured: !!check,
     maxOrdinate: maxOrd,
-    source: surface,
+    source,
   };
+  if (envelope) out.errorEnvelope = envelope;
+  return out;
 }

@@ -13,7 +13,11 @@
  * station grid, see sampledSurface.ts); against the surface itself no legal placement exceeds
  * the reported effect by more than 2·m·k·ΣW·ε, ε the representation error (zero when the
  * surface is bilinear on the grid), plus the end-ramp allowance of longitudinal.ts
- * (ΣW·|end ordinate| at 1 µm, negligible). `tolerance.absolute` reports the bound.
+ * (ΣW·|end ordinate| at 1 µm, negligible). When the sample carries a measured error
+ * envelope E(x) (sampledSurface.ts), the bound is tightened by a second exact search on the
+ * sample raised by E: every axle's share on the surface is at most its share on the raised
+ * sample (in the sense sought, and so is its positive part), so that search's optimum bounds
+ * every legal placement on the surface. `tolerance.absolute` reports the bound.
  *
  * ─── Proof ────────────────────────────────────────────────────────────────────────────
  * Notation: lane i has left edge p_i ∈ [L0, R0] (L0 the left curb face, R0 the right curb
@@ -60,7 +64,7 @@
  */
 import type { Vehicle } from '../loads/vehicles.js';
 import { evaluateSurface, evaluateTransverse, type PlacementEffect, type Sense } from './evaluate.js';
-import { RAMP, bestVehicleOnLine, vehicleShape, withLocator, type StationLine, type LongitudinalPosition } from './longitudinal.js';
+import { RAMP, bestVehicleOnLine, lineWorkspace, vehicleShape, withLocator, type LongitudinalPosition, type StationLine, type VehicleShape } from './longitudinal.js';
 import {
   PlacementError,
   RULE_TOLERANCE,
@@ -118,6 +122,8 @@ interface LaneObjective<D> {
   breakpoints: ArrayLike<number>;
   /** Exact H(u) (to be maximised) and what achieves it. */
   evaluate(u: number): { value: number; detail: D };
+  /** A cheap upper bound of H(u) (optional; H is then evaluated at a point of T only when needed). */
+  bound?(u: number): number;
 }
 
 interface LaneChoice<D> {
@@ -175,9 +181,24 @@ function searchLaneSets<D>(rules: PlacementRules, objective: LaneObjective<D>, l
     }
     return r;
   };
-  const HT = T.map((t) => H(t).value);
+  // H at the points of T: an upper bound first (objective.bound), made exact when needed.
+  const HT = new Float64Array(T.length);
+  const HTexact = new Uint8Array(T.length);
+  for (let j = 0; j < T.length; j++) {
+    if (objective.bound) HT[j] = objective.bound(T[j]);
+    else {
+      HT[j] = H(T[j]).value;
+      HTexact[j] = 1;
+    }
+  }
+  const exactT = (j: number) => {
+    if (!HTexact[j]) {
+      HT[j] = H(T[j]).value;
+      HTexact[j] = 1;
+    }
+  };
 
-  // Chord upper bound of H at u (convex between points of T).
+  // Chord upper bound of H at u (convex between points of T; HT bounds H at those points).
   const chord = (u: number): number => {
     if (u <= T[0]) return HT[0];
     if (u >= T[T.length - 1]) return HT[T.length - 1];
@@ -221,31 +242,37 @@ function searchLaneSets<D>(rules: PlacementRules, objective: LaneObjective<D>, l
   // Windows and bounds (step 5).
   const alpha = new Float64Array(M);
   const beta = new Float64Array(M);
+  const tFirst = new Int32Array(M);
+  const tEnd = new Int32Array(M);
   const val = new Float64Array(M);
   const exact = new Uint8Array(M);
   const bestWheel = new Float64Array(M);
-  const interior = new Float64Array(M);
-  const interiorAt = new Float64Array(M);
   for (let i = 0; i < M; i++) {
     const r = wheelOffsetRange(rules, S[i]);
     alpha[i] = S[i] + r.min;
     beta[i] = S[i] + r.max;
-    let best = -Infinity;
-    let at = NaN;
-    for (let j = firstAtLeast(alpha[i] - 1e-12); j < T.length && T[j] <= beta[i] + 1e-12; j++) {
-      if (HT[j] > best) {
-        best = HT[j];
-        at = T[j];
-      }
-    }
-    interior[i] = best;
-    interiorAt[i] = at;
-    val[i] = Math.max(chord(alpha[i]), chord(beta[i]), best);
+    tFirst[i] = firstAtLeast(alpha[i] - 1e-12);
+    let j = tFirst[i];
+    while (j < T.length && T[j] <= beta[i] + 1e-12) j++;
+    tEnd[i] = j;
   }
+  const boundLane = (i: number) => {
+    let best = Math.max(chord(alpha[i]), chord(beta[i]));
+    for (let j = tFirst[i]; j < tEnd[i]; j++) if (HT[j] > best) best = HT[j];
+    val[i] = best;
+  };
+  for (let i = 0; i < M; i++) boundLane(i);
   let exactLanes = 0;
   const exactLane = (i: number) => {
-    let best = interior[i];
-    let u = interiorAt[i];
+    let best = -Infinity;
+    let u = NaN;
+    for (let j = tFirst[i]; j < tEnd[i]; j++) {
+      exactT(j);
+      if (HT[j] > best) {
+        best = HT[j];
+        u = T[j];
+      }
+    }
     const ha = H(alpha[i]).value;
     if (ha > best || !Number.isFinite(best)) {
       best = ha;
@@ -345,6 +372,8 @@ function searchLaneSets<D>(rules: PlacementRules, objective: LaneObjective<D>, l
       else refine.push(...open);
     }
     for (const i of new Set(refine)) exactLane(i);
+    // Points of T made exact tighten the bounds of the other lanes.
+    for (let i = 0; i < M; i++) if (!exact[i]) boundLane(i);
   }
   const results: LaneSetResult<D>[] = laneCounts.map((k) => {
     const r = done.get(k)!;
@@ -409,6 +438,73 @@ export interface SurfaceSearchOptions extends SearchOptions {
   source?: SurfaceLike;
   /** Directions of travel to search (default both). */
   directions?: (1 | -1)[];
+  /**
+   * When the sample carries an error envelope and the plain bound 2·m·k·ΣW·ε exceeds this
+   * fraction of the effect, search the sample raised by the envelope as well, for a tighter
+   * bound (default 0.001).
+   */
+  tightenAbove?: number;
+}
+
+/** Steps 1–5 on a sample: the best lane sets per lane count, totals in the maximised sense (m not applied). */
+function searchSample(
+  xs: Float64Array,
+  ys: Float64Array,
+  rows: Float64Array[],
+  extent: { xMin: number; xMax: number },
+  rules: PlacementRules,
+  shape: VehicleShape,
+  sgn: number,
+  counts: number[],
+  directions: (1 | -1)[],
+) {
+  const G = rules.gauge;
+  const nx = xs.length;
+  // Stations with a ramp to zero just beyond each end (longitudinal.ts).
+  const X = new Float64Array(nx + 2);
+  X[0] = xs[0] - RAMP;
+  X.set(xs, 1);
+  X[nx + 1] = xs[nx - 1] + RAMP;
+  const template: StationLine = withLocator(X, new Float64Array(nx + 2), extent.xMin, extent.xMax);
+  const V = new Float64Array(nx + 2);
+  const line: StationLine = { ...template, values: V };
+  const workspace = lineWorkspace(2 * (nx + 2));
+  const h = 0.5 * sgn;
+  const weights = (y: number): [number, number, number] => {
+    const j = cellIndex(ys, y);
+    const t = (y - ys[j]) / (ys[j + 1] - ys[j]);
+    return [j, 1 - t, t];
+  };
+  /** V ← sense × ½(η(·, u) + η(·, u + gauge)) at the stations. */
+  const fill = (u: number) => {
+    const [j1, a1, b1] = weights(u);
+    const [j2, a2, b2] = weights(u + G);
+    const r1 = rows[j1];
+    const s1 = rows[j1 + 1];
+    const r2 = rows[j2];
+    const s2 = rows[j2 + 1];
+    for (let i = 0; i < nx; i++) V[i + 1] = h * (a1 * r1[i] + b1 * s1[i] + a2 * r2[i] + b2 * s2[i]);
+  };
+  const bp: number[] = [];
+  for (const y of ys) bp.push(y, y - G);
+  const objective: LaneObjective<LongitudinalPosition> = {
+    breakpoints: bp,
+    evaluate: (u) => {
+      fill(u);
+      const best = bestVehicleOnLine(line, shape, directions, {}, workspace);
+      const detail: LongitudinalPosition = { frontAxleAt: best.frontAxleAt, direction: best.direction };
+      if (best.axleSpacing !== undefined) detail.axleSpacing = best.axleSpacing;
+      return { value: best.value, detail };
+    },
+    // Every axle at the line's largest (positive) ordinate: an upper bound of H(u).
+    bound: (u) => {
+      fill(u);
+      let mx = 0;
+      for (let i = 1; i <= nx; i++) if (V[i] > mx) mx = V[i];
+      return shape.totalWeight * mx;
+    },
+  };
+  return searchLaneSets(rules, objective, counts);
 }
 
 /**
@@ -429,59 +525,46 @@ export function governingSurfacePlacement(
     throw new PlacementError([{ path: ['surface', 'extent'], message: 'the influence surface must cover the roadway from curb face to curb face' }]);
   }
   const shape = vehicleShape(vehicle);
-  const G = rules.gauge;
-  const nx = xs.length;
-  // Stations with a ramp to zero just beyond each end (longitudinal.ts).
-  const X = new Float64Array(nx + 2);
-  X[0] = xs[0] - RAMP;
-  X.set(xs, 1);
-  X[nx + 1] = xs[nx - 1] + RAMP;
-  const template: StationLine = withLocator(X, new Float64Array(nx + 2), surface.extent.xMin, surface.extent.xMax);
-  const weights = (y: number): [number, number, number] => {
-    const j = cellIndex(ys, y);
-    const t = (y - ys[j]) / (ys[j + 1] - ys[j]);
-    return [j, 1 - t, t];
-  };
-  const objective: LaneObjective<LongitudinalPosition> = {
-    breakpoints: (() => {
-      const bp: number[] = [];
-      for (const y of ys) bp.push(y, y - G);
-      return bp;
-    })(),
-    evaluate: (u) => {
-      const [j1, a1, b1] = weights(u);
-      const [j2, a2, b2] = weights(u + G);
-      const r1 = rows[j1];
-      const s1 = rows[j1 + 1];
-      const r2 = rows[j2];
-      const s2 = rows[j2 + 1];
-      const V = new Float64Array(nx + 2);
-      const h = 0.5 * sgn;
-      for (let i = 0; i < nx; i++) V[i + 1] = h * (a1 * r1[i] + b1 * s1[i] + a2 * r2[i] + b2 * s2[i]);
-      const line: StationLine = { ...template, values: V };
-      const best = bestVehicleOnLine(line, shape, options.directions ?? [1, -1]);
-      const detail: LongitudinalPosition = { frontAxleAt: best.frontAxleAt, direction: best.direction };
-      if (best.axleSpacing !== undefined) detail.axleSpacing = best.axleSpacing;
-      return { value: best.value, detail };
-    },
-  };
-  const { results, work } = searchLaneSets(rules, objective, counts);
+  const directions = options.directions ?? [1, -1];
+  const { results, work } = searchSample(xs, ys, rows, surface.extent, rules, shape, sgn, counts, directions);
   const source = options.source ?? surface.source;
   const eps = surface.representationError;
-  let bound = 0;
   const byLaneCount = results.map((r): LaneCountResult => {
     const placement: Placement = { lanes: r.lanes.map((c) => ({ ...toLane(rules, c), ...c.detail })) };
     const effect = evaluateSurface(source, placement, rules, vehicle, { multiplePresence: options.multiplePresence, sense });
-    bound = Math.max(bound, 2 * effect.multiplePresence * r.k * shape.totalWeight * eps);
     return { loadedLanes: r.k, multiplePresence: effect.multiplePresence, value: effect.value, placement, effect };
   });
   const g = pickGoverning(sense, byLaneCount);
+  // Per lane count: what a legal placement on the surface could add beyond the one found.
+  const gaps = byLaneCount.map((r) => 2 * r.multiplePresence * r.loadedLanes * shape.totalWeight * eps);
+  let method = 'plain';
+  const env = surface.errorEnvelope;
+  if (env && eps > 0 && Math.max(...gaps) > (options.tightenAbove ?? 0.001) * Math.abs(g.value)) {
+    // Search the sample raised by the envelope: an upper bound of every placement on the surface.
+    const raised = rows.map((row) => row.map((v, i) => v + sgn * env[i]));
+    const upper = searchSample(xs, ys, raised, surface.extent, rules, shape, sgn, counts, directions);
+    work.wheelLineEvaluations += upper.work.wheelLineEvaluations;
+    work.exactLanes += upper.work.exactLanes;
+    upper.results.forEach((u, i) => {
+      const r = byLaneCount[i];
+      const gap = Math.max(0, r.multiplePresence * u.total - sgn * r.value);
+      if (gap < gaps[i]) {
+        gaps[i] = gap;
+        method = 'raised';
+      }
+    });
+  }
+  let top = -Infinity;
+  byLaneCount.forEach((r, i) => (top = Math.max(top, sgn * r.value + gaps[i])));
+  const bound = Math.max(0, top - sgn * g.value);
   const text =
     eps === 0
       ? surface.representationMeasured
         ? 'exact: the surface equals its sampled representation at every point checked (bilinear on the station grid)'
         : 'exact for the sampled representation (bilinear on the station grid); the representation error was not measured'
-      : `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (2·m·k·ΣW·ε, ε = ${eps.toPrecision(3)} per unit force)`;
+      : method === 'raised'
+        ? `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (search of the sample raised by its measured error envelope)`
+        : `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (2·m·k·ΣW·ε, ε = ${eps.toPrecision(3)} per unit force)`;
   return {
     ...g,
     sense,
