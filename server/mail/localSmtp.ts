@@ -83,12 +83,12 @@ export function startLocalSmtp(o: LocalSmtpOptions): Promise<LocalSmtp> {
         });
     },
   });
-  server.on('error', (e) => log(`local SMTP: ${e.message}`));
   return new Promise((resolve, reject) => {
     const onError = (e: Error) => reject(new Error(`the local SMTP service could not listen on ${host}:${o.port ?? 0}: ${e.message}`));
     server.server.once('error', onError);
     server.listen(o.port ?? 0, host, () => {
       server.server.off('error', onError);
+      server.on('error', (e) => log(`local SMTP: ${e.message}`));
       const port = (server.server.address() as AddressInfo).port;
       resolve({
         host,

@@ -46,7 +46,14 @@ export async function startMail(db: Db, source: NodeJS.ProcessEnv, log: (line: s
   if (env.NODE_ENV === 'production') {
     return { mailer: disabledMailer(log, 'SMTP_URL is not set'), local: null, close: async () => {} };
   }
-  const local = await startLocalSmtp({ db, port: env.LOCAL_SMTP_PORT, log });
+  // The default port may be taken (another Deckshare on this machine): then any free port
+  // will do, since only this process sends to it. A port set on purpose must be free.
+  const explicit = source.LOCAL_SMTP_PORT !== undefined && source.LOCAL_SMTP_PORT !== '';
+  const local = await startLocalSmtp({ db, port: env.LOCAL_SMTP_PORT, log }).catch((e: unknown) => {
+    if (explicit || !/EADDRINUSE/.test(String(e))) throw e;
+    log(`local SMTP: port ${env.LOCAL_SMTP_PORT} is in use; using a free port instead`);
+    return startLocalSmtp({ db, port: 0, log });
+  });
   const mailer = createSmtpMailer({ host: local.host, port: local.port, from: env.MAIL_FROM, tagMessages: true, log });
   return {
     mailer,

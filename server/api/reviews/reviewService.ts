@@ -171,11 +171,12 @@ function presentRound(db: Db, actor: Actor, r: ReviewRoundRow) {
     id: r.id,
     state: r.state,
     stateLabel: STATE_WORDS[r.state],
-    project: { id: row.p.id, name: row.p.name },
+    project: { id: row.p.id, name: row.p.name, units: row.p.units },
     deck: { id: row.d.id, name: row.d.name },
     version: {
       id: row.v.id,
       number: row.v.number,
+      girderCount: girderCountOf(row.v),
       message: row.v.message,
       createdAt: row.v.createdAt,
       createdBy: { id: author.id, name: author.name },

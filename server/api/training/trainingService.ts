@@ -77,7 +77,7 @@ function presentAssignment(db: Db, a: AssignmentRow, withAnswer: boolean) {
     tolerancePercent: a.tolerancePercent,
     dueAt: a.dueAt,
     overdue: new Date(a.dueAt) < new Date(),
-    project: { id: row.p.id, name: row.p.name },
+    project: { id: row.p.id, name: row.p.name, units: row.p.units },
     deck: { id: row.d.id, name: row.d.name },
     version: { id: row.v.id, number: row.v.number },
     createdBy: { id: creator.id, name: creator.name },
