@@ -83,12 +83,17 @@ export function startLocalSmtp(o: LocalSmtpOptions): Promise<LocalSmtp> {
         });
     },
   });
+  let listening = false;
+  // Errors before listening reject the start below; later ones are logged.
+  server.on('error', (e) => {
+    if (listening) log(`local SMTP: ${e.message}`);
+  });
   return new Promise((resolve, reject) => {
     const onError = (e: Error) => reject(new Error(`the local SMTP service could not listen on ${host}:${o.port ?? 0}: ${e.message}`));
     server.server.once('error', onError);
     server.listen(o.port ?? 0, host, () => {
       server.server.off('error', onError);
-      server.on('error', (e) => log(`local SMTP: ${e.message}`));
+      listening = true;
       const port = (server.server.address() as AddressInfo).port;
       resolve({
         host,
