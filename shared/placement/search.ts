@@ -68,6 +68,7 @@ import { RAMP, bestVehicleOnLine, lineWorkspace, vehicleShape, withLocator, type
 import {
   PlacementError,
   RULE_TOLERANCE,
+  checkPlacement,
   laneLeftMax,
   laneLeftMin,
   wheelOffsetRange,
@@ -508,6 +509,27 @@ function searchSample(
 }
 
 /**
+ * An axle the search puts exactly on a station can land a rounding error to the wrong side of
+ * a jump of the surface (a deck end, a shear's support) when its x is recomputed from the
+ * front axle. Keep the lane's best of its front-axle position moved by 0, ±1 nm and ±0.1 µm.
+ */
+function nudged(source: SurfaceLike, lane: LanePlacement, rules: PlacementRules, vehicle: Vehicle, sense: Sense): LanePlacement {
+  const sgn = sense === 'positive' ? 1 : -1;
+  let best = lane;
+  let bestV = -Infinity;
+  for (const d of [0, 1e-9, -1e-9, 1e-7, -1e-7]) {
+    const trial = { ...lane, frontAxleAt: (lane.frontAxleAt as number) + d };
+    if (checkPlacement({ lanes: [trial] }, rules, { vehicle, extent: source.extent }).length) continue;
+    const v = sgn * evaluateSurface(source, { lanes: [trial] }, rules, vehicle, { multiplePresence: false, sense, check: false }).value;
+    if (v > bestV) {
+      bestV = v;
+      best = trial;
+    }
+  }
+  return best;
+}
+
+/**
  * Governing placement of `vehicle` in 1..NL lanes on a sampled influence surface: exact on the
  * sample, within `tolerance.absolute` of the best legal placement on the surface itself.
  */
@@ -530,7 +552,7 @@ export function governingSurfacePlacement(
   const source = options.source ?? surface.source;
   const eps = surface.representationError;
   const byLaneCount = results.map((r): LaneCountResult => {
-    const placement: Placement = { lanes: r.lanes.map((c) => ({ ...toLane(rules, c), ...c.detail })) };
+    const placement: Placement = { lanes: r.lanes.map((c) => nudged(source, { ...toLane(rules, c), ...c.detail }, rules, vehicle, sense)) };
     const effect = evaluateSurface(source, placement, rules, vehicle, { multiplePresence: options.multiplePresence, sense });
     return { loadedLanes: r.k, multiplePresence: effect.multiplePresence, value: effect.value, placement, effect };
   });

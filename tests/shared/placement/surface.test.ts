@@ -199,3 +199,24 @@ describe('smooth surface: within the stated bound', () => {
     expect(bound / g.value).toBeLessThan(0.01);
   }, 60000);
 });
+
+describe('jumps of the surface at the deck end', () => {
+  it('an axle the search puts on the end station stays on the deck, so the surface gives what the sample gives', () => {
+    // Only the far corner ordinate is non-zero: the best is a 32 kip axle exactly at x = L (hand reasoning).
+    const L = ft(42.2);
+    const xs = [0, L / 5, (2 * L) / 5, (3 * L) / 5, (4 * L) / 5, L];
+    const ys = [-ft(1.5), ft(15.5)];
+    const table = [xs.map(() => 0), xs.map((_, i) => (i === 5 ? 1 : 0))];
+    const src = gridSurface(xs, ys, table);
+    const rules = placementRules({ curbLeft: 0, curbRight: ft(14) });
+    const g = governingSurfacePlacement(sampleSurface(src, { xs, ys }), rules, DESIGN_TRUCK, { laneCounts: [1] });
+    // wheels as far right as allowed: lane at 2 ft to 14 ft, left wheel 4 ft into it (y = 6 ft), right wheel at 12 ft;
+    // only that one 32 kip axle sees a non-zero ordinate (the others are 14 ft away, beyond the last cell).
+    const yl = ft(6);
+    const yr = ft(12);
+    const ty = (y: number) => (y - ys[0]) / (ys[1] - ys[0]);
+    const expected = 1.2 * fromUs.kip(32) * 0.5 * (ty(yl) + ty(yr));
+    expect(g.value).toBeRelativelyClose(expected, 1e-6);
+  });
+});
+
