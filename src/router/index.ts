@@ -50,6 +50,58 @@ export const routes: RouteRecordRaw[] = [
     props: (route) => ({ deckId: Number(route.params.deckId), versionNumber: Number(route.params.versionNumber) }),
     meta: { title: 'Deck version' },
   },
+  // Review, training and mail screens.
+  {
+    path: '/reviews',
+    name: 'reviews',
+    component: () => import('@/views/ReviewsView.vue'),
+    meta: { title: 'Reviews', roles: ['admin', 'designer', 'reviewer', 'instructor'] },
+  },
+  {
+    path: '/reviews/new',
+    name: 'review-submit',
+    component: () => import('@/views/ReviewSubmitView.vue'),
+    meta: { title: 'Submit for review', roles: ['admin', 'designer'] },
+  },
+  {
+    path: '/reviews/:reviewId(\\d+)',
+    name: 'review',
+    component: () => import('@/views/ReviewView.vue'),
+    props: (route) => ({ reviewId: Number(route.params.reviewId) }),
+    meta: { title: 'Review', roles: ['admin', 'designer', 'reviewer', 'instructor'] },
+  },
+  {
+    path: '/training',
+    name: 'training',
+    component: () => import('@/views/TrainingView.vue'),
+    meta: { title: 'Training', roles: ['instructor', 'trainee'] },
+  },
+  {
+    path: '/training/new',
+    name: 'training-new',
+    component: () => import('@/views/TrainingNewView.vue'),
+    meta: { title: 'New exercise', roles: ['instructor'] },
+  },
+  {
+    path: '/training/:exerciseId(\\d+)',
+    name: 'training-exercise',
+    component: () => import('@/views/TrainingExerciseView.vue'),
+    props: (route) => ({ exerciseId: Number(route.params.exerciseId) }),
+    meta: { title: 'Exercise', roles: ['instructor', 'trainee'] },
+  },
+  {
+    path: '/mail',
+    name: 'mail',
+    component: () => import('@/views/OutboxView.vue'),
+    meta: { title: 'Mail', roles: ['admin'] },
+  },
+  {
+    path: '/set-password/:token',
+    name: 'set-password',
+    component: () => import('@/views/SetPasswordView.vue'),
+    props: (route) => ({ token: String(route.params.token) }),
+    meta: { public: true, title: 'Choose your password' },
+  },
   {
     path: '/admin/users',
     name: 'admin-users',

@@ -1,0 +1,171 @@
+/** Review rounds of deck versions (see server/api/reviews): submit, comment, decide, withdraw. */
+import { http, request } from './http';
+import type { PersonRef, UnitSystem } from './types';
+
+export type ReviewState = 'awaiting-review' | 'approved' | 'sent-back' | 'withdrawn';
+export type VersionReviewState = ReviewState | 'in-progress';
+
+export const REVIEW_STATE_LABELS: Record<VersionReviewState, string> = {
+  'in-progress': 'in progress',
+  'awaiting-review': 'awaiting review',
+  approved: 'approved',
+  'sent-back': 'sent back',
+  withdrawn: 'withdrawn',
+};
+
+export const ANCHOR_EFFECTS = ['moment', 'negative-moment', 'shear', 'reaction', 'fatigue-moment', 'fatigue-shear', 'deflection'] as const;
+export const ANCHOR_METHODS = ['formula', 'lever-rule', 'rigid-section', 'equal-share', 'interior-minimum', 'grillage', 'governing'] as const;
+export type AnchorEffect = (typeof ANCHOR_EFFECTS)[number];
+export type AnchorMethod = (typeof ANCHOR_METHODS)[number];
+
+export interface CommentAnchor {
+  girder?: number;
+  effect?: AnchorEffect;
+  method?: AnchorMethod;
+  lanes?: 'one' | 'multiple';
+}
+
+export interface ReviewComment {
+  id: number;
+  roundId: number;
+  parentId: number | null;
+  author: PersonRef;
+  body: string;
+  anchor: CommentAnchor | null;
+  anchorText: string;
+  createdAt: string;
+}
+
+export interface ReviewSummary {
+  id: number;
+  state: ReviewState;
+  stateLabel: string;
+  project: { id: number; name: string; units: UnitSystem };
+  deck: { id: number; name: string };
+  version: { id: number; number: number; girderCount: number; message: string; createdAt: string; createdBy: PersonRef; isLatest: boolean; latestNumber: number };
+  submittedBy: PersonRef;
+  reviewer: PersonRef;
+  previousRoundId: number | null;
+  nextRoundId: number | null;
+  submissionNote: string;
+  decision: { outcome: 'approve' | 'send-back'; note: string; by: PersonRef; at: string | null } | null;
+  refinedAnalysis: { justified: boolean; reason: string; at: string | null; label: string } | null;
+  commentCount: number;
+  createdAt: string;
+  updatedAt: string;
+  allowed: { comment: boolean; decide: boolean; withdraw: boolean; resubmit: boolean };
+}
+
+export interface EarlierRound {
+  id: number;
+  versionNumber: number;
+  state: ReviewState;
+  stateLabel: string;
+  decisionNote: string | null;
+  decidedAt: string | null;
+  comments: ReviewComment[];
+}
+
+export interface ReviewDetail extends ReviewSummary {
+  comments: ReviewComment[];
+  earlierRounds: EarlierRound[];
+}
+
+export interface Finding {
+  code: string;
+  message: string;
+  article: string;
+  parameter?: string;
+  value?: number;
+  limit?: number;
+  unit?: string;
+}
+
+export interface RefinedSummary {
+  caution: string;
+  solverVersion: string;
+  source: 'stored' | 'computed';
+  deckName: string;
+  girderCount: number;
+  rangeFindings: Finding[];
+  otherFindings: Finding[];
+  skew: {
+    supports: number[];
+    largest: number;
+    words: string;
+    effects: { girder: string; effect: string; location: string; method: string; lanes: string; baseValue: number; skewFactor: number; value: number; changePercent: number }[];
+  };
+  governing: { girder: string; effect: string; location: string; value: number; reason: string }[];
+  refined: {
+    available: boolean;
+    note: string;
+    source: string;
+    ratios: { girder: number; girderKind: string; effect: string; location: string; refined: number; code: number; ratio: number }[];
+    momentReductions: { girder: number; girderKind: string; location: string; code: number; refined: number; perLaneMoment: number; codeMoment: number; refinedMoment: number; reduction: number; reductionPercent: number }[];
+    largestReduction: { girder: number; girderKind: string; location: string; reductionPercent: number; reduction: number } | null;
+  };
+  indicators: string[];
+}
+
+export interface Reviewer {
+  id: number;
+  name: string;
+  email: string;
+}
+
+export interface DeckReviewStatus {
+  deckId: number;
+  versions: { versionId: number; number: number; state: VersionReviewState; stateLabel: string; roundId: number | null }[];
+  latestApprovedNumber: number | null;
+}
+
+export type ReviewView = 'assigned' | 'submitted' | 'all';
+
+export async function listReviews(query: { view?: ReviewView; state?: ReviewState; deckId?: number } = {}): Promise<ReviewSummary[]> {
+  const { reviews } = await http.get<{ reviews: ReviewSummary[] }>('/api/reviews', query);
+  return reviews;
+}
+
+export async function getReview(reviewId: number): Promise<{ review: ReviewDetail; summary: RefinedSummary }> {
+  return http.get<{ review: ReviewDetail; summary: RefinedSummary }>(`/api/reviews/${reviewId}`);
+}
+
+export async function listReviewers(): Promise<Reviewer[]> {
+  const { reviewers } = await http.get<{ reviewers: Reviewer[] }>('/api/reviews/reviewers');
+  return reviewers;
+}
+
+export async function deckReviewStatus(deckId: number): Promise<DeckReviewStatus> {
+  return http.get<DeckReviewStatus>('/api/reviews/status', { deckId });
+}
+
+export async function submitForReview(input: { versionId: number; reviewerId: number; note?: string }): Promise<ReviewSummary> {
+  const { review } = await http.post<{ review: ReviewSummary }>('/api/reviews', input);
+  return review;
+}
+
+export async function addComment(reviewId: number, input: { body: string; anchor?: CommentAnchor; parentId?: number }): Promise<ReviewComment> {
+  const { comment } = await http.post<{ comment: ReviewComment }>(`/api/reviews/${reviewId}/comments`, input);
+  return comment;
+}
+
+export async function recordRefinedDecision(reviewId: number, input: { justified: boolean; reason: string }): Promise<ReviewSummary> {
+  const { review } = await request<{ review: ReviewSummary }>(`/api/reviews/${reviewId}/refined-analysis`, { method: 'PUT', body: input });
+  return review;
+}
+
+export async function decide(reviewId: number, input: { outcome: 'approve' | 'send-back'; note: string }): Promise<ReviewSummary> {
+  const { review } = await http.post<{ review: ReviewSummary }>(`/api/reviews/${reviewId}/decision`, input);
+  return review;
+}
+
+export async function withdraw(reviewId: number): Promise<ReviewSummary> {
+  const { review } = await http.post<{ review: ReviewSummary }>(`/api/reviews/${reviewId}/withdraw`);
+  return review;
+}
+
+/** Download links of a version's calculation package and CSV tables (same-origin GET with the session cookie). */
+export function reportLinks(deckId: number, versionNumber: number) {
+  const base = `/api/reports/decks/${deckId}/versions/${versionNumber}`;
+  return { pdf: `${base}/package.pdf`, factors: `${base}/factors.csv`, envelopes: `${base}/envelopes.csv` };
+}

@@ -1,0 +1,193 @@
+/** Training exercises made from deck versions (see server/api/training). */
+import { http } from './http';
+import type { PersonRef, UnitSystem } from './types';
+
+export type ExerciseKind = 'factor' | 'truck-position';
+
+export interface FactorParams {
+  girder: 'interior' | 'exterior';
+  effect: 'moment' | 'negative-moment' | 'shear' | 'reaction' | 'fatigue-moment' | 'fatigue-shear' | 'deflection';
+  lanes: 'one' | 'multiple' | 'governing';
+  method: 'governing' | 'formula' | 'lever-rule' | 'rigid-section' | 'equal-share';
+  location?: string;
+}
+
+export interface TruckPositionParams {
+  girder: number;
+  line: 'lever-rule' | 'rigid-section';
+  laneCounts?: number[];
+}
+
+export interface QuestionPreset {
+  id: string;
+  title: string;
+  kind: ExerciseKind;
+  params: FactorParams | TruckPositionParams;
+}
+
+export interface TraceInput {
+  symbol: string;
+  description?: string;
+  value: number;
+  kind: string;
+  formulaValue?: number;
+  formulaUnit?: string;
+}
+
+export interface TraceStep {
+  label: string;
+  formula: string;
+  inputs: TraceInput[];
+  value: number;
+  kind: string;
+  article: string;
+  note?: string;
+}
+
+export interface LanePlacement {
+  left: number;
+  wheelOffset: number;
+}
+
+export interface Roadway {
+  curbLeft: number;
+  curbRight: number;
+  laneWidth: number;
+  laneCount: number;
+  girderOffsets: number[];
+}
+
+export interface ExpectedAnswer {
+  question: string;
+  value: number;
+  article: string;
+  trace: TraceStep[];
+  method?: string;
+  lanes?: string;
+  loadedLanes?: number;
+  location?: string;
+  placement?: { lanes: LanePlacement[] };
+  wheelLines?: [number, number][];
+  roadway?: Roadway;
+}
+
+export interface SubmissionStep {
+  label: string;
+  formula?: string;
+  value?: number;
+  note?: string;
+}
+
+export interface Grading {
+  passed: boolean;
+  tolerancePercent: number;
+  checks: { name: 'value' | 'placement'; label: string; expected: number; submitted: number; differencePercent: number; passed: boolean }[];
+  placementViolations: { path: string; message: string }[];
+  stepMatches: { traceIndex: number; label: string; productValue: number; traineeStep: number | null }[];
+  summary: string;
+}
+
+export interface Submission {
+  id: number;
+  trainee: PersonRef;
+  attempt: number;
+  value: number;
+  placement: { lanes: LanePlacement[] } | null;
+  steps: SubmissionStep[];
+  late: boolean;
+  passed: boolean;
+  grading: Grading;
+  submittedAt: string;
+}
+
+export interface Exercise {
+  id: number;
+  kind: ExerciseKind;
+  params: FactorParams | TruckPositionParams;
+  title: string;
+  question: string;
+  instructions: string;
+  tolerancePercent: number;
+  dueAt: string;
+  overdue: boolean;
+  project: { id: number; name: string; units: UnitSystem };
+  deck: { id: number; name: string };
+  version: { id: number; number: number };
+  createdBy: PersonRef;
+  createdAt: string;
+  roadway: Roadway | null;
+  expected: ExpectedAnswer | null;
+  caution: string;
+}
+
+export interface ExerciseListItem extends Exercise {
+  traineeCount?: number;
+  submittedCount?: number;
+  passedCount?: number;
+  status?: 'to do' | 'passed' | 'not passed';
+  submittedAt?: string | null;
+}
+
+export interface InstructorExercise extends Exercise {
+  trainees: { id: number; name: string; email: string; status: 'passed' | 'not passed' | 'not submitted'; late: boolean; submittedAt: string | null }[];
+  submissions: Submission[];
+}
+
+export interface TraineeExercise extends Exercise {
+  submissions: Submission[];
+}
+
+export interface NewExercise {
+  kind: ExerciseKind;
+  versionId: number;
+  params: FactorParams | TruckPositionParams;
+  title?: string;
+  instructions?: string;
+  tolerancePercent: number;
+  dueAt: string;
+  traineeIds: number[];
+}
+
+export async function listQuestions(): Promise<QuestionPreset[]> {
+  const { questions } = await http.get<{ questions: QuestionPreset[] }>('/api/training/questions');
+  return questions;
+}
+
+export async function listTrainees(): Promise<{ id: number; name: string; email: string }[]> {
+  const { trainees } = await http.get<{ trainees: { id: number; name: string; email: string }[] }>('/api/training/trainees');
+  return trainees;
+}
+
+export async function listExercises(): Promise<ExerciseListItem[]> {
+  const { assignments } = await http.get<{ assignments: ExerciseListItem[] }>('/api/training/assignments');
+  return assignments;
+}
+
+export async function createExercise(input: NewExercise): Promise<InstructorExercise> {
+  const { assignment } = await http.post<{ assignment: InstructorExercise }>('/api/training/assignments', input);
+  return assignment;
+}
+
+export async function getExercise(id: number): Promise<InstructorExercise> {
+  const { assignment } = await http.get<{ assignment: InstructorExercise }>(`/api/training/assignments/${id}`);
+  return assignment;
+}
+
+export async function updateExercise(id: number, changes: { dueAt?: string; instructions?: string; addTraineeIds?: number[] }): Promise<InstructorExercise> {
+  const { assignment } = await http.patch<{ assignment: InstructorExercise }>(`/api/training/assignments/${id}`, changes);
+  return assignment;
+}
+
+export async function listMyExercises(): Promise<ExerciseListItem[]> {
+  const { assignments } = await http.get<{ assignments: ExerciseListItem[] }>('/api/training/mine');
+  return assignments;
+}
+
+export async function getMyExercise(id: number): Promise<TraineeExercise> {
+  const { assignment } = await http.get<{ assignment: TraineeExercise }>(`/api/training/mine/${id}`);
+  return assignment;
+}
+
+export async function submitAnswer(id: number, input: { value: number; steps: SubmissionStep[]; placement?: { lanes: LanePlacement[] } }): Promise<{ submission: Submission; assignment: TraineeExercise }> {
+  return http.post<{ submission: Submission; assignment: TraineeExercise }>(`/api/training/mine/${id}/submissions`, input);
+}

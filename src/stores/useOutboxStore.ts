@@ -1,0 +1,39 @@
+/** The admins' outbox (messages kept by the local mail service) and invitations. */
+import { defineStore } from 'pinia';
+import { ref } from 'vue';
+import * as mailApi from '@/api/mail';
+import type { Invitation, MailKind, OutboxMessage } from '@/api/mail';
+
+export const useOutboxStore = defineStore('outbox', () => {
+  const messages = ref<OutboxMessage[]>([]);
+  const invitations = ref<Invitation[]>([]);
+  const kind = ref<MailKind | undefined>(undefined);
+  const loading = ref(false);
+  const selected = ref<OutboxMessage | null>(null);
+
+  async function fetchMessages(filter: MailKind | undefined = kind.value): Promise<void> {
+    kind.value = filter;
+    loading.value = true;
+    try {
+      messages.value = await mailApi.listOutbox(filter ? { kind: filter } : {});
+    } finally {
+      loading.value = false;
+    }
+  }
+
+  async function select(id: number): Promise<void> {
+    selected.value = await mailApi.getOutboxMessage(id);
+  }
+
+  async function fetchInvitations(): Promise<void> {
+    invitations.value = await mailApi.listInvitations();
+  }
+
+  async function invite(userId: number): Promise<Invitation> {
+    const inv = await mailApi.inviteUser(userId);
+    await Promise.all([fetchInvitations(), fetchMessages()]);
+    return inv;
+  }
+
+  return { messages, invitations, kind, loading, selected, fetchMessages, select, fetchInvitations, invite };
+});
