@@ -165,7 +165,7 @@ export const useDeckStore = defineStore('deck', () => {
 
   function applyVersion(v: DeckVersion, asMode: WorkspaceMode): void {
     version.value = v;
-    draft.value = structuredClone(v.deck);
+    draft.value = JSON.parse(JSON.stringify(v.deck)) as DeckInput;
     savedJson.value = JSON.stringify(draft.value);
     mode.value = asMode;
     basedOnVersionId.value = asMode === 'edit' ? v.id : null;
@@ -215,7 +215,8 @@ export const useDeckStore = defineStore('deck', () => {
     if (!validation.value.deck) throw new Error('the deck has problems to fix before it can be saved');
     saving.value = true;
     try {
-      const deck = structuredClone(draft.value);
+      // A plain copy of the reactive draft (the deck is JSON data).
+      const deck = JSON.parse(JSON.stringify(draft.value)) as DeckInput;
       const placements = placementsToSave(extra);
       let saved: DeckVersion;
       if (deckId.value === null) {

@@ -1,0 +1,262 @@
+/**
+ * The deck workspace in a real browser (headless Chromium, software WebGL) against the built
+ * client and a real server on a fresh database. The demo designer creates a deck from the
+ * editor, sees the 3D deck drawn (pixels of the canvas, not only the DOM), drags a lane with
+ * the mouse and sees the exterior girder's share change, moves the lanes to the governing
+ * position and sees the share reach the governing value, saves, reloads, reopens the saved
+ * version read-only and finds the same factors, then saves a second version and compares the
+ * two. A twelve-girder deck gives the frame time of the 3D view.
+ *
+ * Screenshots go to tests/e2e/screenshots/workspace-*.png.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { DEMO_USERS, signIn, startHarness, type Harness } from './harness';
+
+/** The scene's clear colour (src/components/scene/sceneColours.ts), RGB. */
+const BACKGROUND = [0xee, 0xf1, 0xec];
+
+interface CanvasStats {
+  width: number;
+  height: number;
+  drawn: number;
+  colours: number;
+  /** CSS-pixel points (relative to the canvas) whose colour is lane 1's teal over the roadway. */
+  lanePoints: { x: number; y: number }[];
+}
+
+/** Reads the WebGL canvas's pixels through a 2D canvas (the view keeps its drawing buffer). */
+async function canvasStats(page: Page): Promise<CanvasStats> {
+  return page.evaluate((bg) => {
+    const canvas = document.querySelector<HTMLCanvasElement>('[data-test="scene-canvas"] canvas');
+    if (!canvas) throw new Error('no scene canvas');
+    const w = canvas.width;
+    const h = canvas.height;
+    const off = document.createElement('canvas');
+    off.width = w;
+    off.height = h;
+    const ctx = off.getContext('2d');
+    if (!ctx) throw new Error('no 2D context');
+    ctx.drawImage(canvas, 0, 0);
+    const data = ctx.getImageData(0, 0, w, h).data;
+    const scale = w / canvas.clientWidth;
+    let drawn = 0;
+    const colours = new Set<number>();
+    const lanePoints: { x: number; y: number }[] = [];
+    for (let y = 0; y < h; y += 2) {
+      for (let x = 0; x < w; x += 2) {
+        const k = (y * w + x) * 4;
+        const r = data[k];
+        const g = data[k + 1];
+        const b = data[k + 2];
+        if (Math.abs(r - bg[0]) + Math.abs(g - bg[1]) + Math.abs(b - bg[2]) > 12) drawn++;
+        colours.add(((r >> 3) << 10) | ((g >> 3) << 5) | (b >> 3));
+        // Lane 1's teal strip over the grey roadway: green and blue well above red.
+        if (g - r > 28 && b - r > 18 && r > 60) lanePoints.push({ x: x / scale, y: y / scale });
+      }
+    }
+    return { width: w, height: h, drawn: drawn / ((w * h) / 4), colours: colours.size, lanePoints };
+  }, BACKGROUND);
+}
+
+async function shareOf(page: Page, girder: number): Promise<number> {
+  const text = await page.locator(`[data-test="share-g${girder}"]`).getAttribute('data-value');
+  return Number(text);
+}
+
+async function waitForShares(page: Page): Promise<void> {
+  await page.locator('[data-test="share-g1"]').waitFor({ timeout: 60_000 });
+}
+
+async function waitForGoverning(page: Page): Promise<number> {
+  const box = page.locator('[data-test="governing-value"]');
+  await box.waitFor({ timeout: 90_000 });
+  return Number(await box.innerText());
+}
+
+async function comparisonValues(page: Page): Promise<Record<string, string>> {
+  return page.evaluate(() => {
+    const out: Record<string, string> = {};
+    document.querySelectorAll<HTMLElement>('[data-test^="cmp-"]').forEach((el) => {
+      out[el.dataset.test ?? ''] = el.innerText.trim();
+    });
+    return out;
+  });
+}
+
+async function chooseView(page: Page, label: string): Promise<void> {
+  await page.locator('[data-test="scene-view"] label', { hasText: label }).click();
+  await page.waitForTimeout(600);
+}
+
+describe('deck workspace in the browser', () => {
+  let h: Harness;
+  let deckPath = '';
+  let governing = 0;
+  let savedShare = 0;
+  let savedComparison: Record<string, string> = {};
+
+  beforeAll(async () => {
+    h = await startHarness({ viewport: { width: 1500, height: 1000 } });
+    await signIn(h.page, h.baseUrl, DEMO_USERS.designer);
+  });
+
+  afterAll(async () => {
+    await h?.stop();
+  });
+
+  it('creates a deck from the editor and draws it in 3D', async () => {
+    const { page } = h;
+    await page.goto(h.url('/projects'));
+    await page.locator('[data-test="projects-table"] tbody tr a', { hasText: 'Quarry Creek Overpass' }).first().click();
+    await page.locator('[data-test="new-deck"]').click();
+    await page.waitForURL(/\/projects\/\d+\/decks\/new$/);
+    await page.locator('[data-test="deck-editor"]').waitFor();
+    await page.locator('input[data-test="field-name"]').fill('Main span, browser check');
+    // A problem appears beside its field as it is typed, and goes when fixed.
+    const spacing = page.locator('input[data-test="field-girders.spacing"]');
+    await spacing.fill('-3');
+    await page.locator('[data-field="girders.spacing"] .ant-form-item-explain', { hasText: 'girder spacing must be greater than 0' }).waitFor();
+    await page.locator('[data-test="deck-problems"]').waitFor();
+    await spacing.fill('9.666667');
+    await page.locator('[data-test="deck-problems"]').waitFor({ state: 'detached' });
+
+    await page.locator('[data-test="deck-scene"][data-ready="true"]').waitFor({ timeout: 60_000 });
+    await waitForShares(page);
+    await page.waitForTimeout(500);
+    const stats = await canvasStats(page);
+    // The deck fills a good part of the view in several colours (slab, girders, lane, wheels…).
+    expect(stats.drawn).toBeGreaterThan(0.1);
+    expect(stats.colours).toBeGreaterThan(40);
+    expect(stats.lanePoints.length).toBeGreaterThan(50);
+    await h.screenshot('workspace-01-new-deck');
+    expect(h.pageErrors.filter((e) => !e.includes('401'))).toEqual([]);
+  });
+
+  it('changes the exterior girder share when a lane is dragged with the mouse', async () => {
+    const { page } = h;
+    await chooseView(page, 'Plan');
+    await waitForShares(page);
+    const before = await shareOf(page, 1);
+    expect(before).toBeGreaterThan(0.3);
+    const stats = await canvasStats(page);
+    expect(stats.lanePoints.length).toBeGreaterThan(50);
+    // Grab lane 1 near its left end (away from the wheels) and drag it across the roadway.
+    const minX = Math.min(...stats.lanePoints.map((p) => p.x));
+    const nearLeft = stats.lanePoints.filter((p) => p.x < minX + 40);
+    const grab = nearLeft[Math.floor(nearLeft.length / 2)];
+    const box = await page.locator('[data-test="scene-canvas"] canvas').boundingBox();
+    if (!box) throw new Error('no canvas box');
+    const x0 = box.x + grab.x;
+    const y0 = box.y + grab.y;
+    await page.mouse.move(x0, y0);
+    await page.mouse.down();
+    for (let i = 1; i <= 12; i++) {
+      await page.mouse.move(x0, y0 + i * 14);
+      await page.waitForTimeout(30);
+    }
+    await page.mouse.up();
+    await expect.poll(() => shareOf(page, 1), { timeout: 10_000 }).toBeLessThan(before - 0.1);
+    const after = await shareOf(page, 1);
+    const lane = await page.locator('[data-test="lane-item-1"]').innerText();
+    expect(lane).not.toContain('edge 0.00 ft from the left curb');
+    await h.screenshot('workspace-02-lane-dragged');
+    // The keyboard moves it too: back to the left by steps of 1 ft.
+    await page.locator('[data-test="lane-list"]').focus();
+    for (let i = 0; i < 6; i++) await page.keyboard.press('ArrowLeft');
+    await expect.poll(() => shareOf(page, 1), { timeout: 10_000 }).toBeGreaterThan(after);
+  });
+
+  it('moves the lanes to the governing position and the share reaches the governing value', async () => {
+    const { page } = h;
+    governing = await waitForGoverning(page);
+    expect(governing).toBeGreaterThan(0.3);
+    await page.locator('[data-test="move-to-governing"]').click();
+    await expect.poll(async () => (await shareOf(page, 1)).toFixed(3), { timeout: 15_000 }).toBe(governing.toFixed(3));
+    await page.waitForTimeout(400);
+    savedShare = await shareOf(page, 1);
+    savedComparison = await comparisonValues(page);
+    expect(Object.keys(savedComparison).length).toBeGreaterThan(10);
+    await chooseView(page, '3D');
+    await h.screenshot('workspace-03-governing');
+  });
+
+  it('saves the deck with its placement, reloads and shows the same factors', async () => {
+    const { page } = h;
+    await page.locator('[data-test="save-deck"]').click();
+    await page.locator('input[data-test="save-message"]').fill('First version from the browser check');
+    await page.locator('.ant-modal .ant-btn-primary', { hasText: 'Save' }).click();
+    await page.waitForURL(/\/decks\/\d+$/);
+    deckPath = new URL(page.url()).pathname;
+    await page.locator('[data-test="version-tag"]').waitFor();
+    await page.reload();
+    await page.locator('[data-test="deck-scene"][data-ready="true"]').waitFor({ timeout: 60_000 });
+    await waitForShares(page);
+    await expect.poll(async () => (await shareOf(page, 1)).toFixed(3), { timeout: 20_000 }).toBe(savedShare.toFixed(3));
+    expect(await waitForGoverning(page)).toBeCloseTo(governing, 3);
+    await expect.poll(() => comparisonValues(page), { timeout: 60_000 }).toEqual(savedComparison);
+    await h.screenshot('workspace-04-reloaded');
+  });
+
+  it('reopens the saved version read-only with the same factors, then starts a new version from it', async () => {
+    const { page } = h;
+    await page.locator('[data-test="open-history"]').click();
+    await page.locator('[data-test="open-version-1"]').click();
+    await page.waitForURL(/\/decks\/\d+\/versions\/1$/);
+    await page.locator('[data-test="read-only-tag"]').waitFor();
+    await waitForShares(page);
+    await expect.poll(async () => (await shareOf(page, 1)).toFixed(3), { timeout: 20_000 }).toBe(savedShare.toFixed(3));
+    await expect.poll(() => comparisonValues(page), { timeout: 60_000 }).toEqual(savedComparison);
+    // Inputs of a saved version cannot be changed.
+    expect(await page.locator('input[data-test="field-girders.spacing"]').isDisabled()).toBe(true);
+    expect(await page.locator('input[data-test="field-name"]').isDisabled()).toBe(true);
+    await h.screenshot('workspace-05-read-only-version');
+
+    await page.locator('[data-test="start-from-version"]').click();
+    await page.waitForURL((url) => url.pathname === deckPath);
+    await page.locator('[data-test="panel-slab"] .ant-collapse-header').click();
+    const thickness = page.locator('input[data-test="field-slab.thickness"]');
+    await thickness.waitFor();
+    expect(await thickness.isDisabled()).toBe(false);
+    await thickness.fill('9');
+    await page.locator('[data-test="save-deck"]').click();
+    await page.locator('input[data-test="save-message"]').fill('Slab thickened to 9 in');
+    await page.locator('.ant-modal .ant-btn-primary', { hasText: 'Save' }).click();
+    await page.locator('.ant-message', { hasText: 'Saved version 2' }).waitFor();
+
+    await page.locator('[data-test="open-history"]').click();
+    await page.locator('[data-test="versions-table"] tbody tr').nth(1).waitFor();
+    await page.locator('[data-test="compare"]').click();
+    const inputs = page.locator('[data-test="input-diff"]');
+    await inputs.waitFor({ timeout: 30_000 });
+    expect(await inputs.innerText()).toMatch(/Slab › thickness\s+8\.00 in\s+9\.00 in/);
+    const factors = page.locator('[data-test="factor-diff"]');
+    await factors.waitFor({ timeout: 30_000 });
+    expect(await factors.innerText()).toMatch(/interior/);
+    await h.screenshot('workspace-06-version-diff');
+    expect(h.pageErrors.filter((e) => !e.includes('401'))).toEqual([]);
+  });
+
+  it('draws a twelve-girder deck and reports the frame time of the 3D view', async () => {
+    const { page } = h;
+    await page.goto(h.url('/projects'));
+    await page.locator('[data-test="projects-table"] tbody tr a', { hasText: 'Quarry Creek Overpass' }).first().click();
+    await page.locator('[data-test="new-deck"]').click();
+    await page.locator('[data-test="template-steel-wide-twelve"]').click();
+    await page.locator('[data-test="deck-scene"][data-ready="true"]').waitFor({ timeout: 60_000 });
+    await waitForShares(page);
+    await expect.poll(async () => page.locator('[data-test^="share-bar-g"]').count(), { timeout: 60_000 }).toBe(12);
+    const stats = await canvasStats(page);
+    expect(stats.drawn).toBeGreaterThan(0.1);
+    await page.locator('[data-test="frame-readout"]').click();
+    const readout = page.locator('[data-test="frame-stats"]');
+    await expect.poll(async () => Number(await readout.getAttribute('data-frame-ms')), { timeout: 30_000 }).toBeGreaterThan(0);
+    await page.waitForTimeout(4000);
+    const frameMs = Number(await readout.getAttribute('data-frame-ms'));
+    const renderMs = Number(await readout.getAttribute('data-render-ms'));
+    const note = await page.locator('.ds-shares-note').innerText();
+    console.log(`12-girder deck, headless Chromium (software WebGL): ${frameMs.toFixed(2)} ms per frame, ${renderMs.toFixed(2)} ms in renderer.render; ${note}`);
+    expect(frameMs).toBeGreaterThan(0);
+    await h.screenshot('workspace-07-twelve-girders');
+  });
+});
