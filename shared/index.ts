@@ -10,3 +10,4 @@ export * from './lrfd/index.js';
 export * from './loads/index.js';
 export * from './placement/index.js';
 export * from './grillage/index.js';
+export * from './grillage/refinedFactors.js';

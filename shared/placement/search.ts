@@ -131,6 +131,8 @@ interface LaneChoice<D> {
   left: number;
   wheel: number;
   detail: D;
+  /** H at the wheel line: the lane's value on the sample, maximised sense. */
+  value: number;
 }
 
 interface LaneSetResult<D> {
@@ -381,7 +383,7 @@ function searchLaneSets<D>(rules: PlacementRules, objective: LaneObjective<D>, l
     return {
       k,
       total: r.total,
-      lanes: r.idx.map((i) => ({ left: S[i], wheel: bestWheel[i], detail: H(bestWheel[i]).detail })),
+      lanes: r.idx.map((i) => ({ left: S[i], wheel: bestWheel[i], detail: H(bestWheel[i]).detail, value: val[i] })),
     };
   });
   return { results, work: { candidates: M, exactLanes, wheelLineEvaluations, passes } };
@@ -442,7 +444,7 @@ export interface SurfaceSearchOptions extends SearchOptions {
   /**
    * When the sample carries an error envelope and the plain bound 2·m·k·ΣW·ε exceeds this
    * fraction of the effect, search the sample raised by the envelope as well, for a tighter
-   * bound (default 0.001).
+   * bound (default 0.005).
    */
   tightenAbove?: number;
 }
@@ -513,11 +515,14 @@ function searchSample(
  * a jump of the surface (a deck end, a shear's support) when its x is recomputed from the
  * front axle. Keep the lane's best of its front-axle position moved by 0, ±1 nm and ±0.1 µm.
  */
-function nudged(source: SurfaceLike, lane: LanePlacement, rules: PlacementRules, vehicle: Vehicle, sense: Sense): LanePlacement {
+function nudged(source: SurfaceLike, lane: LanePlacement, rules: PlacementRules, vehicle: Vehicle, sense: Sense, sampleValue: number): LanePlacement {
   const sgn = sense === 'positive' ? 1 : -1;
+  const here = sgn * evaluateSurface(source, { lanes: [lane] }, rules, vehicle, { multiplePresence: false, sense, check: false }).value;
+  // Within rounding of the sample's value (or above it): nothing to mend.
+  if (here >= sampleValue - 1e-9 * Math.abs(sampleValue)) return lane;
   let best = lane;
-  let bestV = -Infinity;
-  for (const d of [0, 1e-9, -1e-9, 1e-7, -1e-7]) {
+  let bestV = here;
+  for (const d of [1e-9, -1e-9, 1e-7, -1e-7]) {
     const trial = { ...lane, frontAxleAt: (lane.frontAxleAt as number) + d };
     if (checkPlacement({ lanes: [trial] }, rules, { vehicle, extent: source.extent }).length) continue;
     const v = sgn * evaluateSurface(source, { lanes: [trial] }, rules, vehicle, { multiplePresence: false, sense, check: false }).value;
@@ -552,7 +557,7 @@ export function governingSurfacePlacement(
   const source = options.source ?? surface.source;
   const eps = surface.representationError;
   const byLaneCount = results.map((r): LaneCountResult => {
-    const placement: Placement = { lanes: r.lanes.map((c) => nudged(source, { ...toLane(rules, c), ...c.detail }, rules, vehicle, sense)) };
+    const placement: Placement = { lanes: r.lanes.map((c) => nudged(source, { ...toLane(rules, c), ...c.detail }, rules, vehicle, sense, c.value)) };
     const effect = evaluateSurface(source, placement, rules, vehicle, { multiplePresence: options.multiplePresence, sense });
     return { loadedLanes: r.k, multiplePresence: effect.multiplePresence, value: effect.value, placement, effect };
   });
@@ -561,7 +566,7 @@ export function governingSurfacePlacement(
   const gaps = byLaneCount.map((r) => 2 * r.multiplePresence * r.loadedLanes * shape.totalWeight * eps);
   let method = 'plain';
   const env = surface.errorEnvelope;
-  if (env && eps > 0 && Math.max(...gaps) > (options.tightenAbove ?? 0.001) * Math.abs(g.value)) {
+  if (env && eps > 0 && Math.max(...gaps) > (options.tightenAbove ?? 0.005) * Math.abs(g.value)) {
     // Search the sample raised by the envelope: an upper bound of every placement on the surface.
     const raised = rows.map((row) => row.map((v, i) => v + sgn * env[i]));
     const upper = searchSample(xs, ys, raised, surface.extent, rules, shape, sgn, counts, directions);
