@@ -952,6 +952,15 @@ export function computeCodeFactors(deck: Deck): CodeFactorResult {
   if (en.family === 'multicell' && deck.section.cells !== undefined && deck.section.cells + 1 !== en.Nb) {
     deckFindings.push({ code: 'assumption', message: `type d: ${en.Nb} webs entered with Nc = ${deck.section.cells} cells (a box of Nc cells has Nc + 1 webs); both are used as entered`, article: 'AASHTO LRFD Table 4.6.2.2.1-1' });
   }
+  for (const g of governing) {
+    if (g.value <= 1e-12) {
+      deckFindings.push({
+        code: 'no-share',
+        message: `${g.girder} girder, ${g.effect} (${g.location.description}): the ${g.reason} gives this girder no load — check it with a refined analysis or an owner policy (e.g. exterior not less than interior) before designing`,
+        article: 'AASHTO LRFD Art. 4.6.2.2.1 and 4.6.3 (engineering judgement)',
+      });
+    }
+  }
   if (en.lanes.count === 1) {
     deckFindings.push({ code: 'not-applicable', message: 'the roadway holds one design lane: the formulas for two or more lanes do not apply', article: 'AASHTO LRFD Art. 3.6.1.1.1' });
   }

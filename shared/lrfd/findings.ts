@@ -23,7 +23,10 @@ export type FindingCode =
   /** An owner-policy switch changed the result. */
   | 'policy'
   /** A rule the engine applied where the code leaves the choice open (common practice). */
-  | 'assumption';
+  | 'assumption'
+  /** The governing method gives a girder no load at all (e.g. the lever rule with the nearest
+   *  wheel right over the adjacent girder): a value to check, not one to design with. */
+  | 'no-share';
 
 export interface Finding {
   code: FindingCode;

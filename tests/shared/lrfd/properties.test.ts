@@ -109,7 +109,10 @@ describe('properties of the code-method engine', () => {
         }
         for (const g of r.governing) {
           expect(Number.isFinite(g.value)).toBe(true);
-          expect(g.value).toBeGreaterThan(0);
+          expect(g.value).toBeGreaterThanOrEqual(0);
+          // A zero share (e.g. the lever rule with the nearest wheel right over the adjacent
+          // girder) is statics, but it must never pass silently.
+          if (g.value === 0) expect(r.findings.some((f) => f.code === 'no-share' && f.message.includes(g.effect))).toBe(true);
         }
       }),
       { numRuns: 300 },
