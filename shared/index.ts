@@ -11,3 +11,4 @@ export * from './loads/index.js';
 export * from './placement/index.js';
 export * from './grillage/index.js';
 export * from './grillage/refinedFactors.js';
+export * from './grillage/compare.js';
