@@ -179,22 +179,21 @@ export function useSolverWorker(factory: WorkerFactory = defaultFactory) {
     const target = longJob;
     if (target === null || !worker) return;
     const job = pending.get(target);
+    // Listen for the job's end before asking, so that an immediate answer is not missed.
+    const acknowledged = new Promise<boolean>((resolve) => {
+      if (!job) return resolve(true);
+      const original = { resolve: job.resolve, reject: job.reject };
+      job.resolve = (v) => {
+        original.resolve(v);
+        resolve(true);
+      };
+      job.reject = (e) => {
+        original.reject(e);
+        resolve(true);
+      };
+    });
     worker.postMessage({ id: nextId++, type: 'cancel', target } as SolverRequest);
-    const stopped = await Promise.race([
-      new Promise<boolean>((resolve) => {
-        if (!job) return resolve(true);
-        const original = { resolve: job.resolve, reject: job.reject };
-        job.resolve = (v) => {
-          original.resolve(v);
-          resolve(true);
-        };
-        job.reject = (e) => {
-          original.reject(e);
-          resolve(true);
-        };
-      }),
-      new Promise<boolean>((resolve) => setTimeout(() => resolve(false), 400)),
-    ]);
+    const stopped = await Promise.race([acknowledged, new Promise<boolean>((resolve) => setTimeout(() => resolve(false), 400))]);
     if (!stopped) {
       worker.terminate();
       worker = null;

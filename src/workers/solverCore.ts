@@ -381,8 +381,12 @@ export class SolverSession {
     return placement.lanes;
   }
 
-  /** The drag path: every girder's share of the placement, in lanes. */
-  evaluate(lanes: LanePlacement[], effect: StudyEffect): LiveShares {
+  /**
+   * The drag path: every girder's share of the placement, in lanes. Each girder's effect
+   * neglects the axles that do not add to it (Art. 3.6.1.3.1), as the governing search does;
+   * `countAdverseAxles` counts every axle instead (the plain statics of the placement).
+   */
+  evaluate(lanes: LanePlacement[], effect: StudyEffect, options: { countAdverseAxles?: boolean } = {}): LiveShares {
     const t0 = now();
     const { rules } = this.need();
     const state = this.needStudy();
@@ -396,7 +400,7 @@ export class SolverSession {
     const shares = new Array<number>(surfaces.length);
     let m = 1;
     for (let g = 0; g < surfaces.length; g++) {
-      const r = evaluateSurface(surfaces[g], placement, rules, vehicle, { check: false, multiplePresence: mp });
+      const r = evaluateSurface(surfaces[g], placement, rules, vehicle, { check: false, multiplePresence: mp, countAdverseAxles: options.countAdverseAxles });
       shares[g] = r.value / E1;
       m = r.multiplePresence;
     }
