@@ -100,6 +100,7 @@ describe('factor exercises', () => {
     const res = await send.post(trainee2, `/api/training/mine/${exercise.id}/submissions`, { value: exercise.expected.value * 0.9, steps: [] });
     expect(res.body.submission.passed).toBe(false);
     expect(res.body.submission.grading.checks[0].differencePercent).toBeRelativelyClose(10, 1e-6);
+    expect(res.body.submission.grading.stepMatches.at(-1).traineeStep).toBeNull();
     expect((await outbox(ctx)).filter((m) => m.kind === 'submission-graded').at(-1)!.subject).toMatch(/^Not yet: /);
 
     const view = await instructor.get(`/api/training/assignments/${exercise.id}`);
@@ -154,6 +155,8 @@ describe('truck-position exercises', () => {
     expect(good.status).toBe(201);
     expect(good.body.submission.passed).toBe(true);
     expect(good.body.submission.grading.checks.map((c: { name: string }) => c.name)).toEqual(['value', 'placement']);
+    // The final value answers the last step of the trace (index = number of steps given).
+    expect(good.body.submission.grading.stepMatches.at(-1).traineeStep).toBe(1);
   });
 
   it('a placement that breaks the 2 ft rule fails with the rule named; a mirrored girder gives the same value', async () => {

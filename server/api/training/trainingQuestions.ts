@@ -166,7 +166,7 @@ export interface Grading {
   checks: Check[];
   /** Rules the trainee's placement breaks (truck-position questions). */
   placementViolations: { path: string; message: string }[];
-  /** For each step of the product's trace, the trainee step with the same value (within tolerance), or null. */
+  /** For each step of the product's trace, the trainee step with the same value (within tolerance), or null; `steps.length` stands for the trainee's final value. */
   stepMatches: { traceIndex: number; label: string; productValue: number; traineeStep: number | null }[];
   summary: string;
 }
@@ -195,9 +195,12 @@ export function grade(deck: Deck, kind: string, params: unknown, expected: Expec
       checks.push(check('placement', 'Factor your placement produces', expected.value, effect.value, tolerancePercent));
     }
   }
+  // The trainee's final value stands as one more step (index steps.length) for the last trace step.
+  const last = expected.trace.length - 1;
   const stepMatches = expected.trace.map((s, i) => {
     const j = body.steps.findIndex((t) => t.value !== undefined && relDiff(t.value, s.value) <= tolerancePercent + 1e-9);
-    return { traceIndex: i, label: s.label, productValue: s.value, traineeStep: j >= 0 ? j : null };
+    const byValue = i === last && relDiff(body.value, s.value) <= tolerancePercent + 1e-9;
+    return { traceIndex: i, label: s.label, productValue: s.value, traineeStep: j >= 0 ? j : byValue ? body.steps.length : null };
   });
   const passed = violations.length === 0 && checks.every((c) => c.passed);
   const first = checks[0];

@@ -1,0 +1,186 @@
+/**
+ * The whole review round trip in a real browser, with two users in two browser contexts: the
+ * demo designer submits a deck version to the demo reviewer, the reviewer reads the
+ * refined-analysis summary, comments on one value, records the refined-analysis decision and
+ * sends the version back; the designer answers, saves a new version and resubmits; the
+ * reviewer approves. The e-mail notices are then read in the admins' outbox, and the
+ * calculation package downloads as a PDF. Screenshots go to tests/e2e/screenshots/.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, signIn, signOut, startHarness, type Harness } from './harness';
+import { quarryCreekDeck } from '../fixtures/decks';
+
+const DECK_NAME = `Quarry Creek review deck ${Date.now()}`;
+
+/** Picks an option of an ant-design Select by its visible text. */
+async function choose(page: Page, testId: string, text: string): Promise<void> {
+  await page.locator(`[data-test="${testId}"]`).click();
+  await page.locator('.ant-select-dropdown:not(.ant-select-dropdown-hidden) .ant-select-item-option', { hasText: text }).first().click();
+}
+
+/** Calls the API from inside the signed-in page (same cookies, CSRF header from the cookie). */
+async function api<T>(page: Page, method: string, path: string, body?: unknown): Promise<{ status: number; body: T }> {
+  return page.evaluate(
+    async ({ method, path, body }) => {
+      const csrf = document.cookie.split('; ').find((c) => c.startsWith('ds_csrf='))?.slice(8) ?? '';
+      const res = await fetch(path, { method, headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': decodeURIComponent(csrf) }, body: body === undefined ? undefined : JSON.stringify(body), credentials: 'same-origin' });
+      return { status: res.status, body: (await res.json().catch(() => null)) as T };
+    },
+    { method, path, body },
+  );
+}
+
+describe('review round trip in the browser', () => {
+  let h: Harness;
+  let designer: Page;
+  let reviewerContext: BrowserContext;
+  let reviewer: Page;
+  let profile: string;
+  let deckId: number;
+  let firstReviewUrl: string;
+
+  beforeAll(async () => {
+    h = await startHarness({ env: { LOCAL_SMTP_PORT: '0' } });
+    designer = h.page;
+    profile = await mkdtemp(join(tmpdir(), 'deckshare-e2e-reviewer-'));
+    reviewerContext = await chromium.launchPersistentContext(profile, { executablePath: CHROMIUM_PATH, headless: true, args: CHROMIUM_ARGS, viewport: { width: 1366, height: 900 }, locale: 'en-US', timezoneId: 'UTC' });
+    reviewer = reviewerContext.pages()[0] ?? (await reviewerContext.newPage());
+    reviewer.setDefaultTimeout(15_000);
+    reviewer.on('pageerror', (e) => h.pageErrors.push(`reviewer pageerror: ${e.message}`));
+  });
+
+  afterAll(async () => {
+    await reviewerContext?.close().catch(() => undefined);
+    if (profile) await rm(profile, { recursive: true, force: true });
+    await h?.stop();
+  });
+
+  it('the designer submits version 1 to the reviewer', async () => {
+    await signIn(designer, h.baseUrl, DEMO_USERS.designer);
+    const projects = await api<{ projects: { id: number; name: string }[] }>(designer, 'GET', '/api/projects');
+    const project = projects.body.projects.find((p) => p.name === 'Quarry Creek Overpass')!;
+    const created = await api<{ deck: { id: number } }>(designer, 'POST', `/api/projects/${project.id}/decks`, { deck: { ...quarryCreekDeck(), name: DECK_NAME }, message: 'layout from the general arrangement' });
+    expect(created.status).toBe(201);
+    deckId = created.body.deck.id;
+
+    await designer.goto(h.url('/reviews'));
+    await designer.locator('nav[aria-label="Main"] a', { hasText: 'Reviews' }).waitFor();
+    await designer.locator('[data-test="new-review"]').click();
+    await designer.waitForURL(/\/reviews\/new/);
+    await choose(designer, 'submit-project', 'Quarry Creek Overpass');
+    await choose(designer, 'submit-deck', DECK_NAME);
+    await designer.locator('[data-test="submit-version"]').getByText('Version 1').waitFor();
+    await choose(designer, 'submit-reviewer', 'Ruth Castellanos');
+    await designer.locator('[data-test="submit-note"]').fill('Please check the exterior girder factors.');
+    await h.screenshot('review-01-submit-form', designer);
+    await designer.locator('[data-test="submit-review"]').click();
+    await designer.waitForURL(/\/reviews\/\d+$/);
+    firstReviewUrl = designer.url();
+    await designer.locator('[data-test="state-awaiting-review"]').first().waitFor();
+    expect(await designer.locator('[data-test="review-title"]').innerText()).toBe(`${DECK_NAME}, version 1`);
+  });
+
+  it('the reviewer reads the summary, comments on one value, decides and sends it back', async () => {
+    await signIn(reviewer, h.baseUrl, DEMO_USERS.reviewer);
+    await reviewer.goto(h.url('/reviews'));
+    const row = reviewer.locator('[data-test="reviews-table"] tbody tr', { hasText: DECK_NAME });
+    await row.waitFor();
+    await row.locator('a').first().click();
+    await reviewer.waitForURL(firstReviewUrl);
+    const summary = reviewer.locator('[data-test="refined-summary"]');
+    await summary.waitFor();
+    expect(await summary.locator('[data-test="skew-words"]').innerText()).toContain('support 1: 20.0°');
+    expect(await summary.innerText()).toContain('licensed engineer');
+    expect(await summary.locator('[data-test="no-range-findings"]').count()).toBe(1);
+
+    await reviewer.locator('[data-test="comment-body"]').fill('Check the lever-rule wheel position over girder 1.');
+    await reviewer.getByText('About one value').click();
+    await choose(reviewer, 'anchor-girder', 'Girder 1');
+    await choose(reviewer, 'anchor-effect', 'moment');
+    await reviewer.locator('[data-test="send-comment"]').click();
+    await reviewer.locator('[data-test="comment-anchor"]', { hasText: 'girder 1, moment' }).waitFor();
+
+    await reviewer.locator('[data-test="refined-no"]').click();
+    await reviewer.locator('[data-test="refined-reason"]').fill('Every formula within its range; skew 20°, below 30°.');
+    await reviewer.locator('[data-test="record-refined"]').click();
+    await reviewer.locator('[data-test="refined-recorded"]').waitFor();
+    await reviewer.locator('[data-test="decision-note"]').fill('Answer the comment and reduce the left overhang.');
+    await h.screenshot('review-02-reviewer-page', reviewer);
+    await reviewer.locator('[data-test="send-back"]').click();
+    await reviewer.locator('[data-test="sent-back-banner"]').waitFor();
+    await reviewer.locator('[data-test="state-sent-back"]').first().waitFor();
+  });
+
+  it('the designer answers, saves version 2 and resubmits', async () => {
+    await designer.reload();
+    await designer.locator('[data-test="sent-back-banner"]').waitFor();
+    const comment = designer.locator('[data-test="comments"] > li').first();
+    await comment.locator('button', { hasText: 'Answer' }).click();
+    await designer.locator('[data-test="answer-body"]').fill('The outer wheel is 2 ft from the barrier face, over girder 1 (Art. 3.6.1.3.1). Overhang reduced in version 2.');
+    await designer.locator('[data-test="send-answer"]').click();
+    await designer.getByText('Overhang reduced in version 2.').waitFor();
+
+    const saved = await api<{ version: { number: number } }>(designer, 'POST', `/api/decks/${deckId}/versions`, { deck: { ...quarryCreekDeck(), name: DECK_NAME, overhangLeft: 0.9 }, message: 'left overhang reduced' });
+    expect(saved.body.version.number).toBe(2);
+    await designer.reload();
+    await designer.locator('[data-test="resubmit"]').click();
+    await designer.waitForURL(/\/reviews\/new\?/);
+    await designer.locator('[data-test="submit-version"]').getByText('Version 2').waitFor();
+    await designer.locator('[data-test="submit-reviewer"]').getByText('Ruth Castellanos').waitFor();
+    await designer.locator('[data-test="submit-review"]').click();
+    await designer.waitForURL((u) => /\/reviews\/\d+$/.test(u.pathname) && u.href !== firstReviewUrl);
+    expect(await designer.locator('[data-test="review-title"]').innerText()).toBe(`${DECK_NAME}, version 2`);
+  });
+
+  it('the reviewer approves version 2, which is then locked', async () => {
+    await reviewer.goto(h.url('/reviews'));
+    const row = reviewer.locator('[data-test="reviews-table"] tbody tr', { hasText: `${DECK_NAME}, version 2` });
+    await row.waitFor();
+    await row.locator('a').first().click();
+    await reviewer.locator('[data-test="refined-summary"]').waitFor();
+    expect(await reviewer.getByText('Earlier rounds of this deck').count()).toBe(1);
+    await reviewer.locator('[data-test="refined-no"]').click();
+    await reviewer.locator('[data-test="refined-reason"]').fill('Within every range; no refined analysis needed.');
+    await reviewer.locator('[data-test="record-refined"]').click();
+    await reviewer.locator('[data-test="refined-recorded"]').waitFor();
+    await reviewer.locator('[data-test="approve"]').click();
+    await reviewer.locator('.ant-popover .ant-btn-primary', { hasText: 'Approve' }).click();
+    await reviewer.locator('[data-test="approved-banner"]').waitFor();
+    expect(await reviewer.locator('[data-test="decision-panel"]').count()).toBe(0);
+    expect(await reviewer.locator('[data-test="comment-body"]').count()).toBe(0);
+    await h.screenshot('review-03-approved', reviewer);
+
+    const pdf = await reviewerContext.request.get(h.url(`/api/reports/decks/${deckId}/versions/2/package.pdf`));
+    expect(pdf.status()).toBe(200);
+    expect(pdf.headers()['content-type']).toBe('application/pdf');
+    expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+
+  it('the e-mail notices are in the admins’ outbox', async () => {
+    await signOut(designer);
+    await signIn(designer, h.baseUrl, DEMO_USERS.admin);
+    await designer.goto(h.url('/mail'));
+    const table = designer.locator('[data-test="outbox-table"]');
+    await table.locator('tbody tr.ant-table-row').first().waitFor();
+    const subjects = await table.locator('tbody tr.ant-table-row').allInnerTexts();
+    const joined = subjects.join('\n');
+    expect(joined).toContain(`Review requested: ${DECK_NAME}, version 1`);
+    expect(joined).toContain(`Sent back: ${DECK_NAME}, version 1`);
+    expect(joined).toContain(`Review requested: ${DECK_NAME}, version 2`);
+    expect(joined).toContain(`Approved: ${DECK_NAME}, version 2`);
+    expect(joined).toContain(DEMO_USERS.reviewer);
+    expect(joined).toContain(DEMO_USERS.designer);
+    await table.locator('a', { hasText: `Approved: ${DECK_NAME}, version 2` }).click();
+    const body = designer.locator('[data-test="message-body"]');
+    await body.waitFor();
+    expect(await body.innerText()).toContain('refined analysis not justified');
+    expect(await body.locator('a').first().getAttribute('href')).toMatch(new RegExp(`^${h.baseUrl}/reviews/\\d+$`));
+    await h.screenshot('review-04-outbox', designer);
+    // A 401 from the "who am I" check on the sign-in screen after signing out is expected.
+    expect(h.pageErrors.filter((e) => !/status of 401/.test(e))).toEqual([]);
+  });
+});

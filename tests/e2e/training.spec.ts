@@ -1,0 +1,143 @@
+/**
+ * A training exercise end to end in a real browser, instructor and trainee in two browser
+ * contexts: the instructor makes a "governing truck position" exercise from a saved deck
+ * version; the trainee drags the lane on the cross-section sketch, sets the wheels 2 ft from
+ * the barrier face, enters the factor and a step, and is graded; the instructor sees the grade;
+ * the notices are in the outbox. Screenshots go to tests/e2e/screenshots/.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, signIn, signOut, startHarness, type Harness } from './harness';
+import { quarryCreekDeck, quarryCreekUs } from '../fixtures/decks';
+
+const DECK_NAME = `Training deck ${Date.now()}`;
+// Hand calculation (AASHTO LRFD Art. 4.6.2.2.1 lever rule, Art. 3.6.1.3.1 wheel 2 ft from the
+// barrier face, Table 3.6.1.1.2-1 m = 1.20): de = 2 ft puts the outer wheel over girder 1.
+const S = quarryCreekUs.girders.spacing;
+const LEVER = 1.2 * 0.5 * (1 + (S - 6) / S);
+
+async function choose(page: Page, testId: string, text: string): Promise<void> {
+  await page.locator(`[data-test="${testId}"]`).click();
+  await page.locator('.ant-select-dropdown:not(.ant-select-dropdown-hidden) .ant-select-item-option', { hasText: text }).first().click();
+}
+
+/** An ant-design InputNumber's input, whether the test id lands on the input or its wrapper. */
+function numberField(page: Page, testId: string) {
+  return page.locator(`input[data-test="${testId}"], [data-test="${testId}"] input`).first();
+}
+
+describe('training exercise in the browser', () => {
+  let h: Harness;
+  let instructor: Page;
+  let traineeContext: BrowserContext;
+  let trainee: Page;
+  let profile: string;
+  let exerciseUrl: string;
+
+  beforeAll(async () => {
+    h = await startHarness({ env: { LOCAL_SMTP_PORT: '0' } });
+    instructor = h.page;
+    profile = await mkdtemp(join(tmpdir(), 'deckshare-e2e-trainee-'));
+    traineeContext = await chromium.launchPersistentContext(profile, { executablePath: CHROMIUM_PATH, headless: true, args: CHROMIUM_ARGS, viewport: { width: 1366, height: 900 }, locale: 'en-US', timezoneId: 'UTC' });
+    trainee = traineeContext.pages()[0] ?? (await traineeContext.newPage());
+    trainee.setDefaultTimeout(15_000);
+    trainee.on('pageerror', (e) => h.pageErrors.push(`trainee pageerror: ${e.message}`));
+  });
+
+  afterAll(async () => {
+    await traineeContext?.close().catch(() => undefined);
+    if (profile) await rm(profile, { recursive: true, force: true });
+    await h?.stop();
+  });
+
+  it('the instructor makes a truck-position exercise and assigns it', async () => {
+    await signIn(instructor, h.baseUrl, DEMO_USERS.instructor);
+    const made = await instructor.evaluate(async (deck) => {
+      const csrf = decodeURIComponent(document.cookie.split('; ').find((c) => c.startsWith('ds_csrf='))!.slice(8));
+      const projects = await (await fetch('/api/projects')).json();
+      const id = projects.projects.find((p: { name: string }) => p.name === 'Quarry Creek Overpass').id;
+      const res = await fetch(`/api/projects/${id}/decks`, { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf }, body: JSON.stringify({ deck, message: 'for the training session' }) });
+      return res.status;
+    }, { ...quarryCreekDeck(), name: DECK_NAME });
+    expect(made).toBe(201);
+
+    await instructor.goto(h.url('/training'));
+    await instructor.locator('[data-test="new-exercise"]').click();
+    await instructor.waitForURL(/\/training\/new$/);
+    await choose(instructor, 'exercise-project', 'Quarry Creek Overpass');
+    await choose(instructor, 'exercise-deck', DECK_NAME);
+    await instructor.locator('[data-test="exercise-version"]').getByText('Version 1').waitFor();
+    await choose(instructor, 'exercise-question', 'The governing truck position for the exterior girder');
+    await instructor.locator('[data-test="truck-params"]').waitFor();
+    await numberField(instructor, 'exercise-tolerance').fill('1');
+    await choose(instructor, 'exercise-trainees', 'Theo Brandt');
+    await instructor.locator('[data-test="exercise-instructions"]').fill('Place the wheels by the rules of Art. 3.6.1.3.1 and give the lever-rule factor.');
+    await h.screenshot('training-01-new-exercise', instructor);
+    await instructor.locator('[data-test="create-exercise"]').click();
+    await instructor.waitForURL(/\/training\/\d+$/);
+    exerciseUrl = instructor.url();
+    const expected = Number(await instructor.locator('[data-test="expected-value"]').innerText());
+    // Shown with 4 decimals: relative difference below 1e-4.
+    expect(Math.abs(expected - LEVER) / LEVER).toBeLessThan(1e-4);
+  });
+
+  it('the trainee places the truck, enters the factor and a step, and is graded', async () => {
+    await signIn(trainee, h.baseUrl, DEMO_USERS.trainee);
+    await trainee.goto(h.url('/training'));
+    const row = trainee.locator('[data-test="exercises-table"] tbody tr', { hasText: DECK_NAME.slice(0, 8) }).first();
+    await row.waitFor();
+    expect(await row.innerText()).toContain('to do');
+    await row.locator('a').first().click();
+    await trainee.waitForURL(exerciseUrl);
+    await trainee.locator('[data-test="placement-sketch"]').waitFor();
+
+    // Drag the lane as far left as it goes: it stops at the barrier face.
+    const lane = trainee.locator('[data-test="lane-0"]');
+    const box = (await lane.boundingBox())!;
+    await trainee.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await trainee.mouse.down();
+    await trainee.mouse.move(box.x - 500, box.y + box.height / 2, { steps: 8 });
+    await trainee.mouse.up();
+    await expect.poll(async () => Number(await numberField(trainee, 'lane-left-0').inputValue())).toBeCloseTo(-2, 3);
+    // Wheels 2 ft from the lane edge; the sketch refuses less (it clamps to the 2 ft rule).
+    const wheel = numberField(trainee, 'lane-wheel-0');
+    await wheel.fill('1');
+    await wheel.press('Tab');
+    await expect.poll(async () => Number(await wheel.inputValue())).toBeCloseTo(2, 3);
+
+    await numberField(trainee, 'answer-value').fill(LEVER.toFixed(3));
+    await trainee.locator('[data-test="add-step"]').click();
+    await trainee.locator('[data-test="step-label-0"]').fill('Lane share, outer wheel over girder 1');
+    await numberField(trainee, 'step-value-0').fill((LEVER / 1.2).toFixed(4));
+    await h.screenshot('training-02-answer', trainee);
+    await trainee.locator('[data-test="submit-answer"]').click();
+    const banner = trainee.locator('[data-test="grade-banner"]');
+    await banner.waitFor();
+    expect(await banner.innerText()).toContain('Within tolerance');
+    expect(await trainee.locator('[data-test="check-placement"]').innerText()).toContain('within');
+    await trainee.locator('[data-test="trace-comparison"] [data-test="step-matched"]').first().waitFor();
+    await h.screenshot('training-03-graded', trainee);
+  });
+
+  it('the instructor sees the grade; the notices are in the outbox', async () => {
+    await instructor.reload();
+    const table = instructor.locator('[data-test="submissions-table"]');
+    await table.locator('tbody tr', { hasText: 'Theo Brandt' }).waitFor();
+    expect(await table.innerText()).toContain('within tolerance');
+    await h.screenshot('training-04-instructor', instructor);
+
+    await signOut(instructor);
+    await signIn(instructor, h.baseUrl, DEMO_USERS.admin);
+    await instructor.goto(h.url('/mail'));
+    const outbox = instructor.locator('[data-test="outbox-table"]');
+    await outbox.locator('tbody tr.ant-table-row').first().waitFor();
+    const text = await outbox.innerText();
+    expect(text).toContain('New exercise: The governing truck position for the exterior girder');
+    expect(text).toContain('Passed: The governing truck position for the exterior girder');
+    expect(text).toContain(DEMO_USERS.trainee);
+    expect(h.pageErrors.filter((e) => !/status of 401/.test(e))).toEqual([]);
+  });
+});
