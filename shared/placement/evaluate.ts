@@ -20,8 +20,9 @@
  * on the lane's vehicle (so it lies in the lane for every legal wheel offset), applied only
  * over the lengths where it adds to the effect of the chosen sense (Art. 3.6.1.3.1). Across the
  * strip the surface is integrated exactly at its transverse stations when it is sampled,
- * else by Simpson's rule with 8 intervals; along the deck, at the sampled surface's stations
- * or at 200 equal intervals, with the sign changes of the strip integral located exactly.
+ * else by Simpson's rule with 4 intervals; along the deck, at the sampled surface's stations
+ * (exact for it) or at 100 equal intervals (trapezoids), with the sign changes of the strip
+ * integral located exactly.
  */
 import { multiplePresenceFactor } from '../lrfd/lanes.js';
 import type { Vehicle } from '../loads/vehicles.js';
@@ -171,11 +172,11 @@ export function laneLoadEffect(surface: SurfaceLike, centre: number, load: { sen
     };
   } else {
     const e = surface.extent;
-    const n = 200;
+    const n = 100;
     const arr = new Float64Array(n + 1);
     for (let i = 0; i <= n; i++) arr[i] = e.xMin + ((e.xMax - e.xMin) * i) / n;
     xs = arr;
-    const ny = 8;
+    const ny = 4;
     stripAt = (x: number) => {
       const h = (y1 - y0) / ny;
       let s = surface.at(x, y0) + surface.at(x, y1);

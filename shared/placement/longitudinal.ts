@@ -380,23 +380,32 @@ export function lineWorkspace(capacity = 64): LineWorkspace {
   };
 }
 
-/** Stations and zero crossings (when `withCrossings`) into w.X; returns their count. */
-function breakpointsInto(line: StationLine, withCrossings: boolean, w: LineWorkspace): number {
+/**
+ * Breakpoints into w.X; returns their count. With `positiveOnly`: the stations and zero
+ * crossings that touch an interval where the line is positive (the breakpoints of its
+ * positive part that are not inside a flat stretch of zero); else every station.
+ */
+function breakpointsInto(line: StationLine, positiveOnly: boolean, w: LineWorkspace): number {
   const X = line.xs;
   const V = line.values;
   const n = X.length;
-  const need = withCrossings ? 2 * n : n;
+  const need = positiveOnly ? 2 * n : n;
   if (w.capacity < need) Object.assign(w, lineWorkspace(2 * need));
   const out = w.X;
   let m = 0;
-  out[m++] = X[0];
-  for (let j = 1; j < n; j++) {
-    if (withCrossings) {
+  if (!positiveOnly) {
+    for (let j = 0; j < n; j++) out[m++] = X[j];
+    return m;
+  }
+  for (let j = 0; j < n; j++) {
+    if (j > 0) {
       const a = V[j - 1];
       const b = V[j];
       if ((a > 0 && b < 0) || (a < 0 && b > 0)) out[m++] = X[j - 1] + ((X[j] - X[j - 1]) * a) / (a - b);
     }
-    out[m++] = X[j];
+    const left = j > 0 && (V[j - 1] > 0 || V[j] > 0);
+    const right = j < n - 1 && (V[j + 1] > 0 || V[j] > 0);
+    if (V[j] > 0 || left || right) out[m++] = X[j];
   }
   return m;
 }
@@ -426,7 +435,10 @@ function sweep(xs: Float64Array, vs: Float64Array, X: Float64Array, m: number, c
 /**
  * The largest Σ W_a·max(0, ℓ(x_a)) (or Σ W_a·ℓ(x_a) with `countAdverse`) over every legal
  * position of the vehicle: exact, the same candidates as `bestVehicleOnLineReference`
- * (header, cases A and B). For a candidate family "axle a at breakpoint j" the other axles
+ * (header, cases A and B), less those with the axle on a breakpoint inside a flat stretch
+ * where max(0, ℓ) is zero: from such a vertex the axle can slide, with the effect linear in
+ * the slide, to another vertex without loss (the legal-domain boundary "an axle on the deck"
+ * is not active when the effect is positive, since a contributing axle is on the deck). For a candidate family "axle a at breakpoint j" the other axles
  * sit at X[j] + constant, so their ordinates come from forward sweeps, and the rear axle's
  * best ordinate over the interval its spacing sweeps comes from a sliding-window maximum
  * over the stations. Vehicles with several axles behind the gap use the plain form.
@@ -448,6 +460,12 @@ export function bestVehicleOnLine(
   const ns = xs.length;
   const m = breakpointsInto(line, positive, work);
   if (work.capacity < ns) Object.assign(work, lineWorkspace(2 * ns));
+  if (m === 0) {
+    // nothing positive anywhere: every legal position gives 0; the front axle at the deck's start is one
+    const d0 = directions[0];
+    const xf = d0 === 1 ? line.xMin : line.xMax;
+    return variable ? { value: 0, frontAxleAt: xf, direction: d0, axleSpacing: v.sMin } : { value: 0, frontAxleAt: xf, direction: d0 };
+  }
   const { X, acc, tmp, fLo, fHi, argX, deque } = work;
   const W = v.weights;
   const P = v.basePositions;

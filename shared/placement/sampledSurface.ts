@@ -117,6 +117,11 @@ export interface CheckPoints {
   column: Int32Array;
   /** Whether the point is inside an x-cell (feeds stations i and i+1) or on column i. */
   inCell: Uint8Array;
+  /** Cell of each point on the grid and its bilinear weights (the same for every surface). */
+  cellX: Int32Array;
+  cellY: Int32Array;
+  tx: Float64Array;
+  ty: Float64Array;
 }
 
 export function checkPoints(xs: Float64Array, ys: Float64Array): CheckPoints {
@@ -138,7 +143,22 @@ export function checkPoints(xs: Float64Array, ys: Float64Array): CheckPoints {
       if (j < ny - 1) px.push(xs[i]), py.push(ym), col.push(i), inc.push(0);
     }
   }
-  return { x: Float64Array.from(px), y: Float64Array.from(py), column: Int32Array.from(col), inCell: Uint8Array.from(inc) };
+  const x = Float64Array.from(px);
+  const y = Float64Array.from(py);
+  const n = x.length;
+  const cellX = new Int32Array(n);
+  const cellY = new Int32Array(n);
+  const tx = new Float64Array(n);
+  const ty = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const i = cellIndex(xs, x[k]);
+    const j = cellIndex(ys, y[k]);
+    cellX[k] = i;
+    cellY[k] = j;
+    tx[k] = (x[k] - xs[i]) / (xs[i + 1] - xs[i]);
+    ty[k] = (y[k] - ys[j]) / (ys[j + 1] - ys[j]);
+  }
+  return { x, y, column: Int32Array.from(col), inCell: Uint8Array.from(inc), cellX, cellY, tx, ty };
 }
 
 /**
@@ -183,7 +203,12 @@ export function sampledFromGrid(
     envelope = new Float64Array(nx);
     const p = check.points;
     for (let k = 0; k < p.x.length; k++) {
-      const d = Math.abs(check.values[k] - interp(p.x[k], p.y[k]));
+      const i0 = p.cellX[k];
+      const r0 = rows[p.cellY[k]];
+      const r1 = rows[p.cellY[k] + 1];
+      const a = r0[i0] + p.tx[k] * (r0[i0 + 1] - r0[i0]);
+      const b = r1[i0] + p.tx[k] * (r1[i0 + 1] - r1[i0]);
+      const d = Math.abs(check.values[k] - (a + p.ty[k] * (b - a)));
       if (d > err) err = d;
       const i = p.column[k];
       if (d > envelope[i]) envelope[i] = d;

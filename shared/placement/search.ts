@@ -53,14 +53,18 @@
  *    from the best set of k − 1 lanes ending at least w to its left) gives the best set of
  *    lanes on S, which by 3. is the best set overall; × m(k), and the largest over k.
  * 5. Laziness keeps it fast without changing the result: the DP first uses for each
- *    candidate an upper bound of g (H at the ends of a window replaced by the chord of H
- *    between the surrounding points of T, which bounds a convex function from above), then
- *    evaluates g exactly for the lanes of the current best set and repeats. When the best
- *    set uses exact values only, every other set's bound-valued total is at least its true
- *    total, so the set is optimal.
+ *    candidate an upper bound of g (H at the points of T replaced by a cheap bound — every
+ *    axle at the line's largest ordinate — until needed, and H at the ends of a window by the
+ *    chord of those values, which bounds a convex function from above), then evaluates g
+ *    exactly for the lanes of the current best set and repeats; a window's end is evaluated
+ *    only when its chord exceeds the best value already known for the lane. When the best set
+ *    uses exact values only, every other set's bound-valued total is at least its true total,
+ *    so the set is optimal.
  * Surfaces: the representation differs from the surface by at most ε at every point, so each
- * placement's effect differs by at most m·k·ΣW·ε; the search's placement, exact for the
- * representation, is therefore within 2·m·k·ΣW·ε of the best legal placement on the surface.
+ * placement's effect differs by at most m·k·ΣW·ε: the best legal placement on the surface is
+ * at most the sample's optimum V_s + m·k·ΣW·ε, and the placement found (whose sample value is
+ * V_s) has the true value V_t, so no legal placement beats it by more than
+ * V_s − V_t + m·k·ΣW·ε ≤ 2·m·k·ΣW·ε.
  */
 import type { Vehicle } from '../loads/vehicles.js';
 import { evaluateSurface, evaluateTransverse, type PlacementEffect, type Sense } from './evaluate.js';
@@ -276,15 +280,20 @@ function searchLaneSets<D>(rules: PlacementRules, objective: LaneObjective<D>, l
         u = T[j];
       }
     }
-    const ha = H(alpha[i]).value;
-    if (ha > best || !Number.isFinite(best)) {
-      best = ha;
-      u = alpha[i];
+    // An end whose chord bound cannot beat what is known needs no evaluation (H ≤ chord).
+    if (!Number.isFinite(best) || chord(alpha[i]) > best) {
+      const ha = H(alpha[i]).value;
+      if (ha > best || !Number.isFinite(best)) {
+        best = ha;
+        u = alpha[i];
+      }
     }
-    const hb = H(beta[i]).value;
-    if (hb > best) {
-      best = hb;
-      u = beta[i];
+    if (chord(beta[i]) > best) {
+      const hb = H(beta[i]).value;
+      if (hb > best) {
+        best = hb;
+        u = beta[i];
+      }
     }
     val[i] = best;
     bestWheel[i] = Math.min(beta[i], Math.max(alpha[i], u));
@@ -562,8 +571,10 @@ export function governingSurfacePlacement(
     return { loadedLanes: r.k, multiplePresence: effect.multiplePresence, value: effect.value, placement, effect };
   });
   const g = pickGoverning(sense, byLaneCount);
-  // Per lane count: what a legal placement on the surface could add beyond the one found.
-  const gaps = byLaneCount.map((r) => 2 * r.multiplePresence * r.loadedLanes * shape.totalWeight * eps);
+  // Per lane count: what a legal placement on the surface could add beyond the one found. No
+  // placement exceeds the sample's optimum on the surface by more than m·k·ΣW·ε, and the
+  // sample's optimum exceeds the found placement's true value by what was just measured.
+  const gaps = byLaneCount.map((r, i) => Math.max(0, r.multiplePresence * results[i].total - sgn * r.value) + r.multiplePresence * r.loadedLanes * shape.totalWeight * eps);
   let method = 'plain';
   const env = surface.errorEnvelope;
   if (env && eps > 0 && Math.max(...gaps) > (options.tightenAbove ?? 0.005) * Math.abs(g.value)) {
@@ -591,7 +602,7 @@ export function governingSurfacePlacement(
         : 'exact for the sampled representation (bilinear on the station grid); the representation error was not measured'
       : method === 'raised'
         ? `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (search of the sample raised by its measured error envelope)`
-        : `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (2·m·k·ΣW·ε, ε = ${eps.toPrecision(3)} per unit force)`;
+        : `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (m·k·ΣW·ε plus the sample's excess at the placement found, ε = ${eps.toPrecision(3)} per unit force)`;
   return {
     ...g,
     sense,
