@@ -17,6 +17,7 @@ import type {
   GirderEnvelopeSeries,
   GoverningSummary,
   LiveShares,
+  RefinedSummary,
   StudyEffect,
   StudySummary,
   SurfaceGrid,
@@ -62,6 +63,8 @@ export function useSolverWorker(factory: WorkerFactory = defaultFactory) {
   /** The same for the fatigue truck (one lane, no multiple presence), for the comparison. */
   const fatigue = shallowRef<Record<StudyEffect, (GoverningSummary | undefined)[]>>({ moment: [], shear: [] });
   const live = shallowRef<LiveShares | null>(null);
+  /** The refined factors of every girder, effect and span, with the comparison to the code. */
+  const refined = shallowRef<RefinedSummary | null>(null);
   /** Recent evaluation times in the worker, ms (newest last, at most 200). */
   const evaluateTimes = ref<number[]>([]);
 
@@ -116,7 +119,10 @@ export function useSolverWorker(factory: WorkerFactory = defaultFactory) {
 
   function onLongJobMessage(m: SolverMessage): void {
     if (m.type === 'progress') progress.value = { phase: m.phase, fraction: m.fraction };
-    else if (m.type === 'analysis') analysis.value = m.analysis;
+    else if (m.type === 'analysis') {
+      analysis.value = m.analysis;
+      refined.value = null;
+    } else if (m.type === 'refined') refined.value = m.refined;
     else if (m.type === 'study') {
       study.value = m.study;
       governing.value = { moment: [], shear: [] };
@@ -271,6 +277,7 @@ export function useSolverWorker(factory: WorkerFactory = defaultFactory) {
     study,
     governing,
     fatigue,
+    refined,
     live,
     evaluateTimes,
     run,

@@ -51,6 +51,9 @@ async function handle(req: SolverRequest): Promise<void> {
       post({ id, type: 'study', study });
       await ctx.checkpoint();
       const all = await session.governingAll(ctx, (item) => post({ id, type: 'governing-item', item }));
+      ctx.progress('refined factors of every girder, effect and span', 0.95);
+      await ctx.checkpoint();
+      post({ id, type: 'refined', refined: session.refinedComparison() });
       post({ id, type: 'done', result: all });
       return;
     }
@@ -61,6 +64,8 @@ async function handle(req: SolverRequest): Promise<void> {
       post({ id, type: 'study', study });
       await ctx.checkpoint();
       const all = await session.governingAll(ctx, (item) => post({ id, type: 'governing-item', item }));
+      await ctx.checkpoint();
+      post({ id, type: 'refined', refined: session.refinedComparison() });
       post({ id, type: 'done', result: all });
       return;
     }

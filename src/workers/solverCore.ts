@@ -39,6 +39,8 @@ import { influenceLine, maxVehicleEffect, type BeamModel } from '../../shared/lo
 import { hl93BeamLineEffects, type BeamLineEffects } from '../../shared/loads/beamLine';
 import { girderLiveLoadEffects } from '../../shared/loads/girderEffects';
 import { deckGirderEffects } from '../../shared/loads/deckEffects';
+import { REFINED_SEGMENTS_PER_SPAN, computeRefinedFactors, grillageStations, type RefinedResult } from '../../shared/grillage/refinedFactors';
+import { compareFactors, type FactorComparison } from '../../shared/grillage/compare';
 
 export type VehicleKey = 'design truck' | 'design tandem' | 'fatigue truck';
 export type StudyEffect = 'moment' | 'shear';
@@ -67,8 +69,15 @@ export interface WorkContext {
 export const QUIET_CONTEXT: WorkContext = { progress: () => undefined, checkpoint: async () => undefined };
 
 export interface AnalyseOptions {
-  /** Grillage segments per span (default 20; a finer mesh is slower). */
+  /** Grillage segments per span (default the refined run's 40; a finer mesh is slower). */
   segmentsPerSpan?: number;
+}
+
+/** The refined factors of every girder, effect and span, and their comparison with the code's. */
+export interface RefinedSummary {
+  refined: RefinedResult;
+  comparison: FactorComparison;
+  elapsedMs: number;
 }
 
 export interface GrillageSummary {
@@ -204,6 +213,7 @@ export class SolverSession {
     sampled: Record<StudyEffect, SampledSurface[]>;
   } | null = null;
   private governingCache = new Map<string, GoverningSummary>();
+  private refinedCache: RefinedSummary | null = null;
   /** E₁ of the fatigue truck at the studied points (the fatigue rows of the comparison). */
   private fatigueBeamLineMax: Record<StudyEffect, number> = { moment: 0, shear: 0 };
 
@@ -216,6 +226,7 @@ export class SolverSession {
     this.deck = null;
     this.model = null;
     this.studyState = null;
+    this.refinedCache = null;
     this.governingCache.clear();
     const deck = assertDeck(input);
     ctx.progress('code factors', 0.02);
@@ -225,7 +236,7 @@ export class SolverSession {
     const rules = placementRulesForDeck(deck);
     await ctx.checkpoint();
     ctx.progress('grillage mesh and factorisation', 0.1);
-    const segmentsPerSpan = options.segmentsPerSpan ?? 20;
+    const segmentsPerSpan = options.segmentsPerSpan ?? REFINED_SEGMENTS_PER_SPAN;
     const model = buildGrillage(deck, { segmentsPerSpan });
     const t2 = now();
     await ctx.checkpoint();
@@ -277,27 +288,6 @@ export class SolverSession {
     return this.studyState;
   }
 
-  /** Sampling stations: every mesh node x and the midpoints between them; every line y, the curb faces and quarter points of each bay. */
-  private stations(model: GrillageModel, rules: PlacementRules): { xs: number[]; ys: number[] } {
-    const e = model.extent;
-    const xsRaw = Array.from(new Set(model.mesh.nodes.map((n) => Math.round(n.x * 1e6) / 1e6))).sort((a, b) => a - b);
-    const xs: number[] = [];
-    for (let i = 0; i < xsRaw.length; i++) {
-      xs.push(xsRaw[i]);
-      if (i + 1 < xsRaw.length) xs.push((xsRaw[i] + xsRaw[i + 1]) / 2);
-    }
-    xs.push(e.xMin, e.xMax);
-    const lineYs = model.mesh.lines.map((l) => l.y).sort((a, b) => a - b);
-    const ys: number[] = [e.yMin, e.yMax, rules.curbLeft, rules.curbRight, ...lineYs];
-    const edges = [e.yMin, ...lineYs, e.yMax];
-    for (let i = 0; i + 1 < edges.length; i++) {
-      const a = edges[i];
-      const b = edges[i + 1];
-      for (const t of [0.25, 0.5, 0.75]) ys.push(a + (b - a) * t);
-    }
-    return { xs, ys };
-  }
-
   /** Influence surfaces of every girder's moment and shear for one span and vehicle. */
   async study(span: number, vehicleKey: VehicleKey, ctx: WorkContext = QUIET_CONTEXT): Promise<StudySummary> {
     const { deck, model, rules } = this.need();
@@ -317,7 +307,11 @@ export class SolverSession {
     const surfaces = influenceSurfaces(model, responses);
     await ctx.checkpoint();
     const raw = { moment: surfaces.slice(0, Nb), shear: surfaces.slice(Nb) };
-    const st = this.stations(model, rules);
+    // The refined run's station grid (every node line, the support crossings either side of
+    // the shear's jump, the moment point), so the governing values agree with its factors.
+    const spanLengths = deck.spans.map((s) => s.length);
+    const studiedX = spanLengths.slice(0, span).reduce((a, b) => a + b, 0) + fraction * spanLengths[span];
+    const st = grillageStations(model, rules, {}, [studiedX]);
     const sampled: Record<StudyEffect, SampledSurface[]> = { moment: [], shear: [] };
     // Every sample's representation error is measured, so that each governing placement's
     // tolerance statement is a true bound (shared/placement/search.ts).
@@ -484,6 +478,22 @@ export class SolverSession {
       }
     }
     return out;
+  }
+
+  /**
+   * The refined (grillage) factors of every girder, effect and span — design truck, and the
+   * fatigue truck for fatigue (shared/grillage/refinedFactors.ts, on the session's model) —
+   * and their comparison with the code's factors (shared/grillage/compare.ts). Computed once
+   * per analysed deck.
+   */
+  refinedComparison(): RefinedSummary {
+    if (this.refinedCache) return this.refinedCache;
+    const { deck, model, code } = this.need();
+    const t0 = now();
+    const refined = computeRefinedFactors(deck, { model });
+    const comparison = compareFactors(code, refined);
+    this.refinedCache = { refined, comparison, elapsedMs: now() - t0 };
+    return this.refinedCache;
   }
 
   /** An influence surface on a regular grid, for the heat map. */

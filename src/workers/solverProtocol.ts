@@ -13,6 +13,7 @@ import type {
   GirderEnvelopeSeries,
   GoverningSummary,
   LiveShares,
+  RefinedSummary,
   StudyEffect,
   StudySummary,
   SurfaceGrid,
@@ -40,6 +41,7 @@ export type SolverMessage =
   | { id: number; type: 'analysis'; analysis: AnalysisSummary }
   | { id: number; type: 'study'; study: StudySummary }
   | { id: number; type: 'governing-item'; item: GoverningSummary }
+  | { id: number; type: 'refined'; refined: RefinedSummary }
   | { id: number; type: 'done'; result: unknown }
   | { id: number; type: 'error'; error: SolverErrorInfo };
 
