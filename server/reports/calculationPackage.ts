@@ -359,7 +359,6 @@ function comparisonRows(data: ReportData): { rows: string[][]; bold: Set<number>
     const k = `${r.girderKind}|${r.effect}|${r.location.key}|${r.lanes}`;
     (groups.get(k) ?? groups.set(k, []).get(k)!).push(r);
   }
-  const refined = data.summary.refined;
   for (const list of groups.values()) {
     const r0 = list[0];
     const by = (m: string) => {
@@ -367,11 +366,9 @@ function comparisonRows(data: ReportData): { rows: string[][]; bold: Set<number>
       return hits.length ? hits.map((h) => `${factor(h.value)}${h.adopted ? ' *' : ''}`).join(' / ') : '—';
     };
     const other = list.filter((r) => !['formula', 'lever-rule', 'rigid-section'].includes(r.method));
-    let grillage = '—';
-    if (refined.available && (r0.effect === 'moment' || r0.effect === 'shear')) {
-      const ofKind = refined.ratios.filter((x) => x.girderKind === r0.girderKind && x.effect === r0.effect && x.location === r0.location.description);
-      if (ofKind.length) grillage = factor(Math.max(...ofKind.map((x) => x.refined)));
-    }
+    // The grillage value of the same lane case: the largest over the girders of this kind.
+    const same = (data.refinedRows ?? []).filter((g) => g.girderKind === r0.girderKind && g.effect === r0.effect && g.location.key === r0.location.key && g.lanes === r0.lanes);
+    const grillage = same.length ? factor(Math.max(...same.map((g) => g.value))) : '—';
     const adopted = list.find((r) => r.adopted);
     if (list.some((r) => r.governing)) bold.add(rows.length);
     rows.push([

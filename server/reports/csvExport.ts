@@ -1,16 +1,13 @@
 /**
  * CSV exports of a deck version: the factor table (every code-method row, then the refined
- * rows where a grillage result is stored) and the girder HL-93 LL+IM envelopes. Values are
+ * rows of the grillage, stored with the version or computed) and the girder HL-93 LL+IM envelopes. Values are
  * written at full precision in the project's unit system (the header names each column's
  * unit); the last line carries the caution.
  */
 import Papa from 'papaparse';
 import { toUs, unitSymbol, toDisplay, type QuantityKind, type UnitSystem } from '../../shared/units.js';
 import type { ReportData } from './reportData.js';
-import { refinedResultsOf } from '../api/reviews/refinedResults.js';
 import { factorArticle } from '../api/reviews/versionResults.js';
-import type { Db } from '../db/client.js';
-import type { DeckVersionRow } from '../db/schema.js';
 
 export const CSV_CAUTION = '# Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
 
@@ -22,7 +19,7 @@ function csv(rows: (string | number | boolean | null)[][]): string {
   return Papa.unparse(rows.map((r) => r.map((c) => (c === null ? '' : typeof c === 'number' ? String(c) : String(c)))), { newline: '\r\n' }) + `\r\n${JSON.stringify(CSV_CAUTION)}\r\n`;
 }
 
-export function factorsCsv(db: Db, version: DeckVersionRow, data: ReportData): string {
+export function factorsCsv(data: ReportData): string {
   const u = data.units;
   const len = (m: number | undefined) => (m === undefined ? null : Number((u === 'US' ? toUs.ft(m) : m).toPrecision(12)));
   const header = ['row_id', 'girder', 'girder_number', 'effect', 'location', `span_length_${u === 'US' ? 'ft' : 'm'}`, 'lanes', 'loaded_lanes', 'method', 'value_before_skew', 'skew_factor', 'value', 'adopted', 'governing', 'article', 'findings'];
@@ -47,9 +44,8 @@ export function factorsCsv(db: Db, version: DeckVersionRow, data: ReportData): s
       r.findings.map((f) => f.message).join(' | '),
     ]);
   }
-  const refined = refinedResultsOf(db, version);
-  for (const f of refined.factors ?? []) {
-    rows.push([`refined/${f.girder}/${f.effect}/${f.locationKey}`, f.girder === 1 || f.girder === data.code.derived.girderCount ? 'exterior' : 'interior', f.girder, f.effect, f.location, null, f.lanes, null, 'grillage', f.value, 1, f.value, false, false, refined.source, '']);
+  for (const g of data.refinedRows ?? []) {
+    rows.push([g.id, g.girderKind, g.girderNumber ?? null, g.effect, g.location.description, len(g.location.spanLength), g.lanes, g.loadedLanes ?? null, g.method, g.baseValue, g.skewFactor, g.value, g.adopted, g.governing, data.summary.refined.source, g.findings.map((f) => f.message).join(' | ')]);
   }
   return csv(rows);
 }

@@ -9,7 +9,8 @@ import type { Db } from '../db/client.js';
 import { decks, deckVersions, projects, reviewRounds, users } from '../db/schema.js';
 import { ApiError } from '../middleware/errors.js';
 import type { Deck } from '../../shared/deck/schema.js';
-import type { CodeFactorResult } from '../../shared/lrfd/index.js';
+import type { CodeFactorResult, FactorRow } from '../../shared/lrfd/index.js';
+import { refinedResultsOf } from '../api/reviews/refinedResults.js';
 import type { UnitSystem } from '../../shared/units.js';
 import { codeResultsOf, deckOf } from '../api/reviews/versionResults.js';
 import { refinedSummaryOf, type RefinedSummary } from '../api/reviews/refinedSummary.js';
@@ -32,6 +33,8 @@ export interface ReportData {
   solverVersion: string;
   resultSource: 'stored' | 'computed';
   summary: RefinedSummary;
+  /** Every refined (grillage) row, each lane case, or null when there is none. */
+  refinedRows: FactorRow[] | null;
   envelopes: GirderEnvelopes[];
 }
 
@@ -80,6 +83,7 @@ export function reportData(db: Db, firmId: number, deckId: number, versionNumber
     solverVersion: code.solverVersion,
     resultSource: code.source,
     summary: refinedSummaryOf(db, row.v),
+    refinedRows: refinedResultsOf(db, row.v).rows,
     envelopes: girderEnvelopes(input, code.result),
   };
 }

@@ -100,7 +100,7 @@ export interface RefinedSummary {
     available: boolean;
     note: string;
     source: string;
-    ratios: { girder: number; girderKind: string; effect: string; location: string; refined: number; code: number; ratio: number }[];
+    ratios: { girder: number; girderKind: string; effect: string; locationKey: string; location: string; refined: number; code: number; ratio: number }[];
     momentReductions: { girder: number; girderKind: string; location: string; code: number; refined: number; perLaneMoment: number; codeMoment: number; refinedMoment: number; reduction: number; reductionPercent: number }[];
     largestReduction: { girder: number; girderKind: string; location: string; reductionPercent: number; reduction: number } | null;
   };

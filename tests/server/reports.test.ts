@@ -21,6 +21,7 @@ let deckId: number;
 let projectId: number;
 let codeRows: { id: string; value: number; adopted: boolean; governing: boolean }[];
 let governing: { girder: string; effect: string; value: number }[];
+let reviewId: number;
 
 function binary(res: { on(e: string, f: (c?: Buffer) => void): void }, cb: (e: Error | null, b: Buffer) => void) {
   const chunks: Buffer[] = [];
@@ -51,6 +52,7 @@ beforeAll(async () => {
   const round = await send.post(designer, '/api/reviews', { versionId: created.body.version.id, reviewerId: userId(ctx, demo.reviewer) });
   await send.put(reviewer, `/api/reviews/${round.body.review.id}/refined-analysis`, { justified: false, reason: 'Every formula within its range; skew below 30°.' });
   await send.post(reviewer, `/api/reviews/${round.body.review.id}/decision`, { outcome: 'approve', note: '' });
+  reviewId = round.body.review.id;
   const code = (await designer.get(`/api/decks/${deckId}/versions/1`)).body.version.results.find((r: { method: string }) => r.method === 'code').data;
   codeRows = code.factors;
   governing = code.governing;
@@ -118,8 +120,8 @@ describe('CSV exports', () => {
     const res = await reviewer.get(`/api/reports/decks/${deckId}/versions/1/factors.csv`);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toContain('text/csv');
-    const rows = readCsv(res.text);
-    expect(rows).toHaveLength(codeRows.length);
+    const all = readCsv(res.text);
+    const rows = all.slice(0, codeRows.length);
     rows.forEach((r, i) => {
       expect(r.row_id).toBe(codeRows[i].id);
       expect(Number(r.value)).toBe(codeRows[i].value);
@@ -127,6 +129,24 @@ describe('CSV exports', () => {
       expect(r.governing).toBe(String(codeRows[i].governing));
     });
     expect(Number(rows[0].span_length_ft)).toBe(110);
+
+    // Then the grillage rows: the largest of each girder, effect and place is the refined
+    // factor the review summary reports (API), exactly.
+    const grillage = all.slice(codeRows.length);
+    expect(grillage.length).toBeGreaterThan(0);
+    expect(grillage.every((r) => r.method === 'grillage')).toBe(true);
+    const summary = (await reviewer.get(`/api/reviews/${reviewId}`)).body.summary;
+    expect(summary.refined.available).toBe(true);
+    expect(summary.refined.ratios.length).toBe(6 * 2);
+    for (const ratio of summary.refined.ratios) {
+      const mine = grillage.filter((r) => Number(r.girder_number) === ratio.girder && r.effect === ratio.effect && r.row_id.includes(`/${ratio.locationKey}/`));
+      expect(Math.max(...mine.map((r) => Number(r.value))), `${ratio.girder} ${ratio.effect}`).toBe(ratio.refined);
+      expect(ratio.ratio).toBeRelativelyClose(ratio.refined / ratio.code, 1e-12);
+    }
+    // Symmetry of the symmetric deck: girder 1 and girder 6 have the same refined factors.
+    const at = (g: number, e: string) => summary.refined.ratios.find((x: { girder: number; effect: string }) => x.girder === g && x.effect === e).refined;
+    expect(at(1, 'moment')).toBeRelativelyClose(at(6, 'moment'), 1e-6);
+    expect(at(2, 'shear')).toBeRelativelyClose(at(5, 'shear'), 1e-6);
   });
 
   it('the envelopes re-read to the API’s factors and the hand-calculated HL-93 midspan moment', async () => {

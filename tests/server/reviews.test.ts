@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { reviewComments, reviewRounds } from '../../server/db/schema.js';
 import { quarryCreekDeck } from '../fixtures/decks.js';
+import { fromUs } from '../../shared/units.js';
 import { demo, signIn, type Agent } from './helpers.js';
 import { addUser, makeWorkflowApp, otherFirm, outbox, send, userId, type WorkflowContext } from './workflowHelpers.js';
 
@@ -131,6 +132,36 @@ describe('the review round trip', () => {
     const audit = await designer.get(`/api/projects/${projectId}/audit`);
     const reviewActions = audit.body.entries.filter((e: { entityType: string }) => e.entityType === 'review').map((e: { action: string }) => e.action).reverse();
     expect(reviewActions).toEqual(['submit', 'comment', 'comment', 'comment', 'return', 'comment', 'submit', 'refined-decision', 'change', 'approve']);
+  });
+});
+
+describe('the refined-analysis summary', () => {
+  it('reports the skew effect, refined/code ratios and the possible moment reduction', async () => {
+    const { versionId } = await newDeck(designer, 'Summary deck');
+    const r = (await send.post(designer, '/api/reviews', { versionId, reviewerId })).body.review;
+    const { summary } = (await reviewer.get(`/api/reviews/${r.id}`)).body;
+    expect(summary.rangeFindings).toEqual([]);
+    // Skew 20°: no moment reduction below 30° (Table 4.6.2.2.2e-1), a shear increase
+    // (Table 4.6.2.2.3c-1): every skew effect listed is a shear or reaction increase.
+    expect(summary.skew.effects.length).toBeGreaterThan(0);
+    for (const e of summary.skew.effects) {
+      expect(['shear', 'reaction']).toContain(e.effect);
+      expect(e.skewFactor).toBeGreaterThan(1);
+      expect(e.value).toBeRelativelyClose(e.baseValue * e.skewFactor, 1e-12);
+    }
+    expect(summary.refined.available).toBe(true);
+    // The per-lane HL-93 LL+IM moment at midspan of the 110 ft simple span, by hand
+    // (Art. 3.6.1.2.2 truck with the middle axle at midspan: 32·27.5 + 32·20.5 + 8·20.5 kip·ft,
+    // IM 33 % per Art. 3.6.2.1; lane load 0.64·110²/8 per Art. 3.6.1.2.4).
+    const perLane = fromUs.kipFt(1.33 * (32 * 27.5 + 32 * 20.5 + 8 * 20.5) + (0.64 * 110 ** 2) / 8);
+    for (const m of summary.refined.momentReductions) {
+      expect(m.perLaneMoment).toBeRelativelyClose(perLane, 1e-6);
+      expect(m.codeMoment).toBeRelativelyClose(m.code * perLane, 1e-9);
+      expect(m.reductionPercent).toBeRelativelyClose(((m.code - m.refined) / m.code) * 100, 1e-9);
+    }
+    expect(summary.refined.momentReductions).toHaveLength(6);
+    expect(summary.refined.largestReduction).not.toBeNull();
+    expect(summary.indicators.join(' ')).toContain('would lower the governing');
   });
 });
 

@@ -1,14 +1,21 @@
 /**
  * Refined (grillage) distribution factors of a version, per girder, for comparison with the
- * code's factors. They come from the result stored with the version under method 'grillage':
- * factor rows in the code engine's row shape (`FactorRow`, method 'grillage', with the girder
- * number), either as `{ factors: FactorRow[] }` or as a bare list.
+ * code's factors. They come from the result stored with the version under method 'grillage'
+ * (the shared solver's `RefinedResult`, whose `rows` are factor rows of method 'grillage' with
+ * the girder number; a bare list of rows or `{ factors: FactorRow[] }` is read too). When none
+ * is stored they are computed here with the shared solver (computeRefinedFactors, AASHTO LRFD
+ * Art. 4.6.3.3) and kept in memory per version and solver version, not written: storing
+ * results is the deck service's job.
  * Units: dimensionless factors (lanes per girder).
  */
 import type { Db } from '../../db/client.js';
 import type { DeckVersionRow } from '../../db/schema.js';
 import type { FactorRow } from '../../../shared/lrfd/index.js';
-import { storedResult } from './versionResults.js';
+import { deckOf, storedResult } from './versionResults.js';
+import { DeckInputError } from '../../../shared/deck/schema.js';
+import { GrillageMechanismError } from '../../../shared/grillage/errors.js';
+import { computeRefinedFactors } from '../../../shared/grillage/refinedFactors.js';
+import { SOLVER_VERSION } from '../../../shared/version.js';
 
 export interface RefinedFactor {
   /** Girder number, 1 = left exterior. */
@@ -23,13 +30,17 @@ export interface RefinedFactor {
 }
 
 export interface RefinedResults {
+  /** The governing refined factor per girder, effect and location. */
   factors: RefinedFactor[] | null;
+  /** Every refined row (each lane case), method 'grillage'. */
+  rows: FactorRow[] | null;
   source: string;
   note: string;
 }
 
 function rowsOf(data: unknown): FactorRow[] | null {
-  const list = Array.isArray(data) ? data : typeof data === 'object' && data !== null && Array.isArray((data as { factors?: unknown }).factors) ? (data as { factors: unknown[] }).factors : null;
+  const o = typeof data === 'object' && data !== null ? (data as { rows?: unknown; factors?: unknown }) : {};
+  const list = Array.isArray(data) ? data : Array.isArray(o.rows) ? o.rows : Array.isArray(o.factors) ? o.factors : null;
   if (!list) return null;
   const rows = list.filter(
     (r): r is FactorRow =>
@@ -42,15 +53,25 @@ function rowsOf(data: unknown): FactorRow[] | null {
  * The governing refined factor of each girder, effect and location (the largest over the
  * lane cases), or null with the reason when the version has none.
  */
-export function refinedResultsOf(db: Db, v: DeckVersionRow): RefinedResults {
-  const stored = storedResult(db, v.id, 'grillage');
-  if (!stored) {
-    return { factors: null, source: '', note: 'No grillage (refined) analysis is stored with this version: the refined/code ratios and the possible moment reduction appear once the designer saves the version with a grillage result.' };
+const computed = new Map<string, { rows: FactorRow[] } | { error: string }>();
+
+function computeRows(v: DeckVersionRow): { rows: FactorRow[] } | { error: string } {
+  const key = `${v.id}|${SOLVER_VERSION}`;
+  let hit = computed.get(key);
+  if (!hit) {
+    try {
+      hit = { rows: computeRefinedFactors(deckOf(v)).rows };
+    } catch (e) {
+      if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
+      hit = { error: e.message };
+    }
+    if (computed.size >= 64) computed.delete(computed.keys().next().value!);
+    computed.set(key, hit);
   }
-  const rows = rowsOf(stored.data);
-  if (!rows || rows.length === 0) {
-    return { factors: null, source: `grillage, solver ${stored.solverVersion}`, note: 'The stored grillage result holds no factor rows that can be compared.' };
-  }
+  return hit;
+}
+
+function governingPerGirder(rows: FactorRow[]): RefinedFactor[] {
   const best = new Map<string, RefinedFactor>();
   for (const r of rows) {
     const girder = typeof r.girder === 'number' ? r.girder : r.girderNumber;
@@ -61,5 +82,21 @@ export function refinedResultsOf(db: Db, v: DeckVersionRow): RefinedResults {
       best.set(key, { girder, effect: r.effect, locationKey: r.location.key, location: r.location.description, ...(r.location.span !== undefined ? { span: r.location.span } : {}), lanes: r.lanes, value: r.value });
     }
   }
-  return { factors: [...best.values()].sort((a, b) => a.girder - b.girder || a.effect.localeCompare(b.effect)), source: `grillage, solver ${stored.solverVersion}`, note: '' };
+  return [...best.values()].sort((a, b) => a.girder - b.girder || a.effect.localeCompare(b.effect));
+}
+
+/**
+ * The governing refined factor of each girder, effect and location (the largest over the
+ * lane cases), or null with the reason when there is none.
+ */
+export function refinedResultsOf(db: Db, v: DeckVersionRow): RefinedResults {
+  const stored = storedResult(db, v.id, 'grillage');
+  if (stored) {
+    const rows = rowsOf(stored.data);
+    if (!rows || rows.length === 0) return { factors: null, rows: null, source: `grillage stored with the version, solver ${stored.solverVersion}`, note: 'The stored grillage result holds no factor rows that can be compared.' };
+    return { factors: governingPerGirder(rows), rows, source: `grillage stored with the version, solver ${stored.solverVersion}`, note: '' };
+  }
+  const out = computeRows(v);
+  if ('error' in out) return { factors: null, rows: null, source: '', note: `No grillage result is stored with this version, and the grillage could not be built for it: ${out.error}` };
+  return { factors: governingPerGirder(out.rows), rows: out.rows, source: `grillage computed from the version (solver ${SOLVER_VERSION})`, note: '' };
 }

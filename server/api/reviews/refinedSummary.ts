@@ -45,6 +45,8 @@ export interface RatioRow {
   girder: number;
   girderKind: GirderKind;
   effect: 'moment' | 'shear';
+  /** Location key of the code result ("span1"). */
+  locationKey: string;
   location: string;
   refined: number;
   code: number;
@@ -148,7 +150,7 @@ export function refinedSummaryOf(db: Db, v: DeckVersionRow): RefinedSummary {
       if (f.effect !== 'moment' && f.effect !== 'shear') continue;
       const c = codeFactorForGirder(code, f.girder, count, f.effect, f.locationKey);
       if (!c || c.value <= 0) continue;
-      ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value });
+      ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value });
     }
     for (const f of refined.factors.filter((x: RefinedFactor) => x.effect === 'moment')) {
       const c = codeFactorForGirder(code, f.girder, count, 'moment', f.locationKey);
