@@ -1,13 +1,16 @@
 /**
  * Command-line tool: validate a deck file and print its code-method distribution factors.
  *
- *   npm run factors -- <deck.json> [--json]
+ *   npm run factors -- <deck.json> [--json] [--refined]
  *
  * The deck file is JSON: { "units": "US" | "SI", "deck": { …deck fields… } } (the deck
  * fields may also sit beside "units" at the top level). Values are in the display units of
  * the stated system (US: ft, in, in², in⁴, ksi, kcf; SI: m, mm, mm², mm⁴, MPa, kN/m³).
  * Without --json it prints the governing factors, every factor row and the findings; with
  * --json a document { deck, units, caution, derived, factors, governing, findings, trace }.
+ * --refined adds the grillage analysis: rows of method "grillage" per girder number in the
+ * factor list (and table), and the governing placement of each (lane edges, wheel lines,
+ * axle positions, the effect, the factor, the stated bound), in the document's `refined`.
  * A bad file prints each offending field path and rule and exits with code 1 (2 for a
  * usage error); no stack trace is printed.
  */
@@ -15,6 +18,7 @@ import { readFileSync } from 'node:fs';
 import {
   assertDeck,
   computeCodeFactors,
+  computeRefinedFactors,
   deckFromDisplay,
   DeckInputError,
   toDisplay,
@@ -22,7 +26,9 @@ import {
   type CodeFactorResult,
   type FactorRow,
   type QuantityKind,
+  type RefinedResult,
   type UnitSystem,
+  WHEEL_GAUGE,
 } from '../../shared/index.js';
 
 class CliError extends Error {
@@ -66,13 +72,14 @@ export function readDeckFile(text: string): DeckFile {
   return { units, deck, prefix: '' };
 }
 
-function parseArgs(argv: string[]): { file: string; json: boolean } {
+function parseArgs(argv: string[]): { file: string; json: boolean; refined: boolean } {
   const json = argv.includes('--json');
-  const rest = argv.filter((a) => a !== '--json');
+  const refined = argv.includes('--refined');
+  const rest = argv.filter((a) => a !== '--json' && a !== '--refined');
   const unknown = rest.find((a) => a.startsWith('-'));
-  if (unknown) throw new CliError(`unknown option ${unknown}\nusage: npm run factors -- <deck.json> [--json]`, 2);
-  if (rest.length !== 1) throw new CliError('usage: npm run factors -- <deck.json> [--json]', 2);
-  return { file: rest[0], json };
+  if (unknown) throw new CliError(`unknown option ${unknown}\nusage: npm run factors -- <deck.json> [--json] [--refined]`, 2);
+  if (rest.length !== 1) throw new CliError('usage: npm run factors -- <deck.json> [--json] [--refined]', 2);
+  return { file: rest[0], json, refined };
 }
 
 function disp(value: number, kind: QuantityKind, units: UnitSystem, digits = 3): string {
@@ -86,8 +93,55 @@ function quantity(value: number | undefined, kind: QuantityKind, units: UnitSyst
   return { value: toDisplay(value, kind, units), unit: unitSymbol(kind, units) };
 }
 
-export function jsonDocument(result: CodeFactorResult, units: UnitSystem) {
+/** The governing placement behind one grillage row, in the file's units. */
+function placementJson(refined: RefinedResult, index: number, units: UnitSystem) {
+  const src = refined.rowSources[index];
+  const f = refined.factors[src.factorIndex];
+  const kind: QuantityKind = f.point.kind === 'moment' ? 'moment' : 'force';
+  const c = f.byLaneCount.find((b) => b.loadedLanes === src.loadedLanes)!;
+  return {
+    response: f.label,
+    vehicle: f.vehicle,
+    loadedLanes: c.loadedLanes,
+    multiplePresence: c.multiplePresence,
+    factor: c.factor,
+    girderEffect: quantity(c.girderEffect, kind, units),
+    beamLineEffect: quantity(f.beamLineEffect, kind, units),
+    bound: { lanes: f.tolerance.factor, statement: f.tolerance.text },
+    lanes: c.placement.lanes.map((l) => ({
+      leftEdge: quantity(l.left, 'length', units),
+      rightEdge: quantity(l.left + refined.designLaneWidth, 'length', units),
+      wheelOffset: quantity(l.wheelOffset, 'length', units),
+      wheelLines: [quantity(l.left + l.wheelOffset, 'length', units), quantity(l.left + l.wheelOffset + WHEEL_GAUGE, 'length', units)],
+      frontAxleAt: quantity(l.frontAxleAt, 'length', units),
+      direction: l.direction,
+      axleSpacing: quantity(l.axleSpacing, 'length', units),
+    })),
+  };
+}
+
+export function jsonDocument(result: CodeFactorResult, units: UnitSystem, refined?: RefinedResult) {
   const d = result.derived;
+  const grillageRows = refined
+    ? refined.rows.map((r, i) => ({
+        girder: r.girder,
+        effect: r.effect,
+        lanes: r.lanes,
+        method: r.method,
+        value: r.value,
+        governing: false,
+        findings: r.findings,
+        id: r.id,
+        girderNumber: r.girderNumber,
+        loadedLanes: r.loadedLanes,
+        location: { ...r.location, spanLength: quantity(r.location.spanLength, 'length', units) },
+        baseValue: r.baseValue,
+        skewFactor: r.skewFactor,
+        adopted: false,
+        trace: r.trace,
+        placement: placementJson(refined, i, units),
+      }))
+    : [];
   return {
     deck: result.deckName,
     sectionType: result.sectionType,
@@ -115,7 +169,8 @@ export function jsonDocument(result: CodeFactorResult, units: UnitSystem) {
       continuous: d.continuous,
       symmetric: d.symmetric,
     },
-    factors: result.factors.map((r) => ({
+    factors: [
+      ...result.factors.map((r) => ({
       girder: r.girder,
       effect: r.effect,
       lanes: r.lanes,
@@ -133,10 +188,27 @@ export function jsonDocument(result: CodeFactorResult, units: UnitSystem) {
       trace: r.trace,
       leverRule: r.leverRule,
       rigidSection: r.rigidSection,
-    })),
+      })),
+      ...grillageRows,
+    ],
     governing: result.governing.map((g) => ({ ...g, location: { ...g.location, spanLength: quantity(g.location.spanLength, 'length', units) } })),
     findings: result.findings,
     trace: result.trace,
+    ...(refined
+      ? {
+          refined: {
+            method: 'grillage',
+            layout: refined.layout,
+            segmentsPerSpan: refined.segmentsPerSpan,
+            mesh: refined.mesh,
+            stations: refined.stations,
+            designLanes: refined.designLanes,
+            findings: refined.findings,
+            trace: refined.trace,
+            caution: refined.caution,
+          },
+        }
+      : {}),
   };
 }
 
@@ -154,7 +226,43 @@ function girderText(r: Pick<FactorRow, 'girder' | 'girderNumber' | 'girderKind'>
   return typeof r.girder === 'number' ? `${r.girderKind} ${r.girder}` : r.girder;
 }
 
-export function textReport(result: CodeFactorResult, units: UnitSystem): string {
+/** The refined section of the text report: governing placement of each grillage row. */
+function refinedText(refined: RefinedResult, units: UnitSystem): string[] {
+  const out: string[] = [];
+  out.push(`Refined analysis (grillage, ${refined.layout} transverse members, ${refined.segmentsPerSpan} segments per span, ${refined.mesh.nodes} nodes): governing placements`);
+  const len = (v: number) => disp(v, 'length', units, 2);
+  out.push(
+    table(
+      ['girder', 'effect', 'location', 'lanes', 'factor', 'bound', 'lane edges', 'wheel lines', 'front axle, travel, rear spacing'],
+      refined.rows.map((r, i) => {
+        const src = refined.rowSources[i];
+        const f = refined.factors[src.factorIndex];
+        const c = f.byLaneCount.find((b) => b.loadedLanes === src.loadedLanes)!;
+        return [
+          String(r.girder),
+          r.effect,
+          r.location.description,
+          `${r.lanes} (${c.loadedLanes})`,
+          c.factor.toFixed(3),
+          `±${f.tolerance.factor.toFixed(3)}`,
+          c.placement.lanes.map((l) => `${len(l.left)}–${len(l.left + refined.designLaneWidth)}`).join('; '),
+          c.placement.lanes.map((l) => `${len(l.left + l.wheelOffset)}, ${len(l.left + l.wheelOffset + WHEEL_GAUGE)}`).join('; '),
+          c.placement.lanes
+            .map((l) => `${len(l.frontAxleAt as number)} ${l.direction === 1 ? '→' : '←'}${l.axleSpacing !== undefined ? ` ${len(l.axleSpacing)}` : ''}`)
+            .join('; '),
+        ];
+      }),
+    ),
+  );
+  out.push('Lane edges and wheel lines: y from girder 1, positive right; front axle: x along girder 1 from support line 1 (→ travelling up-station).');
+  if (refined.findings.length) {
+    out.push('Findings of the refined analysis');
+    for (const f of refined.findings) out.push(`  - [${f.code}] ${f.message}`);
+  }
+  return out;
+}
+
+export function textReport(result: CodeFactorResult, units: UnitSystem, refined?: RefinedResult): string {
   const d = result.derived;
   const out: string[] = [];
   out.push(`Deck: ${result.deckName}`);
@@ -183,7 +291,7 @@ export function textReport(result: CodeFactorResult, units: UnitSystem): string 
   out.push(
     table(
       ['', 'girder', 'effect', 'location', 'lanes', 'method', 'before skew', 'skew', 'value'],
-      result.factors.map((r) => [
+      [...result.factors, ...(refined?.rows ?? [])].map((r) => [
         r.governing ? '*' : r.adopted ? '+' : '',
         girderText(r),
         r.effect,
@@ -200,6 +308,10 @@ export function textReport(result: CodeFactorResult, units: UnitSystem): string 
   out.push('Findings');
   if (result.findings.length === 0) out.push('  none');
   for (const f of result.findings) out.push(`  - [${f.code}] ${f.message} (${f.article})`);
+  if (refined) {
+    out.push('');
+    out.push(...refinedText(refined, units));
+  }
   out.push('');
   out.push(`Caution: ${result.caution}`);
   return out.join('\n');
@@ -208,7 +320,7 @@ export function textReport(result: CodeFactorResult, units: UnitSystem): string 
 /** Run the tool; returns the exit code. Output goes through the two writers. */
 export function run(argv: string[], write: (s: string) => void, writeError: (s: string) => void): number {
   try {
-    const { file, json } = parseArgs(argv);
+    const { file, json, refined: withRefined } = parseArgs(argv);
     let text: string;
     try {
       text = readFileSync(file, 'utf8');
@@ -217,9 +329,11 @@ export function run(argv: string[], write: (s: string) => void, writeError: (s: 
     }
     const df = readDeckFile(text);
     let result: CodeFactorResult;
+    let refined: RefinedResult | undefined;
     try {
       const deck = assertDeck(deckFromDisplay(df.deck, df.units));
       result = computeCodeFactors(deck);
+      if (withRefined) refined = computeRefinedFactors(deck);
     } catch (e) {
       if (e instanceof DeckInputError) {
         const lines = e.issues.map((i) => `  ${df.prefix}${i.path.join('.') || '(deck)'}: ${i.message}`);
@@ -227,7 +341,7 @@ export function run(argv: string[], write: (s: string) => void, writeError: (s: 
       }
       throw e;
     }
-    write(json ? JSON.stringify(jsonDocument(result, df.units), null, 2) : textReport(result, df.units));
+    write(json ? JSON.stringify(jsonDocument(result, df.units, refined), null, 2) : textReport(result, df.units, refined));
     return 0;
   } catch (e) {
     if (e instanceof CliError) {

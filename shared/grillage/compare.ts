@@ -10,8 +10,8 @@
  * symmetric deck girder Nb takes girder 1's rows). Rows are matched on effect, location key
  * ("span1", …) and lane case ('one' / 'multiple'). The code value is the one the engine
  * adopted for that lane case (its own rules: formula, lever rule, rigid-section check,
- * policies). Findings of the rows used, and the refined run's findings for the girder and
- * effect, are passed through unchanged.
+ * policies). Findings of the rows used, and the refined run's findings for the effect, are
+ * passed through unchanged.
  */
 import type { Finding } from '../lrfd/findings.js';
 import { RESULT_CAUTION, type CodeFactorResult, type FactorEffect, type FactorMethod, type FactorRow, type GirderKind } from '../lrfd/factors.js';
@@ -118,7 +118,7 @@ export function compareFactors(code: CodeFactorResult, refined: RefinedResult): 
       };
       for (const [k, v] of Object.entries(r)) if (v !== undefined) (row.ratios as Record<string, number>)[k] = v;
       const seen = new Set<string>();
-      for (const f of [...c.flatMap((x) => x.findings), ...refined.findings.filter((f) => 'girderNumber' in f && f.girderNumber === n && f.effect === key.effect)]) {
+      for (const f of [...c.flatMap((x) => x.findings), ...refined.findings.filter((f) => 'effect' in f && f.effect === key.effect)]) {
         const id = `${f.code}|${f.message}`;
         if (seen.has(id)) continue;
         seen.add(id);

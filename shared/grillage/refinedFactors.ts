@@ -71,7 +71,11 @@ export interface StationOptions {
    * bound does: about 0.2–0.3 % of the factor at 1, 0.02–0.05 % at 4 on right decks.
    */
   stationsPerSegment?: number;
-  /** Rows per strip between adjacent longitudinal lines (whole number 1–8; default 1). */
+  /**
+   * Rows per strip between adjacent longitudinal lines (whole number 1–8; default 1 on a right
+   * deck, 2 on a skewed one, where a wheel load's shares follow skewed lines and the surface
+   * is not linear across a strip).
+   */
   rowsPerStrip?: number;
 }
 
@@ -90,7 +94,7 @@ export interface RefinedFinding {
   code: 'loose-bound';
   severity: 'info' | 'warning';
   message: string;
-  /** Girder (1-based) and effect concerned. */
+  /** Girder (1-based) with the loosest bound, and the effect concerned. */
   girderNumber: number;
   effect: RefinedEffect;
   values: { bound: number; factor: number };
@@ -163,6 +167,8 @@ export interface RefinedResult {
   factors: RefinedFactor[];
   /** Rows of method "grillage", one per girder number, effect, span and lane case. */
   rows: FactorRow[];
+  /** For each row (same order): the factor (index into `factors`) and lane count whose placement gave it. */
+  rowSources: { rowId: string; factorIndex: number; loadedLanes: number }[];
   /** The grillage's findings (mesh quality, estimates) and the refined run's own. */
   findings: (GrillageFinding | RefinedFinding)[];
   trace: TraceStep[];
@@ -188,7 +194,8 @@ export function grillageStations(
   extraX: number[] = [],
 ): { xs: Float64Array; ys: Float64Array } {
   const perSegment = wholeOption(options.stationsPerSegment, 'stationsPerSegment', 1, 8);
-  const perStrip = wholeOption(options.rowsPerStrip, 'rowsPerStrip', 1, 8);
+  const skewed = model.deck.supports.some((x) => x.skew !== 0);
+  const perStrip = wholeOption(options.rowsPerStrip, 'rowsPerStrip', skewed ? 2 : 1, 8);
   const mesh = model.mesh;
   const e = model.extent;
   const xsList: number[] = [e.xMin, e.xMax, ...extraX];
@@ -464,22 +471,26 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
     };
   });
 
-  const rows = refinedRows(deck, factors, rules.laneCount);
-  const own: RefinedFinding[] = factors
-    .filter((f) => f.tolerance.factor > LOOSE_BOUND_LANES)
-    .map((f) => ({
-      code: 'loose-bound' as const,
-      severity: 'warning' as const,
+  const { rows, sources: rowSources } = refinedRows(deck, factors, rules.laneCount);
+  // One finding per effect whose stated bounds are loose, naming the worst.
+  const own: RefinedFinding[] = [];
+  for (const effect of effects) {
+    const loose = factors.filter((f) => f.effect === effect && f.tolerance.factor > LOOSE_BOUND_LANES);
+    if (!loose.length) continue;
+    const worst = loose.reduce((a, b) => (b.tolerance.factor > a.tolerance.factor ? b : a));
+    const skewShear = worst.point.kind === 'shear' && deck.supports.some((x) => x.skew !== 0);
+    own.push({
+      code: 'loose-bound',
+      severity: 'warning',
       message:
-        `${f.label} (${f.effect}): the governing placement is exact on the sampled surface, but against the surface itself it is bounded only to ` +
-        `${f.tolerance.factor.toFixed(3)} lanes` +
-        (f.point.kind === 'shear' && deck.supports.some((x) => x.skew !== 0)
-          ? ' — the shear jumps along the skewed support line, which the sampled grid cannot follow; the factor is a true value of a legal placement (a lower bound)'
-          : ''),
-      girderNumber: f.girderNumber,
-      effect: f.effect,
-      values: { bound: f.tolerance.factor, factor: f.value },
-    }));
+        `${effect}: ${loose.length} of the refined factors are bounded against the grillage's surface only to more than ${LOOSE_BOUND_LANES} lanes ` +
+        `(worst ${worst.tolerance.factor.toFixed(3)} lanes, ${worst.label}); each is exact on the sampled surface and is the true value of a legal placement` +
+        (skewShear ? ' — the shear jumps along the skewed support line, which the sampled grid cannot follow' : ' — more stations (stationsPerSegment, rowsPerStrip) tighten the bound'),
+      girderNumber: worst.girderNumber,
+      effect,
+      values: { bound: worst.tolerance.factor, factor: worst.value },
+    });
+  }
   const trace: TraceStep[] = [
     ...model.trace,
     {
@@ -503,38 +514,38 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
     stations: { longitudinal: st.xs.length, transverse: st.ys.length },
     factors,
     rows,
+    rowSources,
     findings: [...model.findings, ...own],
     trace,
     caution: RESULT_CAUTION,
   };
 }
 
-/** One row of method "grillage" per girder number, effect, span and lane case. */
-function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): FactorRow[] {
+/** One row of method "grillage" per girder number, effect, span and lane case, with where each came from. */
+function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): { rows: FactorRow[]; sources: RefinedResult['rowSources'] } {
   const rows: FactorRow[] = [];
-  const groups = new Map<string, RefinedFactor[]>();
-  for (const f of factors) {
+  const sources: RefinedResult['rowSources'] = [];
+  const groups = new Map<string, number[]>();
+  factors.forEach((f, i) => {
     const k = `${f.girder}|${f.effect}|${f.span}`;
     const g = groups.get(k);
-    if (g) g.push(f);
-    else groups.set(k, [f]);
-  }
+    if (g) g.push(i);
+    else groups.set(k, [i]);
+  });
   for (const list of groups.values()) {
-    const f0 = list[0];
+    const f0 = factors[list[0]];
     const cases: ('one' | 'multiple')[] = f0.effect.startsWith('fatigue') || laneCount < 2 ? ['one'] : ['one', 'multiple'];
     for (const lanes of cases) {
-      let best: { f: RefinedFactor; c: RefinedFactor['byLaneCount'][number] } | undefined;
-      for (const f of list) {
-        for (const c of f.byLaneCount) {
+      let best: { i: number; c: RefinedFactor['byLaneCount'][number] } | undefined;
+      for (const i of list) {
+        for (const c of factors[i].byLaneCount) {
           if ((lanes === 'one') !== (c.loadedLanes === 1)) continue;
-          if (!best || c.factor > best.c.factor) best = { f, c };
+          if (!best || c.factor > best.c.factor) best = { i, c };
         }
       }
       if (!best) continue;
-      const where =
-        best.f.point.kind === 'moment'
-          ? `${best.f.point.fraction.toFixed(1)} of the span`
-          : `support ${best.f.point.support + 1}, ${best.f.point.side} side`;
+      const bf = factors[best.i];
+      const where = bf.point.kind === 'moment' ? `${bf.point.fraction.toFixed(1)} of the span` : `support ${bf.point.support + 1}, ${bf.point.side} side`;
       const row = buildFactorRow({
         girderKind: f0.girderKind,
         girderNumber: f0.girderNumber,
@@ -545,11 +556,12 @@ function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): F
         method: 'grillage',
         baseValue: best.c.factor,
         location: { span: f0.span, spanLength: deck.spans[f0.span].length, description: `span ${f0.span + 1} (${where})`, key: `span${f0.span + 1}` },
-        trace: best.f.trace,
+        trace: bf.trace,
       });
       if (!row.id.endsWith(`/g${f0.girderNumber}`)) row.id = `${row.id}/g${f0.girderNumber}`;
       rows.push(row);
+      sources.push({ rowId: row.id, factorIndex: best.i, loadedLanes: best.c.loadedLanes });
     }
   }
-  return rows;
+  return { rows, sources };
 }
