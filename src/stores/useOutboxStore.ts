@@ -29,9 +29,17 @@ export const useOutboxStore = defineStore('outbox', () => {
     invitations.value = await mailApi.listInvitations();
   }
 
+  /** Sends an invitation, then looks for its message: the mail service receives it a moment later. */
   async function invite(userId: number): Promise<Invitation> {
+    const count = () => messages.value.filter((m) => m.kind === 'invitation').length;
+    const before = count();
     const inv = await mailApi.inviteUser(userId);
-    await Promise.all([fetchInvitations(), fetchMessages()]);
+    await fetchInvitations();
+    for (let attempt = 0; attempt < 10; attempt++) {
+      await fetchMessages(kind.value);
+      if (count() > before || (kind.value !== undefined && kind.value !== 'invitation')) break;
+      await new Promise((r) => setTimeout(r, 300));
+    }
     return inv;
   }
 

@@ -90,7 +90,8 @@ describe('review round trip in the browser', () => {
     const row = reviewer.locator('[data-test="reviews-table"] tbody tr', { hasText: DECK_NAME });
     await row.waitFor();
     await row.locator('a').first().click();
-    await reviewer.waitForURL(firstReviewUrl);
+    await reviewer.locator('[data-test="review-title"]', { hasText: `${DECK_NAME}, version 1` }).waitFor();
+    expect(reviewer.url()).toBe(firstReviewUrl);
     const summary = reviewer.locator('[data-test="refined-summary"]');
     await summary.waitFor();
     expect(await summary.locator('[data-test="skew-words"]').innerText()).toContain('support 1: 20.0°');
@@ -180,6 +181,36 @@ describe('review round trip in the browser', () => {
     expect(await body.innerText()).toContain('refined analysis not justified');
     expect(await body.locator('a').first().getAttribute('href')).toMatch(new RegExp(`^${h.baseUrl}/reviews/\\d+$`));
     await h.screenshot('review-04-outbox', designer);
+  });
+
+  it('an invited user chooses a password from the e-mailed link', async () => {
+    const created = await api<{ user: { id: number } }>(designer, 'POST', '/api/admin/users', { email: 'noor.halvorsen@larchmont-ridge.example', name: 'Noor Halvorsen', roles: ['designer'] });
+    expect(created.status).toBe(201);
+    await designer.goto(h.url('/mail'));
+    await designer.locator(`[data-test="invite-${created.body.user.id}"]`).click();
+    const subject = designer.locator('[data-test="outbox-table"] a', { hasText: 'You are invited to Deckshare' });
+    await subject.waitFor();
+    await subject.click();
+    const link = await designer.locator('[data-test="message-body"] a').first().getAttribute('href');
+    expect(link).toMatch(new RegExp(`^${h.baseUrl}/set-password/[A-Za-z0-9_-]{40,}$`));
+
+    // The reviewer's browser stands in for the new user's: the link signs them in.
+    await reviewer.goto(link!);
+    await reviewer.getByText('Welcome, ').waitFor();
+    await reviewer.locator('[data-test="new-password"]').fill('short');
+    await reviewer.locator('[data-test="repeat-password"]').fill('short');
+    await reviewer.locator('[data-test="set-password"]').click();
+    await reviewer.getByText('The password must have at least 10 characters.').waitFor();
+    await reviewer.locator('[data-test="new-password"]').fill('noor-chose-this-1');
+    await reviewer.locator('[data-test="repeat-password"]').fill('noor-chose-this-1');
+    await h.screenshot('review-05-set-password', reviewer);
+    await reviewer.locator('[data-test="set-password"]').click();
+    await reviewer.waitForURL(/\/projects$/);
+    await reviewer.locator('[data-test="user-menu"]', { hasText: 'Noor Halvorsen' }).waitFor();
+    // The link works once.
+    await reviewer.goto(link!);
+    await reviewer.locator('[data-test="invitation-invalid"]').waitFor();
+
     // A 401 from the "who am I" check on the sign-in screen after signing out is expected.
     expect(h.pageErrors.filter((e) => !/status of 401/.test(e))).toEqual([]);
   });

@@ -75,7 +75,7 @@ export function inviteUser(db: Db, mailer: Mailer, publicUrl: string, actor: Act
   });
   const link = `${publicUrl.replace(/\/$/, '')}/set-password/${token}`;
   mailer.queue(invitationMessage({ firmId: actor.firmId, firmName: firm.name, to: { name: u.name, email: u.email }, invitedBy: actor.name, link, expiresAt }));
-  return { id: row.id, user: { id: u.id, name: u.name, email: u.email }, expiresAt, status: 'pending' as const };
+  return { id: row.id, user: { id: u.id, name: u.name, email: u.email }, invitedBy: { id: actor.id, name: actor.name }, createdAt: row.createdAt, expiresAt, usedAt: null, status: 'pending' as const };
 }
 
 function openInvitation(db: Db, token: string) {
