@@ -253,6 +253,29 @@ describe('deck workspace in the browser', () => {
     expect(h.pageErrors.filter((e) => !e.includes('401'))).toEqual([]);
   });
 
+  it('shows the progress of a long computation (a fine mesh) and cancels it', async () => {
+    const { page } = h;
+    await page.keyboard.press('Escape');
+    await page.locator('[data-test="history-drawer"]').waitFor({ state: 'hidden' }).catch(() => undefined);
+    await page.locator('[data-test="results-tabs"] .ant-tabs-tab', { hasText: 'Findings and model' }).click();
+    await page.locator('[data-test="mesh-density"]').click();
+    await page.locator('.ant-select-item-option', { hasText: '80 segments per span' }).click();
+    await page.locator('[data-test="recompute"]').click();
+    const progress = page.locator('[data-test="solver-progress"]');
+    await progress.waitFor({ timeout: 10_000 });
+    expect(await progress.innerText()).toMatch(/\d+%/);
+    await page.locator('[data-test="cancel-solver"]').click();
+    await page.locator('[data-test="solver-cancelled"]').waitFor({ timeout: 10_000 });
+    await h.screenshot('workspace-06b-cancelled');
+    await page.locator('[data-test="solver-cancelled"] button', { hasText: 'Compute again' }).click();
+    await page.locator('[data-test="solver-progress"]').waitFor({ timeout: 10_000 });
+    await page.locator('[data-test="solver-progress"]').waitFor({ state: 'detached', timeout: 100_000 });
+    await expect(page.locator('[data-test="findings"]').innerText()).resolves.toContain('80 segments per span');
+    await page.locator('[data-test="results-tabs"] .ant-tabs-tab', { hasText: 'Comparison of methods' }).click();
+    await waitForRefined(page);
+    await waitForShares(page);
+  });
+
   it('draws a twelve-girder deck and reports the frame time of the 3D view', async () => {
     const { page } = h;
     await page.goto(h.url('/projects'));
