@@ -117,6 +117,9 @@ export const useDeckStore = defineStore('deck', () => {
     vehicle.value = 'design truck';
   }
 
+  /** The starting deck the draft came from (a typed name is kept when another is chosen). */
+  const templateKey = ref<DeckTemplateKey>('precast-one-span');
+
   function startNew(forProject: number, system: UnitSystem, template: DeckTemplateKey = 'precast-one-span'): void {
     projectId.value = forProject;
     deckId.value = null;
@@ -125,6 +128,7 @@ export const useDeckStore = defineStore('deck', () => {
     version.value = null;
     basedOnVersionId.value = null;
     draft.value = deckTemplate(template).build();
+    templateKey.value = template;
     units.value = system;
     savedJson.value = null;
     mode.value = 'new';
@@ -135,8 +139,10 @@ export const useDeckStore = defineStore('deck', () => {
   function useTemplate(template: DeckTemplateKey): void {
     if (mode.value === 'read-only') return;
     const name = draft.value.name;
+    const typed = name !== deckTemplate(templateKey.value).build().name;
     draft.value = deckTemplate(template).build();
-    if (mode.value !== 'new' && name) draft.value.name = name;
+    templateKey.value = template;
+    if (typed && name) draft.value.name = name;
     resetPlacement();
   }
 
@@ -270,6 +276,7 @@ export const useDeckStore = defineStore('deck', () => {
     studied,
     pendingPlacement,
     startNew,
+    templateKey,
     useTemplate,
     open,
     fetchVersion,

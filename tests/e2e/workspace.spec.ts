@@ -250,6 +250,10 @@ describe('deck workspace in the browser', () => {
     await factors.waitFor({ timeout: 30_000 });
     expect(await factors.innerText()).toMatch(/interior/);
     await h.screenshot('workspace-06-version-diff');
+    // Any saved version can be the start of a new one: back to version 1's 8 in slab.
+    await page.locator('[data-test="start-from-1"]').click();
+    await page.locator('[data-test="version-tag"]', { hasText: 'from version 1' }).waitFor();
+    await expect.poll(() => page.locator('input[data-test="field-slab.thickness"]').inputValue()).toBe('8');
     expect(h.pageErrors.filter((e) => !e.includes('401'))).toEqual([]);
   });
 
