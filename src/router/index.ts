@@ -71,6 +71,13 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Review', roles: ['admin', 'designer', 'reviewer', 'instructor'] },
   },
   {
+    path: '/projects/:projectId(\\d+)/files',
+    name: 'project-files',
+    component: () => import('@/views/ReviewFilesView.vue'),
+    props: (route) => ({ projectId: Number(route.params.projectId) }),
+    meta: { title: 'Drawings and imports' },
+  },
+  {
     path: '/training',
     name: 'training',
     component: () => import('@/views/TrainingView.vue'),

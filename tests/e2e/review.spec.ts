@@ -166,9 +166,17 @@ describe('review round trip in the browser', () => {
     await signIn(designer, h.baseUrl, DEMO_USERS.admin);
     await designer.goto(h.url('/mail'));
     const table = designer.locator('[data-test="outbox-table"]');
-    await table.locator('tbody tr.ant-table-row').first().waitFor();
-    const subjects = await table.locator('tbody tr.ant-table-row').allInnerTexts();
-    const joined = subjects.join('\n');
+    // The mail service receives each notice a moment after the action: refresh until all four are in.
+    await expect
+      .poll(
+        async () => {
+          await designer.locator('[data-test="outbox-refresh"]').click();
+          return (await table.locator('tbody tr.ant-table-row').allInnerTexts()).length;
+        },
+        { timeout: 20_000, interval: 500 },
+      )
+      .toBeGreaterThanOrEqual(4);
+    const joined = (await table.locator('tbody tr.ant-table-row').allInnerTexts()).join('\n');
     expect(joined).toContain(`Review requested: ${DECK_NAME}, version 1`);
     expect(joined).toContain(`Sent back: ${DECK_NAME}, version 1`);
     expect(joined).toContain(`Review requested: ${DECK_NAME}, version 2`);
@@ -211,7 +219,30 @@ describe('review round trip in the browser', () => {
     await reviewer.goto(link!);
     await reviewer.locator('[data-test="invitation-invalid"]').waitFor();
 
-    // A 401 from the "who am I" check on the sign-in screen after signing out is expected.
-    expect(h.pageErrors.filter((e) => !/status of 401/.test(e))).toEqual([]);
+  });
+
+  it('the project files page lists row-by-row errors of a bad girder CSV and imports a good one', async () => {
+    // The designer's browser is signed in as the admin now, who may save decks too.
+    await designer.goto(h.url(firstReviewUrl.replace(h.baseUrl, '')));
+    await designer.locator('[data-test="project-files"]').click();
+    await designer.locator('[data-test="girder-import"]').waitFor();
+    await choose(designer, 'import-deck', DECK_NAME);
+    const file = designer.locator('[data-test="csv-file"]');
+    await file.setInputFiles({ name: 'girders.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft,inertia_in4\n1,,545894\n2,9.6667,abc\n3,-9.5,\n') });
+    await designer.locator('[data-test="check-csv"]').click();
+    const error = designer.locator('[data-test="import-error"]');
+    await error.waitFor();
+    const text = await error.innerText();
+    expect(text).toContain('nothing was imported');
+    expect(text).toContain('row 3, column inertia_in4: “abc” is not a number');
+    expect(text).toContain('row 4, column spacing_ft: the spacing must be greater than 0 (got -9.5)');
+    await h.screenshot('review-06-csv-errors', designer);
+    await file.setInputFiles({ name: 'girders.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft\n1,\n2,9.5\n3,9.5\n4,9.5\n5,9.5\n6,9.5\n') });
+    await designer.locator('[data-test="import-csv"]').click();
+    await designer.waitForURL(/\/decks\/\d+\/versions\/3$/);
+
+    // Expected resource errors: the 401 of the "who am I" check after signing out and the 400
+    // answering the bad CSV. Nothing else may have gone wrong in the pages.
+    expect(h.pageErrors.filter((e) => !/status of (400|401)/.test(e)), h.pageErrors.join('\n')).toEqual([]);
   });
 });

@@ -133,7 +133,16 @@ describe('training exercise in the browser', () => {
     await signIn(instructor, h.baseUrl, DEMO_USERS.admin);
     await instructor.goto(h.url('/mail'));
     const outbox = instructor.locator('[data-test="outbox-table"]');
-    await outbox.locator('tbody tr.ant-table-row').first().waitFor();
+    // The mail service receives each notice a moment after the action: refresh until both are in.
+    await expect
+      .poll(
+        async () => {
+          await instructor.locator('[data-test="outbox-refresh"]').click();
+          return (await outbox.locator('tbody tr.ant-table-row').allInnerTexts()).length;
+        },
+        { timeout: 20_000, interval: 500 },
+      )
+      .toBeGreaterThanOrEqual(2);
     const text = await outbox.innerText();
     expect(text).toContain('New exercise: The governing truck position for the exterior girder');
     expect(text).toContain('Passed: The governing truck position for the exterior girder');
