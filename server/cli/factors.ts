@@ -333,8 +333,19 @@ export function run(argv: string[], write: (s: string) => void, writeError: (s: 
     try {
       const deck = assertDeck(deckFromDisplay(df.deck, df.units));
       result = computeCodeFactors(deck);
-      if (withRefined) refined = computeRefinedFactors(deck);
+      if (withRefined) {
+        try {
+          refined = computeRefinedFactors(deck);
+        } catch (e) {
+          if (e instanceof DeckInputError) {
+            const lines = e.issues.map((i) => `  ${df.prefix}${i.path.join('.') || '(deck)'}: ${i.message}`);
+            throw new CliError(`${file}: the code factors can be computed (run without --refined), but the grillage cannot model this deck\n${lines.join('\n')}`, 1);
+          }
+          throw e;
+        }
+      }
     } catch (e) {
+      if (e instanceof CliError) throw e;
       if (e instanceof DeckInputError) {
         const lines = e.issues.map((i) => `  ${df.prefix}${i.path.join('.') || '(deck)'}: ${i.message}`);
         throw new CliError(`${file}: the deck is not valid\n${lines.join('\n')}`, 1);

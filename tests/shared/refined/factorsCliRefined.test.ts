@@ -80,4 +80,16 @@ describe('factors --refined', () => {
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/--refined/);
   });
+
+  it('names the field the grillage lacks when it cannot model a deck, and says the code factors still can be computed', () => {
+    // A cast-in-place multicell box (type d) given without the girder moment of inertia (its code formulas need only Nc).
+    const file = join(root, 'public/examples/larchmont-ferry-street.deck.json');
+    const plain = runIn([file]);
+    expect(plain.code).toBe(0);
+    const r = runIn([file, '--refined']);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/grillage cannot model this deck/);
+    expect(r.err).toMatch(/deck\.section\.inertia/);
+  });
 });
+
