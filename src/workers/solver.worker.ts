@@ -46,6 +46,10 @@ async function handle(req: SolverRequest): Promise<void> {
       const ctx = context(id);
       const analysis = await session.analyse(req.deck, req.options, ctx);
       post({ id, type: 'analysis', analysis });
+      if (!analysis.grillage) {
+        post({ id, type: 'done', result: [] });
+        return;
+      }
       await ctx.checkpoint();
       const study = await session.study(req.span, req.vehicle, ctx);
       post({ id, type: 'study', study });

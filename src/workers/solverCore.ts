@@ -103,7 +103,10 @@ export interface BeamLineSummary {
 export interface AnalysisSummary {
   code: CodeFactorResult;
   rules: PlacementRules;
-  grillage: GrillageSummary;
+  /** null when the grillage could not be built (the code factors stand on their own). */
+  grillage: GrillageSummary | null;
+  /** Why the grillage could not be built, in plain words. */
+  grillageError?: string;
   beamLine: BeamLineSummary;
   girderCount: number;
   spanCount: number;
@@ -237,7 +240,16 @@ export class SolverSession {
     await ctx.checkpoint();
     ctx.progress('grillage mesh and factorisation', 0.1);
     const segmentsPerSpan = options.segmentsPerSpan ?? REFINED_SEGMENTS_PER_SPAN;
-    const model = buildGrillage(deck, { segmentsPerSpan });
+    let model: GrillageModel | null = null;
+    let grillageError: string | undefined;
+    try {
+      model = buildGrillage(deck, { segmentsPerSpan });
+    } catch (error) {
+      // A deck the mesher cannot build or a grillage that is a mechanism: the code factors
+      // still stand; the error names the cause (shared/grillage/errors.ts).
+      if (!(error instanceof Error)) throw error;
+      grillageError = error.message;
+    }
     const t2 = now();
     await ctx.checkpoint();
     ctx.progress('beam-line envelopes', 0.6);
@@ -250,17 +262,12 @@ export class SolverSession {
     this.rules = rules;
     this.beamLine = beamLine;
     ctx.progress('ready', 1);
-    return {
+    const summary: AnalysisSummary = {
       code,
       rules,
-      grillage: {
-        layout: model.layout,
-        segmentsPerSpan,
-        stats: model.stats,
-        findings: model.findings,
-        extent: model.extent,
-        elapsedMs: t2 - t1,
-      },
+      grillage: model
+        ? { layout: model.layout, segmentsPerSpan, stats: model.stats, findings: model.findings, extent: model.extent, elapsedMs: t2 - t1 }
+        : null,
       beamLine: {
         x: beamLine.points.map((p) => p.x),
         span: beamLine.points.map((p) => p.span),
@@ -270,16 +277,19 @@ export class SolverSession {
         shearMax: beamLine.points.map((p) => p.shear.max.value),
         shearMin: beamLine.points.map((p) => p.shear.min.value),
       },
-      girderCount: model.girderCount,
-      spanCount: model.spanCount,
+      girderCount: code.derived.girderCount,
+      spanCount: deck.spans.length,
       timings: { codeMs: t1 - t0, grillageMs: t2 - t1, beamLineMs: t3 - t2 },
     };
+    if (grillageError !== undefined) summary.grillageError = grillageError;
+    return summary;
   }
 
   private need(): { deck: Deck; model: GrillageModel; rules: PlacementRules; code: CodeFactorResult } {
-    if (!this.deck || !this.model || !this.rules || !this.code) {
+    if (!this.deck || !this.rules || !this.code) {
       throw new DeckInputError(['deck'], 'no deck has been analysed yet');
     }
+    if (!this.model) throw new DeckInputError(['grillage'], 'the grillage of this deck could not be built');
     return { deck: this.deck, model: this.model, rules: this.rules, code: this.code };
   }
 

@@ -36,6 +36,11 @@ async function session(deck: unknown, vehicle: 'design truck' | 'fatigue truck' 
 
 const sum = (v: number[]) => v.reduce((a, b) => a + b, 0);
 
+function extentOf(analysis: { grillage: { extent: { xMin: number; xMax: number } } | null }) {
+  if (!analysis.grillage) throw new Error('the grillage was not built');
+  return analysis.grillage.extent;
+}
+
 describe('drag-path shares on a right deck (statics)', () => {
   it('add up to m for one lane and to 2 × 1.00 for two lanes at the critical truck position', async () => {
     const { s, analysis, study } = await session(rightDeck());
@@ -82,7 +87,7 @@ describe('governing placements', () => {
     const r = analysis.rules;
     const g = s.governing(0, 'moment');
     expect(s.evaluate(g.lanes, 'moment').shares[0]).toBeRelativelyClose(g.factor, 1e-9);
-    expect(checkPlacement({ lanes: g.lanes }, r, { vehicle: DESIGN_TRUCK, extent: { xMin: analysis.grillage.extent.xMin, xMax: analysis.grillage.extent.xMax } })).toEqual([]);
+    expect(checkPlacement({ lanes: g.lanes }, r, { vehicle: DESIGN_TRUCK, extent: { xMin: extentOf(analysis).xMin, xMax: extentOf(analysis).xMax } })).toEqual([]);
     // A deterministic pseudo-random walk over legal placements (common practice, no source).
     let seed = 12345;
     const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
@@ -94,7 +99,7 @@ describe('governing placements', () => {
         lanes.push({
           left: r.curbLeft + rand() * (r.curbRight - r.curbLeft),
           wheelOffset: rand() * r.laneWidth,
-          frontAxleAt: analysis.grillage.extent.xMin + rand() * (analysis.grillage.extent.xMax - analysis.grillage.extent.xMin + 9),
+          frontAxleAt: extentOf(analysis).xMin + rand() * (extentOf(analysis).xMax - extentOf(analysis).xMin + 9),
           direction: rand() < 0.5 ? 1 : -1,
           axleSpacing: 4.2672 + rand() * 4.8768,
         });
@@ -110,6 +115,15 @@ describe('governing placements', () => {
     const { s } = await session(quarryCreekDeck());
     expect(() => s.governing(6, 'moment')).toThrow(/the girder must be a whole number from 1 to 6/);
   }, 60_000);
+
+  it('keeps the code factors when the grillage cannot be built, and says why', async () => {
+    const s = new SolverSession();
+    const a = await s.analyse(quarryCreekDeck(), { segmentsPerSpan: 1001 });
+    expect(a.grillage).toBeNull();
+    expect(a.grillageError).toMatch(/segmentsPerSpan must be at most 1000/);
+    expect(a.code.governing.length).toBeGreaterThan(0);
+    await expect(s.study(0, 'design truck')).rejects.toThrow(/the grillage of this deck could not be built/);
+  });
 
   it('reports an invalid deck as a typed error naming the field', async () => {
     const s = new SolverSession();
