@@ -10,14 +10,18 @@
  * ─── Tolerance statement ──────────────────────────────────────────────────────────────
  * Transverse lines (piecewise linear): EXACT (up to floating-point rounding and the 1 nm
  * tolerance on the rules). Surfaces: EXACT for the sampled representation (bilinear on the
- * station grid, see sampledSurface.ts); against the surface itself no legal placement exceeds
- * the reported effect by more than 2·m·k·ΣW·ε, ε the representation error (zero when the
- * surface is bilinear on the grid), plus the end-ramp allowance of longitudinal.ts
- * (ΣW·|end ordinate| at 1 µm, negligible). When the sample carries a measured error
- * envelope E(x) (sampledSurface.ts), the bound is tightened by a second exact search on the
- * sample raised by E: every axle's share on the surface is at most its share on the raised
- * sample (in the sense sought, and so is its positive part), so that search's optimum bounds
- * every legal placement on the surface. `tolerance.absolute` reports the bound.
+ * station grid, see sampledSurface.ts). Against the surface itself no legal placement with k
+ * lanes exceeds the one found by more than m·k·ΣW·ε + (V_sample − V_surface) at the placement
+ * found (at most 2·m·k·ΣW·ε), ε the largest difference between surface and sample (zero when
+ * the surface is bilinear on the grid), plus the ramp allowance of longitudinal.ts (ΣW·|end
+ * ordinate| over 1 µm, negligible). When the sample carries a measured error envelope E(x)
+ * (sampledSurface.ts) and that bound exceeds `tightenAbove` of the effect, it is tightened by
+ * a second exact search on the sample raised by E: every axle's share on the surface is at
+ * most its share on the raised sample (in the sense sought, and so is its positive part), so
+ * that search's optimum bounds every legal placement on the surface. ε and E are measured at
+ * the midpoints of the grid's cells and edges (a bound for a surface smooth between stations;
+ * a jump the grid does not follow, such as a shear's along a skewed support line, shows up as
+ * a large ε and a loose bound). `tolerance.absolute` reports the bound.
  *
  * ─── Proof ────────────────────────────────────────────────────────────────────────────
  * Notation: lane i has left edge p_i ∈ [L0, R0] (L0 the left curb face, R0 the right curb
@@ -26,8 +30,9 @@
  * a lane whose edge is a curb face, see rules.ts). Let H(u) be the largest effect of one
  * lane's vehicle with its left wheel line at u (for a line: ½(r(u) + r(u+gauge)); for a
  * surface: the best longitudinal position, spacing and direction, found exactly by
- * longitudinal.ts, each axle counting only when it contributes, Art. 3.6.1.3.1). The effect of k lanes is m(k)·Σ H(u_i), and for a lane at p the best
- * wheel line gives g(p) = max{H(u) : u ∈ [p + a(p), p + b(p)]}.
+ * longitudinal.ts, each axle counting only when it contributes, Art. 3.6.1.3.1). The effect
+ * of k lanes is m(k)·Σ H(u_i), and for a lane at p the best wheel line gives
+ * g(p) = max{H(u) : u ∈ [p + a(p), p + b(p)]}.
  *
  * 1. H is convex between consecutive points of T = Y ∪ (Y − gauge), Y the transverse
  *    stations. For a fixed longitudinal position, each axle's share ½W(η(x,u) + η(x,u+gauge))
