@@ -465,26 +465,23 @@ export class SolverSession {
   }
 
   /**
-   * Governing values for every girder: both effects for the studied vehicle, then (unless it
-   * is the fatigue truck) both effects for the fatigue truck; yields between searches.
+   * Governing values for every girder and both effects for the studied vehicle (the fatigue
+   * rows of the comparison come from the refined run); yields between searches.
    */
   async governingAll(ctx: WorkContext = QUIET_CONTEXT, onEach?: (g: GoverningSummary) => void): Promise<GoverningSummary[]> {
     const state = this.needStudy();
     const Nb = state.sampled.moment.length;
-    const vehicles: VehicleKey[] = state.summary.vehicle === 'fatigue truck' ? ['fatigue truck'] : [state.summary.vehicle, 'fatigue truck'];
     const out: GoverningSummary[] = [];
-    const total = 2 * Nb * vehicles.length;
+    const total = 2 * Nb;
     let done = 0;
-    for (const vehicle of vehicles) {
-      for (const effect of ['moment', 'shear'] as const) {
-        for (let g = 0; g < Nb; g++) {
-          const r = this.governing(g, effect, vehicle);
-          out.push(r);
-          onEach?.(r);
-          done++;
-          ctx.progress(`governing placements (${done} of ${total})`, done / total);
-          await ctx.checkpoint();
-        }
+    for (const effect of ['moment', 'shear'] as const) {
+      for (let g = 0; g < Nb; g++) {
+        const r = this.governing(g, effect);
+        out.push(r);
+        onEach?.(r);
+        done++;
+        ctx.progress(`governing placements (${done} of ${total})`, done / total);
+        await ctx.checkpoint();
       }
     }
     return out;
