@@ -3,9 +3,10 @@
  * code's factors. They come from the result stored with the version under method 'grillage'
  * (the shared solver's `RefinedResult`, whose `rows` are factor rows of method 'grillage' with
  * the girder number; a bare list of rows or `{ factors: FactorRow[] }` is read too). When none
- * is stored they are computed here with the shared solver (computeRefinedFactors, AASHTO LRFD
- * Art. 4.6.3.3) and kept in memory per version and solver version, not written: storing
- * results is the deck service's job.
+ * is stored yet they are computed once with the shared solver (computeRefinedFactors, AASHTO
+ * LRFD Art. 4.6.3.3) and stored with the version under method 'grillage' and the solver
+ * version (an append-only row, like the code result written at save time). A deck the
+ * grillage cannot model is stored as `{ error }`, so the reason is kept too.
  * Units: dimensionless factors (lanes per girder).
  */
 import type { Db } from '../../db/client.js';
@@ -16,6 +17,7 @@ import { DeckInputError } from '../../../shared/deck/schema.js';
 import { GrillageMechanismError } from '../../../shared/grillage/errors.js';
 import { computeRefinedFactors } from '../../../shared/grillage/refinedFactors.js';
 import { SOLVER_VERSION } from '../../../shared/version.js';
+import { analysisResults } from '../../db/schema.js';
 
 export interface RefinedFactor {
   /** Girder number, 1 = left exterior. */
@@ -49,26 +51,22 @@ function rowsOf(data: unknown): FactorRow[] | null {
   return rows;
 }
 
-/**
- * The governing refined factor of each girder, effect and location (the largest over the
- * lane cases), or null with the reason when the version has none.
- */
-const computed = new Map<string, { rows: FactorRow[] } | { error: string }>();
-
-function computeRows(v: DeckVersionRow): { rows: FactorRow[] } | { error: string } {
-  const key = `${v.id}|${SOLVER_VERSION}`;
-  let hit = computed.get(key);
-  if (!hit) {
-    try {
-      hit = { rows: computeRefinedFactors(deckOf(v)).rows };
-    } catch (e) {
-      if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
-      hit = { error: e.message };
-    }
-    if (computed.size >= 64) computed.delete(computed.keys().next().value!);
-    computed.set(key, hit);
+/** Computes the version's grillage result and stores it (once per version and solver version). */
+function computeAndStore(db: Db, v: DeckVersionRow): unknown {
+  let data: unknown;
+  try {
+    data = computeRefinedFactors(deckOf(v));
+  } catch (e) {
+    if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
+    data = { error: e.message };
   }
-  return hit;
+  try {
+    db.insert(analysisResults).values({ versionId: v.id, method: 'grillage', solverVersion: SOLVER_VERSION, dataJson: JSON.stringify(data) }).run();
+  } catch (e) {
+    // Another request stored it first (unique version + method + solver version): keep theirs.
+    if (!String((e as Error).message).includes('UNIQUE')) throw e;
+  }
+  return data;
 }
 
 function governingPerGirder(rows: FactorRow[]): RefinedFactor[] {
@@ -91,12 +89,11 @@ function governingPerGirder(rows: FactorRow[]): RefinedFactor[] {
  */
 export function refinedResultsOf(db: Db, v: DeckVersionRow): RefinedResults {
   const stored = storedResult(db, v.id, 'grillage');
-  if (stored) {
-    const rows = rowsOf(stored.data);
-    if (!rows || rows.length === 0) return { factors: null, rows: null, source: `grillage stored with the version, solver ${stored.solverVersion}`, note: 'The stored grillage result holds no factor rows that can be compared.' };
-    return { factors: governingPerGirder(rows), rows, source: `grillage stored with the version, solver ${stored.solverVersion}`, note: '' };
-  }
-  const out = computeRows(v);
-  if ('error' in out) return { factors: null, rows: null, source: '', note: `No grillage result is stored with this version, and the grillage could not be built for it: ${out.error}` };
-  return { factors: governingPerGirder(out.rows), rows: out.rows, source: `grillage computed from the version (solver ${SOLVER_VERSION})`, note: '' };
+  const data = stored ? stored.data : computeAndStore(db, v);
+  const source = `grillage stored with the version, solver ${stored ? stored.solverVersion : SOLVER_VERSION}`;
+  const error = typeof data === 'object' && data !== null && typeof (data as { error?: unknown }).error === 'string' ? (data as { error: string }).error : undefined;
+  if (error !== undefined) return { factors: null, rows: null, source, note: `The grillage could not be built for this version: ${error}` };
+  const rows = rowsOf(data);
+  if (!rows || rows.length === 0) return { factors: null, rows: null, source, note: 'The stored grillage result holds no factor rows that can be compared.' };
+  return { factors: governingPerGirder(rows), rows, source, note: '' };
 }
