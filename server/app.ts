@@ -85,7 +85,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/projects', projectRouter(db));
   api.use('/projects/:projectId/decks', projectDecksRouter(db));
   api.use('/decks', deckRouter(db));
-  api.use('/admin/users', userRouter(db));
+  api.use('/admin/users', userRouter(db, config, mailer));
   api.use('/mail', mailRouter(db));
   api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));
   api.use('/attachments', attachmentRouter(db, filesDir));

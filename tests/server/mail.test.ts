@@ -34,11 +34,14 @@ describe('invitations', () => {
     expect(inv.status).toBe(201);
     expect(inv.body.invitation).toMatchObject({ user: { id, email: 'noor@larchmont-ridge.example' }, status: 'pending' });
 
+    // Creating the user sent the first invitation; the admin's second one replaces it.
     const mail = (await outbox(ctx)).filter((m) => m.kind === 'invitation' && m.toAddresses === 'noor@larchmont-ridge.example');
-    expect(mail).toHaveLength(1);
-    expect(mail[0].subject).toBe('You are invited to Deckshare (Larchmont Ridge Engineering)');
-    expect(mail[0].textBody).toContain('http://deckshare.test/set-password/');
-    const token = tokenOf(mail[0].textBody)!;
+    expect(mail).toHaveLength(2);
+    const latest = mail[mail.length - 1];
+    expect(latest.subject).toBe('You are invited to Deckshare (Larchmont Ridge Engineering)');
+    expect(latest.textBody).toContain('http://deckshare.test/set-password/');
+    const token = tokenOf(latest.textBody)!;
+    expect((await request(ctx.app).get(`/api/invitations/${tokenOf(mail[0].textBody)}`)).status).toBe(404);
     expect(token.length).toBeGreaterThanOrEqual(40);
     // Only the hash is stored, never the token itself.
     expect(JSON.stringify(ctx.db.select().from(invitations).all())).not.toContain(token);
@@ -75,8 +78,8 @@ describe('invitations', () => {
     await send.post(admin, '/api/invitations', { userId: id });
     await send.post(admin, '/api/invitations', { userId: id });
     const mails = (await outbox(ctx)).filter((m) => m.toAddresses === 'oskar@larchmont-ridge.example');
-    expect(mails).toHaveLength(2);
-    const [first, second] = mails.map((m) => tokenOf(m.textBody)!);
+    expect(mails).toHaveLength(3); // one sent when the user was created, then two more
+    const [first, second] = mails.slice(1).map((m) => tokenOf(m.textBody)!);
     expect((await request(ctx.app).get(`/api/invitations/${first}`)).status).toBe(404);
     expect((await request(ctx.app).get(`/api/invitations/${second}`)).status).toBe(200);
     ctx.db.update(invitations).set({ expiresAt: new Date(Date.now() - 1000).toISOString() }).where(eq(invitations.userId, id)).run();
@@ -84,7 +87,7 @@ describe('invitations', () => {
     expect(expired.status).toBe(404);
     expect(expired.body.error.message).toContain('expired');
     const list = await admin.get('/api/invitations');
-    expect(list.body.invitations.filter((i: { user: { id: number } }) => i.user.id === id).map((i: { status: string }) => i.status)).toEqual(['expired', 'replaced']);
+    expect(list.body.invitations.filter((i: { user: { id: number } }) => i.user.id === id).map((i: { status: string }) => i.status)).toEqual(['expired', 'replaced', 'replaced']);
   });
 
   it('refuses: a user who chose a password (409), another firm’s user (404), a non-admin (403), a malformed link (400)', async () => {
@@ -108,7 +111,7 @@ describe('outbox', () => {
     expect(mine.body.messages.every((m: { to: string }) => m.to.endsWith('@larchmont-ridge.example'))).toBe(true);
     const one = await admin.get(`/api/mail/outbox/${mine.body.messages[0].id}`);
     expect(one.body.message.html).toContain('<a href="http://deckshare.test/set-password/');
-    expect((await admin.get('/api/mail/outbox?kind=invitation&to=oskar')).body.messages).toHaveLength(2);
+    expect((await admin.get('/api/mail/outbox?kind=invitation&to=oskar')).body.messages).toHaveLength(3);
     expect((await admin.get('/api/mail/outbox?kind=nonsense')).status).toBe(400);
 
     expect((await designer.get('/api/mail/outbox')).status).toBe(403);
