@@ -1,8 +1,10 @@
 /**
  * Custom matchers for numerical tests.
  * `toBeRelativelyClose(expected, rtol)`: |actual − expected| ≤ rtol·max(|expected|, tiny).
+ * Also fixes fast-check's seed under CI (see the end of this file).
  */
 import { expect } from 'vitest';
+import fc from 'fast-check';
 
 expect.extend({
   toBeRelativelyClose(received: number, expected: number, rtol = 1e-9) {
@@ -25,3 +27,8 @@ declare module 'vitest' {
   // eslint-disable-next-line @typescript-eslint/no-empty-object-type
   interface Matchers<T = any> extends CustomMatchers<T> {}
 }
+
+// Property tests explore new random cases on every local run; under CI (CI=true) they use one
+// fixed seed so that a landing run is reproducible. FC_SEED overrides both, to replay a case.
+const fcSeed = process.env.FC_SEED ?? (process.env.CI ? '20261201' : undefined);
+if (fcSeed !== undefined) fc.configureGlobal({ seed: Number(fcSeed) });
