@@ -5,7 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { assertDeck, deckFromDisplay, type Deck } from '../../../shared/index.js';
+import { assertDeck, deckFromDisplay, type CodeFactorResult, type Deck, type FactorRow } from '../../../shared/index.js';
 
 export type DeckOverrides = Record<string, unknown>;
 
@@ -36,4 +36,11 @@ export function exampleDeck(file: string): Deck {
   const path = fileURLToPath(new URL(`../../../public/examples/${file}`, import.meta.url));
   const f = JSON.parse(readFileSync(path, 'utf8')) as { units: 'US' | 'SI'; deck: unknown };
   return assertDeck(deckFromDisplay(f.deck, f.units));
+}
+
+/** The factor row of a girder kind, effect, lane case and method at a location key (default span 1). */
+export function pickRow(r: CodeFactorResult, girder: 'interior' | 'exterior', effect: FactorRow['effect'], lanes: 'one' | 'multiple', method: FactorRow['method'], key = 'span1'): FactorRow {
+  const found = r.factors.find((x) => x.girderKind === girder && x.effect === effect && x.lanes === lanes && x.method === method && x.location.key === key);
+  if (!found) throw new Error(`missing row ${girder}/${effect}/${lanes}/${method}/${key}: ${r.factors.map((x) => x.id).join(', ')}`);
+  return found;
 }

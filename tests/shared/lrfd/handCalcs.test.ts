@@ -11,15 +11,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import { computeCodeFactors, type CodeFactorResult, type FactorRow } from '../../../shared/index.js';
-import { usDeck } from './decks.js';
+import { pickRow, usDeck } from './decks.js';
 
 const tan = (deg: number) => Math.tan((deg * Math.PI) / 180);
 
-function pick(r: CodeFactorResult, girder: 'interior' | 'exterior', effect: FactorRow['effect'], lanes: 'one' | 'multiple', method: FactorRow['method'], key = 'span1'): FactorRow {
-  const found = r.factors.find((x) => x.girderKind === girder && x.effect === effect && x.lanes === lanes && x.method === method && x.location.key === key);
-  if (!found) throw new Error(`missing row ${girder}/${effect}/${lanes}/${method}/${key}: ${r.factors.map((x) => x.id).join(', ')}`);
-  return found;
-}
+const pick = pickRow;
 const gov = (r: CodeFactorResult, girder: 'interior' | 'exterior', effect: FactorRow['effect'], key = 'span1') =>
   r.governing.find((g) => g.girder === girder && g.effect === effect && g.location.key === key)!;
 

@@ -7,14 +7,10 @@
  * them; each expected number is derived beside its check.
  */
 import { describe, expect, it } from 'vitest';
-import { computeCodeFactors, type CodeFactorResult, type FactorRow } from '../../../shared/index.js';
-import { usDeck } from './decks.js';
+import { computeCodeFactors } from '../../../shared/index.js';
+import { pickRow, usDeck } from './decks.js';
 
-function pick(r: CodeFactorResult, girder: 'interior' | 'exterior', effect: FactorRow['effect'], lanes: 'one' | 'multiple', method: FactorRow['method']): FactorRow {
-  const found = r.factors.find((x) => x.girderKind === girder && x.effect === effect && x.lanes === lanes && x.method === method && x.location.key === 'span1');
-  if (!found) throw new Error(`missing row ${girder}/${effect}/${lanes}/${method}`);
-  return found;
-}
+const pick = pickRow;
 
 describe('type c: open boxes, 4 @ 10 ft, L = 100 ft, d = 48 in, right deck', () => {
   const r = computeCodeFactors(
