@@ -2,6 +2,7 @@
  *  deck schema, so the API, the forms and the command-line tool apply the same rules. */
 import { z } from 'zod';
 import { deckSchema } from '../../../shared/deck/schema.js';
+import { idText } from '../../middleware/validate.js';
 
 const message = z.string({ error: 'message must be text' }).trim().min(1, 'a save message is required').max(500, 'message must be at most 500 characters');
 
@@ -22,6 +23,6 @@ export const versionCreateBody = z.strictObject({
 });
 
 export const versionParams = z.object({
-  deckId: z.coerce.number().int('deckId must be a whole number').positive('deckId must be a positive id'),
-  number: z.coerce.number().int('version number must be a whole number').positive('version number must be positive'),
+  deckId: idText('deckId'),
+  number: idText('version number'),
 });

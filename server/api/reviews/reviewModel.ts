@@ -1,6 +1,7 @@
 /** Request schemas for review rounds. Strings are trimmed; unknown fields are refused. */
 import { z } from 'zod';
 import { REVIEW_STATES } from '../../db/schema.js';
+import { idText } from '../../middleware/validate.js';
 
 /** Effects and methods a comment may be anchored to (the factor table's own names). */
 export const ANCHOR_EFFECTS = ['moment', 'negative-moment', 'shear', 'reaction', 'fatigue-moment', 'fatigue-shear', 'deflection'] as const;
@@ -53,11 +54,11 @@ export const listQuery = z.strictObject({
   /** 'assigned': rounds I review; 'submitted': rounds I submitted; 'all': the firm's. */
   view: z.enum(['assigned', 'submitted', 'all'], { error: 'view must be assigned, submitted or all' }).default('all'),
   state: z.enum(REVIEW_STATES, { error: `state must be one of ${REVIEW_STATES.join(', ')}` }).optional(),
-  deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id').optional(),
+  deckId: idText('deckId').optional(),
 });
 
 export const statusQuery = z.strictObject({
-  deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id'),
+  deckId: idText('deckId'),
 });
 
 export type SubmitBody = z.infer<typeof submitBody>;
