@@ -27,7 +27,7 @@ export function reportRouter(db: Db): Router {
     recordAudit(db, { firmId: req.user!.firmId, projectId: data.project.id, actorId: req.user!.id, action: 'export', entityType: 'deck', entityId: data.deck.id, summary: `exported ${what} of version ${data.version.number} of deck “${data.deck.name}”` });
 
   r.get('/decks/:deckId/versions/:number/package.pdf', allow('report:export'), params, async (req, res) => {
-    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const data = reportData(db, req.user!, res.locals.params.deckId, res.locals.params.number);
     const pdf = await calculationPackagePdf(data);
     audit(req, data, 'the calculation package (PDF)');
     res.attachment(`${fileStem(data)}-calculation-package.pdf`);
@@ -37,7 +37,7 @@ export function reportRouter(db: Db): Router {
   });
 
   r.get('/decks/:deckId/versions/:number/factors.csv', allow('report:export'), params, (req, res) => {
-    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const data = reportData(db, req.user!, res.locals.params.deckId, res.locals.params.number);
     const text = factorsCsv(data);
     audit(req, data, 'the factor table (CSV)');
     res.attachment(`${fileStem(data)}-factors.csv`);
@@ -47,7 +47,7 @@ export function reportRouter(db: Db): Router {
   });
 
   r.get('/decks/:deckId/versions/:number/envelopes.csv', allow('report:export'), params, (req, res) => {
-    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const data = reportData(db, req.user!, res.locals.params.deckId, res.locals.params.number);
     const text = envelopesCsv(data);
     audit(req, data, 'the girder envelopes (CSV)');
     res.attachment(`${fileStem(data)}-envelopes.csv`);

@@ -11,6 +11,7 @@ import { ApiError } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
 import { findProject } from '../projects/projectService.js';
 import { computeStoredResults } from './analysis.js';
+import { withheldResults, type WithheldResults } from '../training/withheldResults.js';
 
 interface Actor {
   id: number;
@@ -50,13 +51,16 @@ function deckSummary(db: Db, d: DeckRow) {
   };
 }
 
-function fullVersion(db: Db, v: DeckVersionRow) {
-  const results = db.select().from(analysisResults).where(eq(analysisResults.versionId, v.id)).all();
+/** The version with its stored results, unless they are withheld from the reader (then none). */
+function fullVersion(db: Db, v: DeckVersionRow, withheld: WithheldResults | null = null) {
+  const results = withheld ? [] : db.select().from(analysisResults).where(eq(analysisResults.versionId, v.id)).all();
   return {
     ...versionSummary(db, v),
     deck: JSON.parse(v.deckJson) as Deck,
     placements: v.placementsJson === null ? null : (JSON.parse(v.placementsJson) as unknown),
     results: results.map((r) => ({ method: r.method, solverVersion: r.solverVersion, data: JSON.parse(r.dataJson) as unknown, createdAt: r.createdAt })),
+    /** Set when the results are hidden from this reader (a trainee's open exercise on this version). */
+    resultsWithheld: withheld,
   };
 }
 
@@ -83,11 +87,11 @@ export function getDeck(db: Db, firmId: number, deckId: number) {
   return { deck: deckSummary(db, d), versions: versions.map((v) => versionSummary(db, v)) };
 }
 
-export function getVersion(db: Db, firmId: number, deckId: number, number: number) {
-  findDeck(db, firmId, deckId);
+export function getVersion(db: Db, reader: Actor, deckId: number, number: number) {
+  findDeck(db, reader.firmId, deckId);
   const v = db.select().from(deckVersions).where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number))).get();
   if (!v) throw ApiError.notFound(`version ${number} of deck ${deckId}`);
-  return fullVersion(db, v);
+  return fullVersion(db, v, withheldResults(db, reader, v.id));
 }
 
 interface SaveInput {
