@@ -1,6 +1,7 @@
 /** The firm's users, managed by its admins. */
 import { and, asc, eq } from 'drizzle-orm';
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 import type { Db } from '../../db/client.js';
 import { ROLES, sessions, userRoles, users, type Role } from '../../db/schema.js';
 import { hashPassword, temporaryPassword } from '../../auth/password.js';
@@ -14,13 +15,13 @@ const roles = z
 
 export const userCreateBody = z.strictObject({
   email: z.string().trim().toLowerCase().email('email must be an e-mail address').max(254),
-  name: z.string().trim().min(1, 'name is required').max(200, 'name must be at most 200 characters'),
+  name: personText('name', 200, { min: 1, minMessage: 'name is required' }),
   roles,
 });
 
 export const userUpdateBody = z
   .strictObject({
-    name: z.string().trim().min(1, 'name is required').max(200, 'name must be at most 200 characters').optional(),
+    name: personText('name', 200, { min: 1, minMessage: 'name is required' }).optional(),
     roles: roles.optional(),
     disabled: z.boolean({ error: 'disabled must be true or false' }).optional(),
   })
