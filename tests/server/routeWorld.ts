@@ -109,9 +109,9 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'PATCH /api/projects/:projectId': { params: { projectId: ids.projectId }, body: { notes: 'checked' } },
     'GET /api/projects/:projectId/audit': { params: { projectId: ids.projectId } },
     'GET /api/projects/:projectId/decks': { params: { projectId: ids.projectId } },
-    'POST /api/projects/:projectId/decks': { params: { projectId: ids.projectId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save' } },
+    'POST /api/projects/:projectId/decks': { params: { projectId: ids.projectId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', placements: { format: 'deckshare-placements-1', lanes: [] } } },
     'GET /api/decks/:deckId': { params: { deckId: ids.deckId } },
-    'POST /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', basedOnVersionId: ids.versionId } },
+    'POST /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', basedOnVersionId: ids.versionId, placements: { format: 'deckshare-placements-1', lanes: [] } } },
     'GET /api/decks/:deckId/versions/:number': { params: version },
     'GET /api/admin/users': {},
     'POST /api/admin/users': { body: { email: 'new-user@larchmont-ridge.example', name: 'New User', roles: ['trainee'] } },
@@ -180,8 +180,16 @@ export function tableCounts(db: Db): Record<string, number> {
   return out;
 }
 
-/** Rows inserted, changed or deleted on the app's database connection since it opened
- *  (SQLite total_changes(), triggers included): unchanged means nothing was written. */
-export function totalChanges(db: Db): number {
-  return db.get<{ n: number }>(sql`select total_changes() as n`)!.n;
+/** Tables whose rows can never change or go (database triggers refuse updates and deletes):
+ *  their row counts tell all that a request wrote to them. */
+const APPEND_ONLY = new Set(['deck_versions', 'analysis_results', 'audit_log', 'review_comments', 'submissions', 'outbox_messages']);
+
+/** The stored state a request could change: the row count of every table and the content of
+ *  every table whose rows can be updated. Equal before and after means nothing was written. */
+export function databaseState(db: Db): string {
+  const counts = tableCounts(db);
+  const contents = Object.keys(counts)
+    .filter((t) => !APPEND_ONLY.has(t))
+    .map((t) => `${t}:${JSON.stringify(db.all(sql.raw(`select * from "${t}" order by rowid`)))}`);
+  return `${JSON.stringify(counts)}\n${contents.join('\n')}`;
 }
