@@ -8,6 +8,7 @@
 import { createReadStream, existsSync } from 'node:fs';
 import { Router } from 'express';
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 import type { Db } from '../../db/client.js';
 import { allow } from '../../auth/passport.js';
 import { ApiError } from '../../middleware/errors.js';
@@ -18,7 +19,7 @@ import { receiveOneFile } from '../../uploads/receiveFile.js';
 import { contentDisposition } from '../../uploads/contentDisposition.js';
 
 const uploadFields = z.strictObject({
-  title: z.string({ error: 'title must be text' }).trim().max(200, 'title must be at most 200 characters').optional(),
+  title: personText('title', 200).optional(),
 });
 
 export function projectAttachmentsRouter(db: Db, dir: string): Router {
