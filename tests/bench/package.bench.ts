@@ -16,7 +16,7 @@ import { calculationPackagePdf } from '../../server/reports/calculationPackage.j
 
 const dir = mkdtempSync(join(tmpdir(), 'deckshare-bench-'));
 const db = openDatabase(join(dir, 'bench.db'));
-await seedDemo(db);
+await seedDemo(db, 'bench-demo-password-1');
 const firmId = db.select().from(firms).orderBy(asc(firms.id)).get()!.id;
 const deck = db.select().from(decks).orderBy(asc(decks.id)).get()!;
 const plain = reportData(db, firmId, deck.id, 1);
