@@ -1,6 +1,6 @@
 /** Malformed multipart bodies sent raw to every upload route (drawings, CSV import): random
  *  boundaries, truncation at every byte, header-only parts, missing CRLFs, huge part-header
- *  lines and wrong Content-Types. Every answer is a 4xx in the error envelope, never a 5xx, and
+ *  lines, wrong Content-Types and broken limits. Every answer is a 4xx in the error envelope, never a 5xx, and
  *  nothing is stored (no attachment row, no file in the attachments folder, no deck version, no
  *  audit entry). Random cases use fast-check (one fixed seed under CI; FC_SEED replays). */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -199,6 +199,21 @@ describe.each(routes)('malformed multipart bodies on the $name route', (route) =
       }),
       { numRuns: 6 },
     );
+  });
+
+  it('names the limit a well-framed body breaks: a second file, too many parts, a long field, a file too large', async () => {
+    const b = 'limits';
+    const [field, file] = route.parts();
+    const second = await expectRefused(route, MULTIPART(b), body(b, [field, file, { ...file, filename: 'again.pdf' }]));
+    expect(second.body.error.details[0].path).toBe('file');
+    const many = Array.from({ length: 25 }, (_, i) => ({ name: `extra${i}`, content: 'x' }));
+    expect((await expectRefused(route, MULTIPART(b), body(b, [field, ...many, file]))).status).toBe(400);
+    const long = await expectRefused(route, MULTIPART(b), body(b, [{ ...field, content: 'x'.repeat(10_001) }, file]));
+    expect(long.status).toBe(413);
+    expect(long.body.error.details[0].path).toBe(field.name);
+    const big = await expectRefused(route, MULTIPART(b), body(b, [field, { ...file, content: file.content + ' '.repeat(21 * 1024 * 1024) }]));
+    expect(big.status).toBe(413);
+    expect(big.body.error.details[0].path).toBe('file');
   });
 
   it('refuses a well-formed body under a wrong or incomplete Content-Type', async () => {
