@@ -2,11 +2,12 @@
  *  deck schema, so the API, the forms and the command-line tool apply the same rules. */
 import { z } from 'zod';
 import { deckSchema } from '../../../shared/deck/schema.js';
+import { placementsSchema } from './placementsModel.js';
 
 const message = z.string({ error: 'message must be text' }).trim().min(1, 'a save message is required').max(500, 'message must be at most 500 characters');
 
-/** Saved lane and wheel placements: free-form JSON, bounded in size by the body limit. */
-const placements = z.unknown().optional();
+/** Saved lane and wheel placements (placementsModel.ts): bounded in depth, lengths and size. */
+const placements = placementsSchema.optional();
 
 export const deckCreateBody = z.strictObject({
   deck: deckSchema,
