@@ -118,7 +118,7 @@ function encodeOrRefuse(r: ReturnType<typeof computeStoredResults>[number]) {
   } catch (e) {
     if (!(e instanceof ResultTooLargeError)) throw e;
     const mb = (n: number) => `${(n / 1024 / 1024).toFixed(1)} MB`;
-    const message = `the ${r.method} results of this deck would take ${e.bytes === null ? 'more than any string can hold' : mb(e.bytes)}, more than the ${mb(MAX_RESULT_JSON_BYTES)} one version may store; the roadway is far wider than a highway bridge (every lane case is traced): check the girder count and spacing`;
+    const message = `the ${r.method} results of this deck would take ${e.bytes === null ? 'more than any string can hold' : mb(e.bytes)}, more than the ${mb(MAX_RESULT_JSON_BYTES)} one version may store: check the girder count, spacing and spans`;
     throw ApiError.badRequest(`body.deck: ${message}`, [{ path: 'body.deck', message }]);
   }
 }
