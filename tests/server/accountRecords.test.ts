@@ -6,6 +6,10 @@ import { demo, signIn, type Agent } from './helpers.js';
 import { makeWorkflowApp, otherFirm, send, type WorkflowContext } from './workflowHelpers.js';
 import nodemailer from 'nodemailer';
 import { outboxMessages, users } from '../../server/db/schema.js';
+import { openDatabase } from '../../server/db/client.js';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { FIRM_HEADER, KIND_HEADER } from '../../server/mail/mailer.js';
 
 let ctx: WorkflowContext;
@@ -56,5 +60,22 @@ describe('the local mail service', () => {
     const before = ctx.db.select({ n: count() }).from(outboxMessages).get()!.n;
     await ctx.mailer.send({ to: demo.admin, subject: 'A notice', text: 'hello', html: '<p>hello</p>', firmId: 1, kind: 'review-requested' });
     expect(ctx.db.select({ n: count() }).from(outboxMessages).get()!.n).toBe(before + 1);
+  });
+});
+
+describe('durable saves', () => {
+  it('every connection syncs the write-ahead log at each commit (synchronous = FULL, SQLite "PRAGMA synchronous")', () => {
+    // 2 = FULL. The application's connection, and a second one opened on the same file.
+    expect(ctx.db.$client.pragma('synchronous', { simple: true })).toBe(2);
+    const dir = mkdtempSync(join(tmpdir(), 'deckshare-sync-'));
+    const a = openDatabase(join(dir, 'a.db'));
+    const b = openDatabase(join(dir, 'a.db'));
+    for (const c of [a, b]) {
+      expect(c.$client.pragma('synchronous', { simple: true })).toBe(2);
+      expect(c.$client.pragma('journal_mode', { simple: true })).toBe('wal');
+    }
+    a.$client.close();
+    b.$client.close();
+    rmSync(dir, { recursive: true, force: true });
   });
 });

@@ -31,6 +31,9 @@ export interface WorldIds {
   token: string;
 }
 
+/** Saved placements in the workspace's format (server/api/decks/placementsModel.ts). */
+const PLACEMENTS = { format: 'deckshare-placements-1', vehicle: 'design truck', lanes: [{ left: 0.6, wheelOffset: 0.6 }], studied: { girder: 0, effect: 'moment' } };
+
 const due = () => new Date(Date.now() + 7 * 86400_000).toISOString();
 
 function ok<T extends { status: number; body: unknown }>(res: T, what: string): T {
@@ -109,9 +112,9 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'PATCH /api/projects/:projectId': { params: { projectId: ids.projectId }, body: { notes: 'checked' } },
     'GET /api/projects/:projectId/audit': { params: { projectId: ids.projectId } },
     'GET /api/projects/:projectId/decks': { params: { projectId: ids.projectId } },
-    'POST /api/projects/:projectId/decks': { params: { projectId: ids.projectId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', placements: { format: 'deckshare-placements-1', lanes: [] } } },
+    'POST /api/projects/:projectId/decks': { params: { projectId: ids.projectId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', placements: PLACEMENTS } },
     'GET /api/decks/:deckId': { params: { deckId: ids.deckId } },
-    'POST /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', basedOnVersionId: ids.versionId, placements: { format: 'deckshare-placements-1', lanes: [] } } },
+    'POST /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', basedOnVersionId: ids.versionId, placements: PLACEMENTS } },
     'GET /api/decks/:deckId/versions/:number': { params: version },
     'GET /api/admin/users': {},
     'POST /api/admin/users': { body: { email: 'new-user@larchmont-ridge.example', name: 'New User', roles: ['trainee'] } },

@@ -1,6 +1,7 @@
 /** Request schemas for review rounds. Strings are trimmed; unknown fields are refused. */
 import { z } from 'zod';
 import { personText } from '../../../shared/text.js';
+import { pageFields } from '../pagination.js';
 import { REVIEW_STATES } from '../../db/schema.js';
 import { idText } from '../../middleware/validate.js';
 
@@ -57,10 +58,12 @@ export const listQuery = z.strictObject({
   view: z.enum(['assigned', 'submitted', 'all'], { error: 'view must be assigned, submitted or all' }).default('all'),
   state: z.enum(REVIEW_STATES, { error: `state must be one of ${REVIEW_STATES.join(', ')}` }).optional(),
   deckId: idText('deckId').optional(),
+  ...pageFields,
 });
 
 export const statusQuery = z.strictObject({
   deckId: idText('deckId'),
+  ...pageFields,
 });
 
 export type SubmitBody = z.infer<typeof submitBody>;

@@ -7,7 +7,7 @@
  */
 import { and, eq, notExists } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
-import { assignments, assignmentTrainees, submissions } from '../../db/schema.js';
+import { assignments, assignmentTrainees, deckVersions, submissions } from '../../db/schema.js';
 import { ApiError } from '../../middleware/errors.js';
 
 export interface WithheldResults {
@@ -46,4 +46,10 @@ export function withheldResults(db: Db, user: { id: number; firmId: number }, ve
 export function assertResultsVisible(db: Db, user: { id: number; firmId: number }, versionId: number): void {
   const w = withheldResults(db, user, versionId);
   if (w) throw ApiError.forbidden(w.message, 'results_withheld');
+}
+
+/** The same check for a version named by its deck and number (unknown versions pass: the caller answers 404). */
+export function assertVersionResultsVisible(db: Db, user: { id: number; firmId: number }, deckId: number, number: number): void {
+  const v = db.select({ id: deckVersions.id }).from(deckVersions).where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number))).get();
+  if (v) assertResultsVisible(db, user, v.id);
 }
