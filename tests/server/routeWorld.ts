@@ -10,6 +10,7 @@ import { demo, signIn, type Agent } from './helpers.js';
 import { outbox, send, userId, type WorkflowContext } from './workflowHelpers.js';
 import type { RouteInfo } from './routeTable.js';
 import { girderLayoutTemplate } from '../../server/api/imports/girderLayoutCsv.js';
+import { encodeCursor } from '../../server/api/pagination.js';
 
 /** The smallest PNG of the attachment tests (PNG specification §5.2 signature + IHDR start). */
 export const PNG = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010806000000', 'hex');
@@ -110,17 +111,18 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'POST /api/projects': { body: { name: 'Hostile Creek', ownerAgency: 'County', location: 'Mile 3', units: 'US', notes: '' } },
     'GET /api/projects/:projectId': { params: { projectId: ids.projectId } },
     'PATCH /api/projects/:projectId': { params: { projectId: ids.projectId }, body: { notes: 'checked' } },
-    'GET /api/projects/:projectId/audit': { params: { projectId: ids.projectId } },
+    'GET /api/projects/:projectId/audit': { params: { projectId: ids.projectId }, query: { limit: '5' } },
     'GET /api/projects/:projectId/decks': { params: { projectId: ids.projectId } },
     'POST /api/projects/:projectId/decks': { params: { projectId: ids.projectId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', placements: PLACEMENTS } },
-    'GET /api/decks/:deckId': { params: { deckId: ids.deckId } },
+    'GET /api/decks/:deckId': { params: { deckId: ids.deckId }, query: { limit: '1' } },
+    'GET /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, query: { limit: '1', cursor: encodeCursor({ number: 2 }) } },
     'POST /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', basedOnVersionId: ids.versionId, placements: PLACEMENTS } },
     'GET /api/decks/:deckId/versions/:number': { params: version },
     'GET /api/admin/users': {},
     'POST /api/admin/users': { body: { email: 'new-user@larchmont-ridge.example', name: 'New User', roles: ['trainee'] } },
     'PATCH /api/admin/users/:userId': { params: { userId: ids.managedUserId }, body: { name: 'Managed Again', roles: ['designer'], disabled: false } },
     'POST /api/admin/users/:userId/reset-password': { params: { userId: ids.managedUserId } },
-    'GET /api/mail/outbox': { query: { kind: 'assignment-given', to: 'trainee', limit: '10' } },
+    'GET /api/mail/outbox': { query: { kind: 'assignment-given', to: 'trainee', limit: '10', cursor: encodeCursor({ id: 1_000_000 }) } },
     'GET /api/mail/outbox/:messageId': { params: { messageId: ids.messageId } },
     'GET /api/projects/:projectId/attachments': { params: { projectId: ids.projectId } },
     'POST /api/projects/:projectId/attachments': { params: { projectId: ids.projectId }, file: { field: 'file', content: PNG, filename: 'elevation.png', contentType: 'image/png', fields: { title: 'Elevation' } } },
