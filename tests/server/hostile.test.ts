@@ -283,6 +283,23 @@ describe('hostile input on every route', () => {
     for (const d of deep.body.error.details) expect(d.path).toMatch(/^body\.placements/);
   });
 
+  it("a trainee's answer of 1e308 is refused, so no grade holds a difference that is not finite", async () => {
+    const ids = (await fuzzer.get('/api/auth/me')).body.user.id as number;
+    const versionId = (await fuzzer.get(`/api/decks/${samples['GET /api/decks/:deckId'].params!.deckId}/versions/1`)).body.version.id as number;
+    const made = await sendRequest(fuzzer, 'POST', '/api/training/assignments', {
+      rawBody: JSON.stringify({ kind: 'factor', versionId, params: { girder: 'exterior', effect: 'moment', lanes: 'multiple', method: 'governing' }, tolerancePercent: 1, dueAt: new Date(Date.now() + 86400_000).toISOString(), traineeIds: [ids] }),
+    });
+    expect(made.status, JSON.stringify(made.body)).toBe(201);
+    for (const value of [1e308, -1e308]) {
+      const res = await sendRequest(fuzzer, 'POST', `/api/training/mine/${made.body.assignment.id}/submissions`, { rawBody: JSON.stringify({ value }) });
+      expect(res.status).toBe(400);
+      expect(res.body.error.details[0].path).toBe('body.value');
+    }
+    const ok = await sendRequest(fuzzer, 'POST', `/api/training/mine/${made.body.assignment.id}/submissions`, { rawBody: JSON.stringify({ value: 1e-320 }) });
+    expect(ok.status).toBe(201);
+    for (const c of ok.body.submission.grading.checks) expect(Number.isFinite(c.differencePercent)).toBe(true);
+  });
+
   it('the process is still alive and answers /api/health', async () => {
     const res = await request(ctx.app).get('/api/health');
     expect(res.status).toBe(200);
