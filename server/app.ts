@@ -42,22 +42,29 @@ export interface AppDeps {
   attachmentsDir?: string;
 }
 
+/** Helmet's headers; HSTS and upgrade-insecure-requests only when served over HTTPS. */
+function securityHeaders(config: Config) {
+  const https = config.secureCookies;
+  return helmet({
+    strictTransportSecurity: https,
+    contentSecurityPolicy: {
+      directives: {
+        'script-src': ["'self'"],
+        'worker-src': ["'self'", 'blob:'],
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'upgrade-insecure-requests': https ? [] : null,
+      },
+    },
+  });
+}
+
 export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir }: AppDeps): Express {
   const app = express();
   const filesDir = attachmentsDir ?? defaultAttachmentsDir(config.databaseUrl);
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        directives: {
-          'script-src': ["'self'"],
-          'worker-src': ["'self'", 'blob:'],
-          'img-src': ["'self'", 'data:', 'blob:'],
-        },
-      },
-    }),
-  );
+  // Off unless TRUST_PROXY names the proxy: a client cannot pick its own address (rate limits).
+  app.set('trust proxy', config.trustProxy);
+  app.use(securityHeaders(config));
   if (config.logRequests) {
     app.use((req, res, next) => {
       const t0 = process.hrtime.bigint();

@@ -1,13 +1,16 @@
-/** Starts the server: reads the environment, opens (and migrates) the database, seeds demo
- *  data on an empty database, listens, and shuts down cleanly on SIGINT/SIGTERM. */
+/** Starts the server: reads the environment, sizes the password-hashing pool, opens (and
+ *  migrates) the database, seeds demo data on an empty database, listens, and shuts down
+ *  cleanly on SIGINT/SIGTERM (connections, mail, hashing threads, database). */
 import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
 import { demoCredentialsText, seedDemo } from './db/seed.js';
 import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
+import { closePasswordHashing, configurePasswordHashing } from './auth/password.js';
 
 async function main() {
   const config = loadConfig();
+  await configurePasswordHashing({ threads: config.passwordHashThreads, queue: config.passwordHashQueue });
   const db = openDatabase(config.databaseUrl);
   if (config.seedDemo && (await seedDemo(db))) {
     console.log(`Seeded an empty database with demo data.\n${demoCredentialsText()}`);
@@ -28,10 +31,11 @@ async function main() {
     stopping = true;
     console.log(`${signal}: closing connections…`);
     server.close(() => {
-      void mail.close().catch(() => {});
-      db.$client.close();
-      console.log('Deckshare stopped.');
-      process.exit(0);
+      void Promise.allSettled([mail.close(), closePasswordHashing()]).then(() => {
+        db.$client.close();
+        console.log('Deckshare stopped.');
+        process.exit(0);
+      });
     });
     server.closeAllConnections();
     setTimeout(() => process.exit(1), 5000).unref();

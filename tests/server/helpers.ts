@@ -9,6 +9,7 @@ import { loadConfig, type Config } from '../../server/config/env.js';
 import { openDatabase, type Db } from '../../server/db/client.js';
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed.js';
 import { createApp } from '../../server/app.js';
+import { closePasswordHashing } from '../../server/auth/password.js';
 
 export interface TestContext {
   app: Express;
@@ -32,6 +33,8 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
     close() {
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
+      // Worker threads stop; the next hash in this file starts them again.
+      void closePasswordHashing();
     },
   };
 }
