@@ -34,7 +34,7 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
       // Worker threads stop; the next hash in this file starts them again.
-      void closePasswordHashing();
+      void closePasswordHashing().catch(() => {});
     },
   };
 }
