@@ -43,8 +43,11 @@ function signInLimiter(name: string, limit: number, key: (req: Request, res: Res
   });
 }
 
-/** Per client address, whatever the e-mail: stops one client trying many accounts. */
-function addressLimiter(config: Config) {
+/**
+ * Per client address, whatever the e-mail: stops one client trying many accounts. Mounted by
+ * createApp ahead of body parsing (server/app.ts), so a flood from one address stays cheap.
+ */
+export function addressLimiter(config: Config) {
   return signInLimiter('sign-in-address', config.loginAttemptsPerAddressPer15Min, (req) => ipKeyGenerator(req.ip ?? ''), 'too many failed sign-ins from this address');
 }
 
@@ -56,9 +59,9 @@ function accountLimiter(config: Config) {
 export function authRouter(db: Db, config: Config, pp: passport.PassportStatic): Router {
   const r = Router();
 
-  // who: anyone (not signed in). The address limit runs before anything else; the account
-  // limit needs the validated e-mail.
-  r.post('/login', addressLimiter(config), validate({ body: loginBody }), accountLimiter(config), async (_req, res) => {
+  // who: anyone (not signed in). The per-address limit has already run (server/app.ts); the
+  // per-account one needs the validated e-mail.
+  r.post('/login', validate({ body: loginBody }), accountLimiter(config), async (_req, res) => {
     const { email, password } = res.locals.body as z.infer<typeof loginBody>;
     const row = db.select().from(users).where(eq(users.email, email)).get();
     // Unknown e-mail: compared against a dummy hash, so it takes as long as a wrong password.
