@@ -142,6 +142,16 @@ describe('password hashing off the request thread, bounded', () => {
     }
   });
 
+  it('reads the pool size and the limits from the environment, with bounded defaults', () => {
+    const defaults = loadConfig({ NODE_ENV: 'test' });
+    expect(defaults).toMatchObject({ passwordHashThreads: defaultPasswordHashThreads(), passwordHashQueue: 16, loginAttemptsPer15Min: 10, loginAttemptsPerAddressPer15Min: 50 });
+    expect(defaults.passwordHashThreads).toBeGreaterThanOrEqual(1);
+    const set = loadConfig({ NODE_ENV: 'test', PASSWORD_HASH_THREADS: '2', PASSWORD_HASH_QUEUE: '0', LOGIN_ATTEMPTS_PER_ADDRESS_PER_15_MIN: '200' });
+    expect(set).toMatchObject({ passwordHashThreads: 2, passwordHashQueue: 0, loginAttemptsPerAddressPer15Min: 200 });
+    expect(() => loadConfig({ NODE_ENV: 'test', PASSWORD_HASH_THREADS: '0' })).toThrow(/PASSWORD_HASH_THREADS/);
+    expect(() => loadConfig({ NODE_ENV: 'test', PASSWORD_HASH_QUEUE: 'lots' })).toThrow(/PASSWORD_HASH_QUEUE/);
+  });
+
   it('refuses at once, without queueing, the task beyond threads + queue', async () => {
     const pool = new PasswordPool({ threads: 1, queue: 2 });
     try {
