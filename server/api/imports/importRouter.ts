@@ -7,11 +7,12 @@
  */
 import { Router } from 'express';
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 import type { Db } from '../../db/client.js';
 import { allow } from '../../auth/passport.js';
 import { validate } from '../../middleware/validate.js';
 import { ApiError } from '../../middleware/errors.js';
-import { receiveOneFile } from '../attachments/attachmentRouter.js';
+import { receiveOneFile } from '../../uploads/receiveFile.js';
 import { girderLayoutTemplate } from './girderLayoutCsv.js';
 import { importGirderLayout } from './importService.js';
 
@@ -20,7 +21,7 @@ export const MAX_CSV_BYTES = 256 * 1024;
 const templateQuery = z.strictObject({ units: z.enum(['US', 'SI'], { error: 'units must be "US" or "SI"' }).default('US') });
 const importFields = z.strictObject({
   deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id'),
-  message: z.string().trim().max(500, 'message must be at most 500 characters').optional(),
+  message: personText('message', 500, { multiline: true }).optional(),
   dryRun: z.enum(['true', 'false'], { error: 'dryRun must be "true" or "false"' }).default('false'),
 });
 
@@ -32,7 +33,7 @@ export function importRouter(db: Db): Router {
     res.type('text/csv; charset=utf-8');
     res.send(girderLayoutTemplate(units));
   });
-  r.post('/girder-layout', allow('deck:save'), receiveOneFile(MAX_CSV_BYTES, 'the CSV file'), validate({ body: importFields }), (req, res) => {
+  r.post('/girder-layout', allow('deck:save'), receiveOneFile({ maxBytes: MAX_CSV_BYTES, what: 'the CSV file' }), validate({ body: importFields }), (req, res) => {
     const file = req.file!;
     const text = file.buffer.toString('utf8');
     if (text.includes('\u0000') || text.includes('\uFFFD')) {
