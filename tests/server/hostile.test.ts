@@ -20,7 +20,7 @@ let samples: Record<string, SampleRequest>;
 
 beforeAll(async () => {
   // Sign-in attempts are rate-limited; raise the limit so the hostile sign-in bodies reach validation.
-  ctx = await makeWorkflowApp({ loginAttemptsPer15Min: 100_000 });
+  ctx = await makeWorkflowApp({ loginAttemptsPer15Min: 100_000, loginAttemptsPerAddressPer15Min: 100_000 });
   const ids = await buildWorld(ctx);
   // One user holding every role, so each route's own validation is reached.
   fuzzer = (await addUser(ctx, 'fuzz@larchmont-ridge.example', ['admin', 'designer', 'reviewer', 'instructor', 'trainee'])).agent;

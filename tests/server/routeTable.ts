@@ -48,5 +48,12 @@ export function listRoutes(app: Express): RouteInfo[] {
   const router = (app as unknown as { router: { stack: Layer[] } }).router;
   const out: RouteInfo[] = [];
   walk(router.stack, '', null, out);
-  return out.filter((r) => r.path.startsWith('/api/'));
+  // A path may have several layers (e.g. a rate limit mounted before the router): list it once,
+  // with the action its router declares.
+  const byKey = new Map<string, RouteInfo>();
+  for (const r of out.filter((x) => x.path.startsWith('/api/'))) {
+    const seen = byKey.get(r.key);
+    if (!seen || (seen.action === null && r.action !== null)) byKey.set(r.key, r);
+  }
+  return [...byKey.values()];
 }
