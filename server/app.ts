@@ -78,7 +78,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
     });
   }
   // Before compression and body parsing: a client over its sign-in limit costs as little as possible.
-  app.post('/api/auth/login', addressLimiter(config));
+  app.post('/api/auth/login', addressLimiter(db, config));
   app.use(compression());
   app.use(cookieParser());
   app.use('/api', express.json({ limit: config.jsonLimit }));
