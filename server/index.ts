@@ -1,10 +1,12 @@
 /** Starts the server: reads the environment, opens (and migrates) the database, seeds demo
- *  data on an empty database, listens, and shuts down cleanly on SIGINT/SIGTERM. */
+ *  data on an empty database, starts the refined-analysis pool, listens, and shuts down
+ *  cleanly on SIGINT/SIGTERM (connections, pool workers, mail, database). */
 import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
 import { demoCredentialsText, seedDemo } from './db/seed.js';
 import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
+import { refinedPoolFor } from './compute/refinedPool.js';
 
 async function main() {
   const config = loadConfig();
@@ -14,7 +16,9 @@ async function main() {
   }
   const mail = await startMail(db, process.env, (line) => console.log(line));
   console.log(`Mail: ${mail.mailer.description}${mail.local ? ' (messages kept in the outbox, read by admins under Mail)' : ''}`);
-  const app = createApp({ db, config, mailer: mail.mailer });
+  const refinedPool = refinedPoolFor(config);
+  console.log(`Refined analyses: ${config.refinedThreads} worker thread(s), ${config.refinedJobMs / 1000} s per run, ${config.refinedQueue} waiting at most`);
+  const app = createApp({ db, config, mailer: mail.mailer, refinedPool });
   const server = app.listen(config.port, config.host, (err?: Error) => {
     if (err) {
       console.error(`Deckshare could not listen on ${config.host}:${config.port}: ${err.message}`);
@@ -29,9 +33,14 @@ async function main() {
     console.log(`${signal}: closing connections…`);
     server.close(() => {
       void mail.close().catch(() => {});
-      db.$client.close();
-      console.log('Deckshare stopped.');
-      process.exit(0);
+      void refinedPool
+        .close()
+        .catch(() => {})
+        .finally(() => {
+          db.$client.close();
+          console.log('Deckshare stopped.');
+          process.exit(0);
+        });
     });
     server.closeAllConnections();
     setTimeout(() => process.exit(1), 5000).unref();

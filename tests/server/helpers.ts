@@ -9,13 +9,16 @@ import { loadConfig, type Config } from '../../server/config/env.js';
 import { openDatabase, type Db } from '../../server/db/client.js';
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed.js';
 import { createApp } from '../../server/app.js';
+import { refinedPoolFor, type RefinedPool } from '../../server/compute/refinedPool.js';
 
 export interface TestContext {
   app: Express;
   db: Db;
   config: Config;
   dir: string;
-  close(): void;
+  /** The app's refined-analysis worker pool. */
+  refinedPool: RefinedPool;
+  close(): Promise<void>;
 }
 
 export async function makeTestApp(overrides: Partial<Config> = {}): Promise<TestContext> {
@@ -23,13 +26,16 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: join(dir, 'test.db'), LOG_REQUESTS: 'false', CLIENT_DIST: join(dir, 'no-client') }, overrides);
   const db = openDatabase(config.databaseUrl);
   await seedDemo(db);
-  const app = createApp({ db, config, log: () => {} });
+  const refinedPool = refinedPoolFor(config);
+  const app = createApp({ db, config, log: () => {}, refinedPool });
   return {
     app,
     db,
     config,
     dir,
-    close() {
+    refinedPool,
+    async close() {
+      await refinedPool.close();
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
     },
