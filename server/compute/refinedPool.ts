@@ -35,6 +35,8 @@ export interface RefinedPoolOptions {
   workerMemoryMb: number;
   /** Largest model accepted, nodes × girder lines. */
   maxNodeGirders: number;
+  /** Where a worker's failure outside any job is reported (default: console.error). */
+  log?: (line: string) => void;
 }
 
 export interface RefinedPoolStats {
@@ -69,10 +71,15 @@ interface Job {
   controller: AbortController;
   startedAt: number | null;
   timer: NodeJS.Timeout | null;
+  /** Ends a job no worker has started in time (a worker that cannot start). */
+  startTimer: NodeJS.Timeout;
   timedOut: boolean;
+  notStarted: boolean;
   promise: Promise<RefinedAnswer>;
 }
 
+/** Allowance for starting a worker (the tsx loader and the solver's modules), ms. */
+const WORKER_START_MS = 30_000;
 const LOADER = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
 const WORKER = new URL('./refinedWorker.ts', import.meta.url).href;
 
@@ -102,8 +109,10 @@ export class RefinedPool {
     this.pool.on('message', (m: unknown) => {
       if (isStarted(m)) this.started(m.jobId);
     });
-    // A worker lost with no task of ours on it (e.g. at start-up) must not crash the server.
-    this.pool.on('error', () => {});
+    // A worker lost with no task on it (e.g. at start-up) must not crash the server; jobs it
+    // leaves waiting are ended by their start deadline.
+    const log = options.log ?? ((line: string) => console.error(line));
+    this.pool.on('error', (e: unknown) => log(`refined-analysis worker failed: ${e instanceof Error ? e.message : String(e)}`));
   }
 
   /**
@@ -132,7 +141,13 @@ export class RefinedPool {
   private submit(key: string, deckJson: string): Job {
     const id = this.nextId++;
     const controller = new AbortController();
-    const job: Job = { id, key, controller, startedAt: null, timer: null, timedOut: false, promise: Promise.resolve(null as never) };
+    // Every job ahead of this one ends within jobMs (plus a worker start), so it starts within this deadline.
+    const startMs = (this.options.jobMs + WORKER_START_MS) * Math.ceil((this.jobs.size + 1) / this.options.threads);
+    const startTimer = setTimeout(() => {
+      job.notStarted = true;
+      controller.abort();
+    }, startMs);
+    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never) };
     this.counts.jobs++;
     job.promise = this.pool
       .run({ jobId: id, deckJson }, { signal: controller.signal })
@@ -156,15 +171,16 @@ export class RefinedPool {
   private started(jobId: number): void {
     const job = this.byId.get(jobId);
     if (!job || job.startedAt !== null) return;
+    clearTimeout(job.startTimer);
     job.startedAt = performance.now();
     job.timer = setTimeout(() => {
       job.timedOut = true;
       job.controller.abort();
     }, this.options.jobMs);
-    job.timer.unref();
   }
 
   private settle(job: Job): void {
+    clearTimeout(job.startTimer);
     if (job.timer) clearTimeout(job.timer);
     this.jobs.delete(job.key);
     this.byId.delete(job.id);
@@ -180,6 +196,14 @@ export class RefinedPool {
         `The refined (grillage) analysis of this version ran longer than this server's limit of ${seconds} s and was stopped. ` +
           'The server may be busy: try again in a few minutes. If it stops again, the deck is too large for a refined run here: run the grillage in the workspace with a coarser mesh, ' +
           'or ask an administrator to raise REFINED_JOB_SECONDS.',
+      );
+    }
+    if (job.notStarted) {
+      this.counts.failed++;
+      return new ApiError(
+        503,
+        'refined_unavailable',
+        'The refined (grillage) analysis of this version could not be started: no analysis worker became free in time. Try again in a few minutes; if it persists, an administrator should check the server log.',
       );
     }
     if ((e as { code?: unknown }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
@@ -216,7 +240,10 @@ export class RefinedPool {
 
   /** Stops every worker (jobs still running fail); for shutdown and tests. */
   async close(): Promise<void> {
-    for (const job of this.jobs.values()) if (job.timer) clearTimeout(job.timer);
+    for (const job of this.jobs.values()) {
+      clearTimeout(job.startTimer);
+      if (job.timer) clearTimeout(job.timer);
+    }
     await this.pool.destroy();
   }
 }

@@ -1,0 +1,50 @@
+/** The refined model-size count used before queueing (server/compute/modelSize.ts): it
+ *  follows the mesher's node count (shared/grillage/mesh.ts, which it must not fall below,
+ *  or the limit would let through decks larger than it states), and the default limit
+ *  refuses the largest deck the schema accepts. Node counts: common practice, no source. */
+import { describe, expect, it } from 'vitest';
+import { loadConfig } from '../../server/config/env.js';
+import { modelSizeRefusal, refinedModelSize } from '../../server/compute/modelSize.js';
+import { assertDeck, type Deck } from '../../shared/deck/schema.js';
+import { deckFromDisplay } from '../../shared/deck/units.js';
+import { buildGrillage } from '../../shared/grillage/model.js';
+import { REFINED_SEGMENTS_PER_SPAN } from '../../shared/grillage/refinedFactors.js';
+import { quarryCreekUs } from '../fixtures/decks.js';
+
+function deck(girders: number, spans: number, skews: number[], continuous: boolean, diaphragms = 1): Deck {
+  const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
+  us.girders = { kind: 'uniform', count: girders, spacing: 8 };
+  us.spans = Array.from({ length: spans }, (_, j) => ({ length: 90 + 10 * j }));
+  us.supports = skews.map((skew) => ({ skew }));
+  us.continuous = continuous;
+  us.diaphragms = { type: 'concrete-diaphragms', atSupports: true, intermediatePerSpan: diaphragms };
+  return assertDeck(deckFromDisplay(us as never, 'US'));
+}
+
+describe('refined model size', () => {
+  const cases: [string, Deck][] = [
+    ['right, one span', deck(5, 1, [0, 0], false)],
+    ['20° skew, skew-parallel, two continuous spans', deck(6, 2, [20, 20, 20], true, 2)],
+    ['30° skew, perpendicular, simple spans', deck(8, 2, [30, 30, 30], false)],
+    ['fanned skews 45° to 10°', deck(7, 3, [45, 30, 10, 0], true, 0)],
+    ['right, three simple spans', deck(4, 3, [0, 0, 0, 0], false, 3)],
+  ];
+  for (const [name, d] of cases) {
+    it(`counts about the mesher's nodes: ${name}`, () => {
+      const actual = buildGrillage(d, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN }).stats.nodes;
+      const size = refinedModelSize(d);
+      expect(size.nodes).toBeGreaterThanOrEqual(actual);
+      expect(size.nodes).toBeLessThanOrEqual(actual * 1.1);
+      expect(size.nodeGirders).toBe(size.nodes * size.girders);
+    });
+  }
+
+  it('the default limit refuses the largest schema-legal deck and takes 40 girders on two spans', () => {
+    const limit = loadConfig({}).refinedMaxNodeGirders;
+    // schema bounds: 40 girders, 12 spans, 20 intermediate diaphragms per span; 30° skew
+    const largest = refinedModelSize(deck(40, 12, Array(13).fill(30), true, 20));
+    expect(modelSizeRefusal(largest, limit)).toMatch(/40 girders, 12 spans\) would have about [\d,]+ nodes × 40 girder lines/);
+    expect(modelSizeRefusal(refinedModelSize(deck(40, 2, [30, 30, 30], true, 0)), limit)).toBeNull();
+    expect(modelSizeRefusal(refinedModelSize(deck(12, 12, Array(13).fill(30), true, 0)), limit)).toBeNull();
+  });
+});
