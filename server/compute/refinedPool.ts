@@ -80,6 +80,8 @@ interface Job {
 
 /** Allowance for starting a worker (the tsx loader and the solver's modules), ms. */
 const WORKER_START_MS = 30_000;
+/** Scheduling priority of the workers below the request thread (nice increment, Linux). */
+const WORKER_NICE = 10;
 const LOADER = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
 const WORKER = new URL('./refinedWorker.ts', import.meta.url).href;
 
@@ -102,8 +104,10 @@ export class RefinedPool {
       minThreads: 0,
       maxThreads: options.threads,
       maxQueue: options.queue + options.threads,
-      idleTimeout: 60_000,
+      idleTimeout: 300_000,
       execArgv: ['--import', LOADER],
+      // below the request thread in the scheduler's eyes (Linux; no effect elsewhere)
+      niceIncrement: WORKER_NICE,
       resourceLimits: { maxOldGenerationSizeMb: options.workerMemoryMb },
     });
     this.pool.on('message', (m: unknown) => {

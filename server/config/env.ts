@@ -36,7 +36,7 @@ const envSchema = z.object({
   /** Heap cap of each refined-analysis worker, MB. */
   REFINED_WORKER_MEMORY_MB: z.coerce.number().int('REFINED_WORKER_MEMORY_MB must be a whole number').min(64).max(65536).default(1024),
   /** Largest refined model accepted: mesh nodes × girder lines (server/compute/modelSize.ts). */
-  REFINED_MAX_NODE_GIRDERS: z.coerce.number().int('REFINED_MAX_NODE_GIRDERS must be a whole number').min(1000).default(150000),
+  REFINED_MAX_NODE_GIRDERS: z.coerce.number().int('REFINED_MAX_NODE_GIRDERS must be a whole number').min(1000).default(100000),
 });
 
 export interface Config {

@@ -39,12 +39,13 @@ describe('refined model size', () => {
     });
   }
 
-  it('the default limit refuses the largest schema-legal deck and takes 40 girders on two spans', () => {
+  it('the default limit refuses the largest schema-legal deck and takes 40 girders on one span', () => {
     const limit = loadConfig({}).refinedMaxNodeGirders;
     // schema bounds: 40 girders, 12 spans, 20 intermediate diaphragms per span; 30° skew
     const largest = refinedModelSize(deck(40, 12, Array(13).fill(30), true, 20));
     expect(modelSizeRefusal(largest, limit)).toMatch(/40 girders, 12 spans\) would have about [\d,]+ nodes × 40 girder lines/);
-    expect(modelSizeRefusal(refinedModelSize(deck(40, 2, [30, 30, 30], true, 0)), limit)).toBeNull();
+    expect(modelSizeRefusal(refinedModelSize(deck(40, 1, [30, 30], true, 0)), limit)).toBeNull();
+    expect(modelSizeRefusal(refinedModelSize(deck(40, 2, [30, 30, 30], true, 0)), limit)).not.toBeNull();
     expect(modelSizeRefusal(refinedModelSize(deck(12, 12, Array(13).fill(30), true, 0)), limit)).toBeNull();
   });
 });
