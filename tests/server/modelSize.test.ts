@@ -2,6 +2,7 @@
  *  follows the mesher's node count (shared/grillage/mesh.ts, which it must not fall below,
  *  or the limit would let through decks larger than it states), and the default limit
  *  refuses the largest deck the schema accepts. Node counts: common practice, no source. */
+import { availableParallelism } from 'node:os';
 import { describe, expect, it } from 'vitest';
 import { loadConfig } from '../../server/config/env.js';
 import { modelSizeRefusal, refinedModelSize } from '../../server/compute/modelSize.js';
@@ -47,5 +48,23 @@ describe('refined model size', () => {
     expect(modelSizeRefusal(refinedModelSize(deck(40, 1, [30, 30], true, 0)), limit)).toBeNull();
     expect(modelSizeRefusal(refinedModelSize(deck(40, 2, [30, 30, 30], true, 0)), limit)).not.toBeNull();
     expect(modelSizeRefusal(refinedModelSize(deck(12, 12, Array(13).fill(30), true, 0)), limit)).toBeNull();
+  });
+});
+
+describe('refined pool settings from the environment', () => {
+  it('defaults to cores − 1 threads (at least 1) and a 60 s run', () => {
+    const c = loadConfig({});
+    expect(c.refinedThreads).toBe(Math.max(1, availableParallelism() - 1));
+    expect(c.refinedJobMs).toBe(60_000);
+    const set = loadConfig({ REFINED_THREADS: '3', REFINED_JOB_SECONDS: '2.5', REFINED_QUEUE: '0', REFINED_WORKER_MEMORY_MB: '256', REFINED_MAX_NODE_GIRDERS: '5000' });
+    expect(set).toMatchObject({ refinedThreads: 3, refinedJobMs: 2500, refinedQueue: 0, refinedWorkerMemoryMb: 256, refinedMaxNodeGirders: 5000 });
+  });
+
+  it('refuses settings that could not work, naming the variable', () => {
+    expect(() => loadConfig({ REFINED_THREADS: '0' })).toThrow(/REFINED_THREADS/);
+    expect(() => loadConfig({ REFINED_THREADS: '1.5' })).toThrow(/REFINED_THREADS must be a whole number/);
+    expect(() => loadConfig({ REFINED_JOB_SECONDS: '0' })).toThrow(/REFINED_JOB_SECONDS must be greater than 0/);
+    expect(() => loadConfig({ REFINED_WORKER_MEMORY_MB: '16' })).toThrow(/REFINED_WORKER_MEMORY_MB/);
+    expect(() => loadConfig({ REFINED_QUEUE: '-1' })).toThrow(/REFINED_QUEUE/);
   });
 });
