@@ -48,10 +48,11 @@ function freePort(): Promise<number> {
   });
 }
 
+/** Quarry Creek with `girders` girders (at 8 ft, or 6 ft above 30 girders to stay within the 80 m deck width) and 110 ft spans, 30° skew. */
 function deck(name: string, girders: number, spans: number): unknown {
   const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
   us.name = name;
-  us.girders = { kind: 'uniform', count: girders, spacing: 8 };
+  us.girders = { kind: 'uniform', count: girders, spacing: girders > 30 ? 6 : 8 };
   us.spans = Array.from({ length: spans }, () => ({ length: 110 }));
   us.supports = Array.from({ length: spans + 1 }, () => ({ skew: 30 }));
   us.continuous = spans > 1;

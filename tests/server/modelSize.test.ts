@@ -14,7 +14,7 @@ import { quarryCreekUs } from '../fixtures/decks.js';
 
 function deck(girders: number, spans: number, skews: number[], continuous: boolean, diaphragms = 1): Deck {
   const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
-  us.girders = { kind: 'uniform', count: girders, spacing: 8 };
+  us.girders = { kind: 'uniform', count: girders, spacing: 6 }; // ft: 40 girders stay within the 80 m deck width
   us.spans = Array.from({ length: spans }, (_, j) => ({ length: 90 + 10 * j }));
   us.supports = skews.map((skew) => ({ skew }));
   us.continuous = continuous;

@@ -14,11 +14,11 @@ import { quarryCreekDeck, quarryCreekUs } from '../fixtures/decks.js';
 import { assertDeck } from '../../shared/deck/schema.js';
 import { RefinedPool } from '../../server/compute/refinedPool.js';
 
-/** Quarry Creek with `girders` girders at 8 ft and `spans` spans of 110 ft, 30° skew. */
-function wideDeck(name: string, girders: number, spans = 1): DeckInput {
+/** Quarry Creek with `girders` girders at `spacing` ft and `spans` spans of 110 ft, 30° skew. */
+function wideDeck(name: string, girders: number, spans = 1, spacing = 8): DeckInput {
   const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
   us.name = name;
-  us.girders = { kind: 'uniform', count: girders, spacing: 8 };
+  us.girders = { kind: 'uniform', count: girders, spacing };
   us.spans = Array.from({ length: spans }, () => ({ length: 110 }));
   us.supports = Array.from({ length: spans + 1 }, () => ({ skew: 30 }));
   us.continuous = spans > 1;
@@ -171,7 +171,7 @@ describe('the limits of the pool', () => {
   it('reports a worker that runs out of memory, and replaces it', async () => {
     const pool = new RefinedPool({ threads: 1, queue: 1, jobMs: 120_000, workerMemoryMb: 16, maxNodeGirders: 1e9, log: () => {} });
     try {
-      const big = assertDeck(wideDeck('Forty girders', 40, 2));
+      const big = assertDeck(wideDeck('Forty girders', 40, 2, 6));
       const failure = await pool.run('big', big, JSON.stringify(big)).then(
         () => null,
         (e: { status?: number; code?: string; message?: string }) => e,
