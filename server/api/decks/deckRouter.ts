@@ -4,7 +4,8 @@ import type { Db } from '../../db/client.js';
 import { allow } from '../../auth/passport.js';
 import { idParams, validate } from '../../middleware/validate.js';
 import { deckCreateBody, versionCreateBody, versionParams } from './deckModel.js';
-import { createDeck, getDeck, getVersion, listDecks, saveVersion } from './deckService.js';
+import { createDeck, getDeck, getVersion, listDecks, listVersions, saveVersion } from './deckService.js';
+import { pageQuery } from '../pagination.js';
 
 export function projectDecksRouter(db: Db): Router {
   const r = Router({ mergeParams: true });
@@ -19,8 +20,12 @@ export function projectDecksRouter(db: Db): Router {
 
 export function deckRouter(db: Db): Router {
   const r = Router();
-  r.get('/:deckId', allow('project:read'), validate({ params: idParams('deckId') }), (req, res) => {
-    res.json(getDeck(db, req.user!.firmId, res.locals.params.deckId));
+  r.get('/:deckId', allow('project:read'), validate({ params: idParams('deckId'), query: pageQuery }), (req, res) => {
+    res.json(getDeck(db, req.user!.firmId, res.locals.params.deckId, res.locals.query));
+  });
+  r.get('/:deckId/versions', allow('project:read'), validate({ params: idParams('deckId'), query: pageQuery }), (req, res) => {
+    const { versions, page } = listVersions(db, req.user!.firmId, res.locals.params.deckId, res.locals.query);
+    res.json({ versions, page });
   });
   r.post('/:deckId/versions', allow('deck:save'), validate({ params: idParams('deckId'), body: versionCreateBody }), (req, res) => {
     res.status(201).json({ version: saveVersion(db, req.user!, res.locals.params.deckId, res.locals.body) });

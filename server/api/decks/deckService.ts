@@ -3,7 +3,7 @@
  * the code-method results computed from it; nothing is overwritten (database triggers refuse
  * updates and deletes of versions and results). Firm scoping goes through the project.
  */
-import { and, desc, eq, max } from 'drizzle-orm';
+import { and, count, desc, eq, lt, max } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
 import { analysisResults, decks, deckVersions, projects, users, type DeckRow, type DeckVersionRow } from '../../db/schema.js';
 import type { Deck } from '../../../shared/deck/schema.js';
@@ -11,6 +11,7 @@ import { ApiError } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
 import { findProject } from '../projects/projectService.js';
 import { computeStoredResults } from './analysis.js';
+import { cutPage, decodeCursor, DEFAULT_PAGE, numberCursor, type PageRequest } from '../pagination.js';
 
 interface Actor {
   id: number;
@@ -77,10 +78,27 @@ export function listDecks(db: Db, firmId: number, projectId: number) {
   return db.select().from(decks).where(eq(decks.projectId, projectId)).orderBy(desc(decks.id)).all().map((d) => deckSummary(db, d));
 }
 
-export function getDeck(db: Db, firmId: number, deckId: number) {
+/** A page of a deck's versions, newest first (server/api/pagination.ts). */
+export function listVersions(db: Db, firmId: number, deckId: number, req: PageRequest = { limit: DEFAULT_PAGE }) {
   const d = findDeck(db, firmId, deckId);
-  const versions = db.select().from(deckVersions).where(eq(deckVersions.deckId, d.id)).orderBy(desc(deckVersions.number)).all();
-  return { deck: deckSummary(db, d), versions: versions.map((v) => versionSummary(db, v)) };
+  const after = decodeCursor(req.cursor, numberCursor);
+  const scope = eq(deckVersions.deckId, d.id);
+  const total = db.select({ n: count() }).from(deckVersions).where(scope).get()?.n ?? 0;
+  const rows = db
+    .select()
+    .from(deckVersions)
+    .where(after ? and(scope, lt(deckVersions.number, after.number)) : scope)
+    .orderBy(desc(deckVersions.number))
+    .limit(req.limit + 1)
+    .all();
+  const cut = cutPage(rows, req.limit, total, (v) => ({ number: v.number }));
+  return { deck: d, versions: cut.rows.map((v) => versionSummary(db, v)), page: cut.page };
+}
+
+/** The deck with the first page of its versions (newest first) and the page's cursor. */
+export function getDeck(db: Db, firmId: number, deckId: number, req?: PageRequest) {
+  const { deck, versions, page } = listVersions(db, firmId, deckId, req);
+  return { deck: deckSummary(db, deck), versions, page };
 }
 
 export function getVersion(db: Db, firmId: number, deckId: number, number: number) {

@@ -12,7 +12,7 @@ import type { Db } from '../../db/client.js';
 import { allow } from '../../auth/passport.js';
 import { validate } from '../../middleware/validate.js';
 import { ApiError } from '../../middleware/errors.js';
-import { receiveOneFile } from '../attachments/attachmentRouter.js';
+import { receiveOneFile } from '../../uploads/receiveFile.js';
 import { girderLayoutTemplate } from './girderLayoutCsv.js';
 import { importGirderLayout } from './importService.js';
 
@@ -33,7 +33,7 @@ export function importRouter(db: Db): Router {
     res.type('text/csv; charset=utf-8');
     res.send(girderLayoutTemplate(units));
   });
-  r.post('/girder-layout', allow('deck:save'), receiveOneFile(MAX_CSV_BYTES, 'the CSV file'), validate({ body: importFields }), (req, res) => {
+  r.post('/girder-layout', allow('deck:save'), receiveOneFile({ maxBytes: MAX_CSV_BYTES, what: 'the CSV file' }), validate({ body: importFields }), (req, res) => {
     const file = req.file!;
     const text = file.buffer.toString('utf8');
     if (text.includes('\u0000') || text.includes('\uFFFD')) {
