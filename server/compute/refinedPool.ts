@@ -158,6 +158,9 @@ export class RefinedPool {
       .then(
         (answer) => {
           this.counts.completed++;
+          // structured cloning turns the worker's Buffer into a Uint8Array; the database binds Buffers
+          const blob = answer.encoded?.dataBlob as Uint8Array | null | undefined;
+          if (answer.encoded && blob && !Buffer.isBuffer(blob)) answer.encoded.dataBlob = Buffer.from(blob.buffer, blob.byteOffset, blob.byteLength);
           if (job.startedAt !== null) this.meanMs = 0.7 * this.meanMs + 0.3 * (performance.now() - job.startedAt);
           return answer;
         },

@@ -4,8 +4,9 @@
  * LRFD Art. 4.6.3.3), done here so that the request thread never waits for it.
  *
  * The task says it has started (a message to the pool, which then starts the job's clock),
- * runs the solver and serialises the result here too, so the request thread receives the
- * stored JSON text and only the factor rows it needs. A deck the grillage cannot model
+ * runs the solver and encodes the stored row here too (JSON and brotli,
+ * server/storage/resultEncoding.ts), so the request thread receives the row to insert and only
+ * the factor rows it needs. A deck the grillage cannot model
  * (DeckInputError, GrillageMechanismError) is an answer, not a failure: `{ error }`, stored
  * like a result so the reason is kept. Anything else is thrown to the pool.
  * Units: dimensionless factors (lanes per girder); the result as the solver returns it.
@@ -15,6 +16,8 @@ import { assertDeck, DeckInputError } from '../../shared/deck/schema.js';
 import { GrillageMechanismError } from '../../shared/grillage/errors.js';
 import { computeRefinedFactors } from '../../shared/grillage/refinedFactors.js';
 import type { FactorRow } from '../../shared/lrfd/index.js';
+import { SOLVER_VERSION } from '../../shared/version.js';
+import { encodeResultRow, ResultTooLargeError, type EncodedResult } from '../storage/resultEncoding.js';
 
 export interface RefinedTask {
   jobId: number;
@@ -23,8 +26,8 @@ export interface RefinedTask {
 }
 
 export interface RefinedAnswer {
-  /** What is stored under method 'grillage': the solver's result or `{ error }`, as JSON text. */
-  dataJson: string;
+  /** The row to store under method 'grillage' (the solver's result or `{ error }`, encoded), or null when it is too large to store. */
+  encoded: EncodedResult | null;
   /** The result's factor rows (method 'grillage'), or null with `error`. */
   rows: FactorRow[] | null;
   error?: string;
@@ -45,8 +48,17 @@ function solve(deckJson: string): { data: unknown; rows: FactorRow[] | null; err
   }
 }
 
+function encode(data: unknown): EncodedResult | null {
+  try {
+    return encodeResultRow({ method: 'grillage', solverVersion: SOLVER_VERSION, data });
+  } catch (e) {
+    if (e instanceof ResultTooLargeError) return null;
+    throw e;
+  }
+}
+
 export default function refinedTask(task: RefinedTask): RefinedAnswer {
   parentPort?.postMessage({ kind: 'refined-started', jobId: task.jobId } satisfies StartedMessage);
   const { data, rows, error } = solve(task.deckJson);
-  return { dataJson: JSON.stringify(data), rows, ...(error !== undefined ? { error } : {}) };
+  return { encoded: encode(data), rows, ...(error !== undefined ? { error } : {}) };
 }

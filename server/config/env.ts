@@ -6,6 +6,10 @@ import { randomBytes } from 'node:crypto';
 import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 
+/** Default storage quota per firm: 2 GB of deck versions and results (FIRM_STORAGE_QUOTA_MB). */
+export const DEFAULT_FIRM_STORAGE_QUOTA_MB = 2048;
+export const DEFAULT_FIRM_STORAGE_QUOTA_BYTES = DEFAULT_FIRM_STORAGE_QUOTA_MB * 1024 * 1024;
+
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
@@ -34,6 +38,8 @@ const envSchema = z.object({
   CLIENT_DIST: z.string().default('./dist'),
   /** Public address of the product, used in e-mailed links. */
   PUBLIC_URL: z.string().url().optional(),
+  /** Stored deck data (versions and their results) allowed per firm, MB. */
+  FIRM_STORAGE_QUOTA_MB: z.coerce.number().int('FIRM_STORAGE_QUOTA_MB must be a whole number').min(1).max(1024 * 1024).default(DEFAULT_FIRM_STORAGE_QUOTA_MB),
   /** Worker threads of the refined-analysis pool (default: cores − 1, at least 1). */
   REFINED_THREADS: z.coerce.number().int('REFINED_THREADS must be a whole number').min(1).max(64).optional(),
   /** Longest refined (grillage) run of one version, seconds. */
@@ -65,6 +71,8 @@ export interface Config {
   publicUrl: string;
   /** Cookies marked Secure (production, behind HTTPS). */
   secureCookies: boolean;
+  /** Stored deck data allowed per firm, bytes (FIRM_STORAGE_QUOTA_MB). */
+  firmStorageQuotaBytes: number;
   /** The refined-analysis pool (server/compute/refinedPool.ts). */
   refinedThreads: number;
   refinedJobMs: number;
@@ -109,6 +117,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     clientDist: e.CLIENT_DIST,
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     secureCookies: e.NODE_ENV === 'production',
+    firmStorageQuotaBytes: e.FIRM_STORAGE_QUOTA_MB * 1024 * 1024,
     refinedThreads: e.REFINED_THREADS ?? Math.max(1, availableParallelism() - 1),
     refinedJobMs: e.REFINED_JOB_SECONDS * 1000,
     refinedQueue: e.REFINED_QUEUE,

@@ -18,7 +18,7 @@ import type { FactorRow } from '../../../shared/lrfd/index.js';
 import { deckOf, storedResult } from './versionResults.js';
 import { RefinedModelTooLargeError, type RefinedPool } from '../../compute/refinedPool.js';
 import { SOLVER_VERSION } from '../../../shared/version.js';
-import { analysisResults } from '../../db/schema.js';
+import { insertEncodedResultOnce } from '../../storage/storedResults.js';
 
 export interface RefinedFactor {
   /** Girder number, 1 = left exterior. */
@@ -56,12 +56,9 @@ function rowsOf(data: unknown): FactorRow[] | null {
 async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow): Promise<unknown> {
   const answer = await pool.run(`${v.id}|${SOLVER_VERSION}`, deckOf(v), v.deckJson);
   const data = answer.error !== undefined ? { error: answer.error } : { rows: answer.rows };
-  try {
-    db.insert(analysisResults).values({ versionId: v.id, method: 'grillage', solverVersion: SOLVER_VERSION, dataJson: answer.dataJson }).run();
-  } catch (e) {
-    // Another request stored it first (unique version + method + solver version): keep theirs.
-    if (!String((e as Error).message).includes('UNIQUE')) throw e;
-  }
+  // When another request stored it first (same version, method and solver version), theirs
+  // is kept; a result too large to store (encoded null) serves this request only.
+  if (answer.encoded) insertEncodedResultOnce(db, v.id, answer.encoded);
   return data;
 }
 
