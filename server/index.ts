@@ -1,17 +1,19 @@
-/** Starts the server: reads the environment, opens (and migrates) the database, prepares an
- *  empty one as configured (server/db/bootstrap.ts: the demo firm only with `--demo` or
- *  SEED_DEMO=true outside production, or a first administrator), starts the refined-analysis
- *  pool, listens, and shuts down cleanly on SIGINT/SIGTERM (connections, pool workers, mail,
- *  database). */
+/** Starts the server: reads the environment, sizes the password-hashing pool, opens (and
+ *  migrates) the database, prepares an empty one as configured (server/db/bootstrap.ts: the
+ *  demo firm only with `--demo` or SEED_DEMO=true outside production, or a first
+ *  administrator), starts the refined-analysis pool, listens, and shuts down cleanly on
+ *  SIGINT/SIGTERM (connections, mail, hashing threads, refined-analysis threads, database). */
 import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
 import { bootstrapDatabase } from './db/bootstrap.js';
 import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
+import { closePasswordHashing, configurePasswordHashing } from './auth/password.js';
 import { refinedPoolFor } from './compute/refinedPool.js';
 
 async function main() {
   const config = loadConfig();
+  await configurePasswordHashing({ threads: config.passwordHashThreads, queue: config.passwordHashQueue });
   const db = openDatabase(config.databaseUrl);
   await bootstrapDatabase(db, config, (line) => console.log(line), process.argv.includes('--demo'));
   const mail = await startMail(db, process.env, (line) => console.log(line));
@@ -32,15 +34,11 @@ async function main() {
     stopping = true;
     console.log(`${signal}: closing connections…`);
     server.close(() => {
-      void mail.close().catch(() => {});
-      void refinedPool
-        .close()
-        .catch(() => {})
-        .finally(() => {
-          db.$client.close();
-          console.log('Deckshare stopped.');
-          process.exit(0);
-        });
+      void Promise.allSettled([mail.close(), closePasswordHashing(), refinedPool.close()]).then(() => {
+        db.$client.close();
+        console.log('Deckshare stopped.');
+        process.exit(0);
+      });
     });
     server.closeAllConnections();
     setTimeout(() => process.exit(1), 5000).unref();

@@ -14,7 +14,7 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly details?: ErrorDetail[],
-    /** Response headers the error sets (e.g. Retry-After on a 503). */
+    /** Response headers to send with the error (e.g. Retry-After). */
     readonly headers?: Record<string, string>,
   ) {
     super(message);

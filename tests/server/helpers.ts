@@ -13,6 +13,7 @@ import { seedDemo } from '../../server/db/seed.js';
 export const DEMO_PASSWORD = 'deckshare-demo-1';
 import { createApp } from '../../server/app.js';
 import { refinedPoolFor, type RefinedPool } from '../../server/compute/refinedPool.js';
+import { closePasswordHashing } from '../../server/auth/password.js';
 
 export interface TestContext {
   app: Express;
@@ -41,6 +42,8 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
       await refinedPool.close();
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
+      // Worker threads stop; the next hash in this file starts them again.
+      void closePasswordHashing().catch(() => {});
     },
   };
 }
