@@ -21,8 +21,9 @@ import { addComment, decide, deckReviewStatus, findRound, getReview, listReviewe
 import { refinedSummaryOf } from './refinedSummary.js';
 import { findVersion } from './reviewService.js';
 import { assertResultsVisible } from '../training/withheldResults.js';
+import type { RefinedPool } from '../../compute/refinedPool.js';
 
-export function reviewRouter(db: Db, config: Config, mailer: Mailer): Router {
+export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: RefinedPool): Router {
   const r = Router();
   const deps: ReviewDeps = { db, mailer, publicUrl: config.publicUrl };
   const reviewId = validate({ params: idParams('reviewId') });
@@ -39,12 +40,12 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer): Router {
   r.post('/', allow('review:submit'), validate({ body: submitBody }), (req, res) => {
     res.status(201).json({ review: submitForReview(deps, req.user!, res.locals.body) });
   });
-  r.get('/:reviewId', allow('review:read'), reviewId, (req, res) => {
+  r.get('/:reviewId', allow('review:read'), reviewId, async (req, res) => {
     const round = findRound(db, req.user!.firmId, res.locals.params.reviewId);
     // The round's comments and summary quote the version's results.
     assertResultsVisible(db, req.user!, round.versionId);
     const review = getReview(db, req.user!, round.id);
-    res.json({ review, summary: refinedSummaryOf(db, findVersion(db, req.user!.firmId, round.versionId).v) });
+    res.json({ review, summary: await refinedSummaryOf(db, pool, findVersion(db, req.user!.firmId, round.versionId).v) });
   });
   r.post('/:reviewId/comments', allow('review:comment'), validate({ params: idParams('reviewId'), body: commentBody }), (req, res) => {
     res.status(201).json({ comment: addComment(deps, req.user!, res.locals.params.reviewId, res.locals.body) });
