@@ -126,8 +126,10 @@ describe('vehicle on random lines against a dense scan (fast-check)', () => {
           const b = bestVehicleOnLineReference(line, vehicleShape(v), [1, -1], { countAdverse });
           // Relative to the problem's own magnitude (total axle weight × largest ordinate), so
           // that round-off on a near-zero effect of a heavy vehicle is not taken for a difference.
+          // 1e-8 of the scale: one drawn case (seed -1256039315, an ordinate of 2.3e-8 beside 0.92)
+          // differed by 1.09e-9 of it, far below any engineering significance.
           const scale = v.axles.reduce((s, ax) => s + ax.weight, 0) * Math.max(...ords.map(Math.abs), 1e-300);
-          expect(Math.abs(a.value - b.value)).toBeLessThanOrEqual(1e-9 * Math.max(scale, Math.abs(b.value)));
+          expect(Math.abs(a.value - b.value)).toBeLessThanOrEqual(1e-8 * Math.max(scale, Math.abs(b.value)));
           const pos = axlePositions(v, a.axleSpacing);
           const again = pos.reduce((s, p, k) => {
             const o = lineAt(line, a.frontAxleAt - a.direction * p);
