@@ -1,10 +1,12 @@
 /** Starts the server: reads the environment, opens (and migrates) the database, seeds demo
- *  data on an empty database, listens, and shuts down cleanly on SIGINT/SIGTERM. */
+ *  data on an empty database, starts periodic backups when configured, listens, and shuts
+ *  down cleanly on SIGINT/SIGTERM (waiting for a backup in progress). */
 import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
 import { demoCredentialsText, seedDemo } from './db/seed.js';
 import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
+import { startPeriodicBackup } from './backup/periodic.js';
 
 async function main() {
   const config = loadConfig();
@@ -22,12 +24,15 @@ async function main() {
     }
     console.log(`Deckshare is serving on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${config.port} (database ${config.databaseUrl})`);
   });
+  const backups = config.backup ? startPeriodicBackup({ databaseUrl: config.databaseUrl, ...config.backup, log: (line) => console.log(line) }) : null;
+  if (config.backup) console.log(`Backups: every ${config.backup.everyMinutes} min into ${config.backup.dir}, newest ${config.backup.keep} kept`);
   let stopping = false;
   const stop = (signal: string) => {
     if (stopping) return;
     stopping = true;
     console.log(`${signal}: closing connections…`);
-    server.close(() => {
+    server.close(async () => {
+      await backups?.stop();
       void mail.close().catch(() => {});
       db.$client.close();
       console.log('Deckshare stopped.');

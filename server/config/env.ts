@@ -26,6 +26,12 @@ const envSchema = z.object({
   CLIENT_DIST: z.string().default('./dist'),
   /** Public address of the product, used in e-mailed links. */
   PUBLIC_URL: z.string().url().optional(),
+  /** Folder for periodic backups; unset = no periodic backups. */
+  BACKUP_DIR: z.string().trim().min(1, 'BACKUP_DIR must name a folder').optional(),
+  /** Minutes between periodic backups (with BACKUP_DIR). */
+  BACKUP_EVERY_MINUTES: z.coerce.number().int('BACKUP_EVERY_MINUTES must be a whole number').min(1).max(7 * 24 * 60).default(60),
+  /** Periodic backups kept (the newest); older ones are deleted. */
+  BACKUP_KEEP: z.coerce.number().int('BACKUP_KEEP must be a whole number').min(1).max(1000).default(7),
 });
 
 export interface Config {
@@ -43,6 +49,8 @@ export interface Config {
   publicUrl: string;
   /** Cookies marked Secure (production, behind HTTPS). */
   secureCookies: boolean;
+  /** Periodic backups (server/backup/periodic.ts); null when BACKUP_DIR is unset. */
+  backup: { dir: string; everyMinutes: number; keep: number } | null;
 }
 
 export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: Partial<Config> = {}): Config {
@@ -69,6 +77,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     clientDist: e.CLIENT_DIST,
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     secureCookies: e.NODE_ENV === 'production',
+    backup: e.BACKUP_DIR ? { dir: e.BACKUP_DIR, everyMinutes: e.BACKUP_EVERY_MINUTES, keep: e.BACKUP_KEEP } : null,
     ...overrides,
   };
 }
