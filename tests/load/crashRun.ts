@@ -29,6 +29,8 @@ export interface RoundFigures {
   acknowledged: number;
   unanswered: number;
   integrityAfterKill: string;
+  /** From the restart command to /api/health answering (migrations and WAL recovery included). */
+  restartMs: number;
   readBack: ReadBack;
 }
 
@@ -85,9 +87,11 @@ async function crashRound(round: number, server: RunningServer, dbPath: string, 
   await server.kill();
   await writers.done;
   const integrityAfterKill = checkDatabase(dbPath).integrity;
+  const t0 = Date.now();
   const restarted = await startServer(dbPath);
+  const restartMs = Date.now() - t0;
   const back = await readBack(restarted.url, await signIn(restarted.url, DEMO.designer), target, run, writers.acks);
-  return { figures: { round, killAfterMs, acknowledged: writers.acks.length, unanswered: writers.unanswered, integrityAfterKill, readBack: back }, server: restarted };
+  return { figures: { round, killAfterMs, acknowledged: writers.acks.length, unanswered: writers.unanswered, integrityAfterKill, restartMs, readBack: back }, server: restarted };
 }
 
 function dataFiles(dir: string): string[] {
@@ -168,10 +172,10 @@ function isCorrect(rounds: RoundFigures[], e: ExportCrashFigures, database: Data
 
 function printCrash(print: Print, r: CrashResult): void {
   print('');
-  print('round  kill after ms  acknowledged  unanswered at kill  found intact after restart  lost  integrity after kill');
+  print('round  kill after ms  acknowledged  unanswered at kill  found intact after restart  lost  integrity after kill  restart ms');
   for (const x of r.rounds) {
     const lost = x.readBack.acknowledged - x.readBack.found;
-    print(`${String(x.round).padStart(5)}  ${String(x.killAfterMs).padStart(13)}  ${String(x.acknowledged).padStart(12)}  ${String(x.unanswered).padStart(18)}  ${String(x.readBack.found).padStart(26)}  ${String(lost).padStart(4)}  ${x.integrityAfterKill}`);
+    print(`${String(x.round).padStart(5)}  ${String(x.killAfterMs).padStart(13)}  ${String(x.acknowledged).padStart(12)}  ${String(x.unanswered).padStart(18)}  ${String(x.readBack.found).padStart(26)}  ${String(lost).padStart(4)}  ${x.integrityAfterKill.padEnd(20)}  ${String(x.restartMs).padStart(10)}`);
     for (const p of x.readBack.problems.slice(0, 10)) print(`       problem: ${p}`);
   }
   const e = r.exportCrash;

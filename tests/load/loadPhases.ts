@@ -66,11 +66,11 @@ export async function savePhase(s: LoadSettings, target: SaveTarget, run: string
         path: `/api/decks/${target.deckId}/versions`,
         setupRequest: (req, context) => {
           const n = next++;
-          context.n = n;
+          (context as { n?: number }).n = n;
           return { ...req, headers: sessionFor(s.sessions, n), body: JSON.stringify(saveBody(target, n, run)) };
         },
         onResponse: (status, body, context) => {
-          const ack = ackFrom(context.n as number, status, body);
+          const ack = ackFrom((context as { n: number }).n, status, body);
           if (ack) acks.push(ack);
         },
       },
