@@ -2,14 +2,16 @@
  * The Express application factory. Tests import `createApp` with their own database and
  * configuration; `server/index.ts` only listens.
  *
- * Order: security headers → request log → cookies → JSON body (size-limited) → /api routes
+ * Order: security headers → request log → compression → cookies → JSON body (size-limited) → /api routes
  * (health open; auth; everything else behind authentication, CSRF and the temporary-password
  * check, each route declaring its permitted roles) → API 404 → built client with SPA
- * fallback → one error handler.
+ * fallback → one error handler. The client's hashed assets are cached for a year (their names
+ * change with their content); index.html is revalidated on every load.
  */
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import cookieParser from 'cookie-parser';
+import compression from 'compression';
 import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { sql } from 'drizzle-orm';
@@ -68,6 +70,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
       next();
     });
   }
+  app.use(compression());
   app.use(cookieParser());
   app.use('/api', express.json({ limit: config.jsonLimit }));
 
@@ -98,8 +101,16 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
 
   const dist = resolve(config.clientDist);
   if (existsSync(resolve(dist, 'index.html'))) {
-    app.use(express.static(dist, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => res.sendFile(resolve(dist, 'index.html')));
+    app.use(
+      express.static(dist, {
+        index: false,
+        maxAge: '1h',
+        setHeaders(res, path) {
+          if (/[\\/]assets[\\/][^\\/]+-[\w-]{8}\.\w+$/.test(path)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+        },
+      }),
+    );
+    app.get('/{*splat}', (_req, res) => res.sendFile(resolve(dist, 'index.html'), { headers: { 'Cache-Control': 'no-cache' } }));
   }
   app.use(errorHandler(log));
   return app;

@@ -1,9 +1,11 @@
-/** Starts the server: reads the environment, opens (and migrates) the database, seeds demo
- *  data on an empty database, starts periodic backups when configured, listens, and shuts
- *  down cleanly on SIGINT/SIGTERM (waiting for a backup in progress). */
+/** Starts the server: reads the environment, opens (and migrates) the database, prepares an
+ *  empty one as configured (server/db/bootstrap.ts: the demo firm only with `--demo` or
+ *  SEED_DEMO=true outside production, or a first administrator), starts periodic backups when
+ *  configured, listens, and shuts down cleanly on SIGINT/SIGTERM (waiting for a backup in
+ *  progress). */
 import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
-import { demoCredentialsText, seedDemo } from './db/seed.js';
+import { bootstrapDatabase } from './db/bootstrap.js';
 import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
 import { startPeriodicBackup } from './backup/periodic.js';
@@ -11,9 +13,7 @@ import { startPeriodicBackup } from './backup/periodic.js';
 async function main() {
   const config = loadConfig();
   const db = openDatabase(config.databaseUrl);
-  if (config.seedDemo && (await seedDemo(db))) {
-    console.log(`Seeded an empty database with demo data.\n${demoCredentialsText()}`);
-  }
+  await bootstrapDatabase(db, config, (line) => console.log(line), process.argv.includes('--demo'));
   const mail = await startMail(db, process.env, (line) => console.log(line));
   console.log(`Mail: ${mail.mailer.description}${mail.local ? ' (messages kept in the outbox, read by admins under Mail)' : ''}`);
   const app = createApp({ db, config, mailer: mail.mailer });

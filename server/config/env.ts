@@ -18,8 +18,15 @@ const envSchema = z.object({
   LOGIN_ATTEMPTS_PER_15_MIN: z.coerce.number().int().min(1).max(10000).default(10),
   /** Largest JSON body accepted. */
   JSON_LIMIT: z.string().default('512kb'),
-  /** Seed the invented demo firm when the database is empty: "true" or "false". */
-  SEED_DEMO: z.enum(['true', 'false']).default('true'),
+  /** Seed the invented demo firm when the database is empty: "true" or "false" (never in production). */
+  SEED_DEMO: z.enum(['true', 'false']).default('false'),
+  /** The demo users' password; a random one (printed at start) when unset. */
+  DEMO_PASSWORD: z.string().min(10, 'DEMO_PASSWORD must have at least 10 characters').max(200).optional(),
+  /** First administrator of an empty database (any environment): e-mail, initial password, names. */
+  FIRST_ADMIN_EMAIL: z.string().trim().toLowerCase().email('FIRST_ADMIN_EMAIL must be an e-mail address').optional(),
+  FIRST_ADMIN_PASSWORD: z.string().min(12, 'FIRST_ADMIN_PASSWORD must have at least 12 characters').max(200).optional(),
+  FIRST_ADMIN_NAME: z.string().trim().min(1).max(200).default('Administrator'),
+  FIRM_NAME: z.string().trim().min(1).max(200).optional(),
   /** "true": log one line per request. */
   LOG_REQUESTS: z.enum(['true', 'false']).default('true'),
   /** Folder of the built client (served at /). */
@@ -44,6 +51,10 @@ export interface Config {
   loginAttemptsPer15Min: number;
   jsonLimit: string;
   seedDemo: boolean;
+  /** Password of the demo users when seeding; undefined: a random one. */
+  demoPassword?: string;
+  /** The first administrator created on an empty database, when configured. */
+  firstAdmin?: { email: string; password: string; name: string; firmName: string };
   logRequests: boolean;
   clientDist: string;
   publicUrl: string;
@@ -60,9 +71,16 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     throw new Error(`Invalid environment:\n${lines}`);
   }
   const e = parsed.data;
-  if (e.NODE_ENV === 'production' && !e.JWT_SECRET) {
-    throw new Error('Invalid environment:\n  JWT_SECRET: required in production (at least 32 characters)');
+  const problems: string[] = [];
+  if (e.NODE_ENV === 'production' && !e.JWT_SECRET) problems.push('JWT_SECRET: required in production (at least 32 characters)');
+  if (e.NODE_ENV === 'production' && e.SEED_DEMO === 'true') {
+    problems.push('SEED_DEMO: the demo firm is never seeded in production (its accounts would be open to anyone who reads the README); create the first administrator with FIRST_ADMIN_EMAIL and FIRST_ADMIN_PASSWORD');
   }
+  if ((e.FIRST_ADMIN_EMAIL === undefined) !== (e.FIRST_ADMIN_PASSWORD === undefined)) {
+    problems.push('FIRST_ADMIN_EMAIL and FIRST_ADMIN_PASSWORD: set both or neither');
+  }
+  if (e.FIRST_ADMIN_EMAIL !== undefined && e.FIRM_NAME === undefined) problems.push('FIRM_NAME: required with FIRST_ADMIN_EMAIL (the firm the first administrator belongs to)');
+  if (problems.length) throw new Error(`Invalid environment:\n${problems.map((p) => `  ${p}`).join('\n')}`);
   return {
     env: e.NODE_ENV,
     port: e.PORT,
@@ -73,6 +91,11 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     loginAttemptsPer15Min: e.LOGIN_ATTEMPTS_PER_15_MIN,
     jsonLimit: e.JSON_LIMIT,
     seedDemo: e.SEED_DEMO === 'true',
+    demoPassword: e.DEMO_PASSWORD,
+    firstAdmin:
+      e.FIRST_ADMIN_EMAIL && e.FIRST_ADMIN_PASSWORD && e.FIRM_NAME
+        ? { email: e.FIRST_ADMIN_EMAIL, password: e.FIRST_ADMIN_PASSWORD, name: e.FIRST_ADMIN_NAME, firmName: e.FIRM_NAME }
+        : undefined,
     logRequests: e.LOG_REQUESTS === 'true',
     clientDist: e.CLIENT_DIST,
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,

@@ -1,7 +1,9 @@
 /**
  * Demo data for an empty database: the invented firm "Larchmont Ridge Engineering", one user
  * per role, and two invented bridge projects. Seeding never touches a database that already
- * has a firm. Demo passwords are public (README): never seed a production database.
+ * has a firm, and is only done when asked for (`--demo` or SEED_DEMO=true), never in
+ * production (server/config/env.ts refuses it). The demo users share one password chosen by
+ * the caller: a random one printed at start unless DEMO_PASSWORD sets it.
  */
 import { count } from 'drizzle-orm';
 import type { Db } from './client.js';
@@ -11,7 +13,6 @@ import { recordAudit } from '../api/audit/auditService.js';
 import { createDeck } from '../api/decks/deckService.js';
 import { demoDecks } from './demoDecks.js';
 
-export const DEMO_PASSWORD = 'deckshare-demo-1';
 export const DEMO_FIRM = 'Larchmont Ridge Engineering';
 
 export const DEMO_USERS: { email: string; name: string; roles: Role[] }[] = [
@@ -39,14 +40,14 @@ export const DEMO_PROJECTS = [
   },
 ];
 
-/** Seeds when the database has no firm; returns true when it seeded. */
-export async function seedDemo(db: Db): Promise<boolean> {
+/** Seeds when the database has no firm, every demo user with `password`; returns true when it seeded. */
+export async function seedDemo(db: Db, password: string): Promise<boolean> {
   const n = db.select({ n: count() }).from(firms).get();
   if ((n?.n ?? 0) > 0) return false;
   // Build and validate the demo decks before writing anything, so a failure leaves the
   // database empty rather than half-seeded.
   const decksToSeed = demoDecks();
-  const hash = await hashPassword(DEMO_PASSWORD);
+  const hash = await hashPassword(password);
   const { firmId, designerId, projectIds } = db.transaction((tx) => {
     const firm = tx.insert(firms).values({ name: DEMO_FIRM }).returning().get();
     const ids: number[] = [];
@@ -70,9 +71,9 @@ export async function seedDemo(db: Db): Promise<boolean> {
   return true;
 }
 
-export function demoCredentialsText(): string {
+export function demoCredentialsText(password: string): string {
   return [
-    `Demo firm "${DEMO_FIRM}" — every demo user's password is ${DEMO_PASSWORD}`,
+    `Demo firm "${DEMO_FIRM}" — every demo user's password is ${password}`,
     ...DEMO_USERS.map((u) => `  ${u.roles.join(' + ').padEnd(22)} ${u.email}`),
   ].join('\n');
 }

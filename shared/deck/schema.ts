@@ -17,6 +17,7 @@
  * - Section types a…k are those of AASHTO LRFD Table 4.6.2.2.1-1.
  */
 import { z } from 'zod';
+import { formatBound, PHYSICAL_LIMITS, type PhysicalRange } from './limits.js';
 
 export const SECTION_TYPES = ['a', 'b', 'c', 'd', 'e', 'f', 'g', 'h', 'i', 'j', 'k'] as const;
 export type SectionType = (typeof SECTION_TYPES)[number];
@@ -36,10 +37,24 @@ export const SECTION_TYPE_DESCRIPTIONS: Record<SectionType, string> = {
   k: 'Precast concrete I or bulb-tee beams with a cast-in-place or precast slab',
 };
 
-const positive = (what: string) =>
-  z.number({ error: `${what} must be a number` }).finite(`${what} must be finite`).gt(0, `${what} must be greater than 0`);
-const nonNegative = (what: string) =>
-  z.number({ error: `${what} must be a number` }).finite(`${what} must be finite`).min(0, `${what} must be 0 or more`);
+const number = (what: string) => z.number({ error: `${what} must be a number` }).finite(`${what} must be finite`);
+
+/**
+ * A quantity within its physical range (`deck/limits.ts`), both ends inclusive; a quantity
+ * whose minimum is above zero reads "greater than 0" for zero or less (one message
+ * per value). Messages give the bound in SI and US customary units.
+ */
+const ranged = (what: string, range: PhysicalRange) => {
+  const base = number(what);
+  const low =
+    range.min > 0
+      ? base
+          .gt(0, `${what} must be greater than 0`)
+          .refine((v) => v <= 0 || v >= range.min, `${what} must be at least ${formatBound(range.min, range.kind)}`)
+      : base.min(range.min, range.min === 0 ? `${what} must be 0 or more` : `${what} must be at least ${formatBound(range.min, range.kind)}`);
+  return low.refine((v) => v <= range.max, `${what} must be at most ${formatBound(range.max, range.kind)}`);
+};
+const L = PHYSICAL_LIMITS;
 
 export const girderLayoutSchema = z.discriminatedUnion('kind', [
   z.strictObject({
@@ -47,13 +62,13 @@ export const girderLayoutSchema = z.discriminatedUnion('kind', [
     /** Number of girders (or webs, for type d), Nb. */
     count: z.number().int('girder count must be a whole number').min(2, 'a deck needs at least 2 girders').max(40, 'at most 40 girders'),
     /** Centre-to-centre spacing S, m. */
-    spacing: positive('girder spacing'),
+    spacing: ranged('girder spacing', L.girderSpacing),
   }),
   z.strictObject({
     kind: z.literal('offsets'),
     /** Girder centreline offsets, m, measured from any reference, strictly increasing left to right. */
     offsets: z
-      .array(z.number().finite('each girder offset must be finite'))
+      .array(ranged('each girder offset', L.girderOffset))
       .min(2, 'a deck needs at least 2 girders')
       .max(40, 'at most 40 girders'),
   }),
@@ -61,18 +76,18 @@ export const girderLayoutSchema = z.discriminatedUnion('kind', [
 
 export const barrierSchema = z.strictObject({
   /** Width from the deck edge to the barrier's or curb's inside face, m. */
-  width: nonNegative('barrier width'),
+  width: ranged('barrier width', L.barrierWidth),
   /** Barrier height above the slab, m (drawing only). */
-  height: nonNegative('barrier height').default(0.8128),
+  height: ranged('barrier height', L.barrierHeight).default(0.8128),
 });
 
 export const slabSchema = z.strictObject({
   /** Structural slab thickness ts, m. */
-  thickness: positive('slab thickness'),
+  thickness: ranged('slab thickness', L.slabThickness),
   /** Haunch (build-up) between girder top and slab soffit, m; counts in eg, not in ts. */
-  haunch: nonNegative('haunch').default(0),
+  haunch: ranged('haunch', L.haunch).default(0),
   /** Integral wearing surface not counted in ts, m (drawing and dead load only). */
-  wearingSurface: nonNegative('wearing surface').default(0),
+  wearingSurface: ranged('wearing surface', L.wearingSurface).default(0),
 });
 
 /**
@@ -81,21 +96,21 @@ export const slabSchema = z.strictObject({
  */
 export const sectionSchema = z.strictObject({
   /** A, area of the girder, m². */
-  area: positive('girder area A').optional(),
+  area: ranged('girder area A', L.girderArea).optional(),
   /** I, moment of inertia of the girder about its own centroid, m⁴. */
-  inertia: positive('girder moment of inertia I').optional(),
+  inertia: ranged('girder moment of inertia I', L.girderInertia).optional(),
   /** Distance from the top of the girder to its centroid, m (gives eg with ts and haunch). */
-  centroidFromTop: positive('girder centroid depth').optional(),
+  centroidFromTop: ranged('girder centroid depth', L.sectionDimension).optional(),
   /** eg entered directly: distance between the girder's and the deck's centres of gravity, m. */
-  eg: positive('eg').optional(),
+  eg: ranged('eg', L.sectionDimension).optional(),
   /** J, St Venant torsional inertia, m⁴ (types f, g; and the grillage). */
-  torsion: positive('torsional inertia J').optional(),
+  torsion: ranged('torsional inertia J', L.torsion).optional(),
   /** d, depth of the girder (types b, c, and d's web depth), m. */
-  depth: positive('girder depth d').optional(),
+  depth: ranged('girder depth d', L.sectionDimension).optional(),
   /** b, width of a precast beam (types f, g, h, i, j), m. */
-  width: positive('beam width b').optional(),
+  width: ranged('beam width b', L.sectionDimension).optional(),
   /** Nc, number of cells of a multicell box (type d). */
-  cells: z.number().int('number of cells must be a whole number').min(1, 'number of cells must be at least 1').optional(),
+  cells: z.number().int('number of cells must be a whole number').min(1, 'number of cells must be at least 1').max(L.cells.max, `number of cells must be at most ${L.cells.max}`).optional(),
   /** Type h, i, j (and f, g) beam shape, for the constant K of Art. 4.6.2.2.2b. */
   beamShape: z.enum(['solid-rectangular', 'voided-rectangular', 'box', 'channel', 'tee', 'double-tee']).optional(),
   /**
@@ -110,16 +125,16 @@ export const materialSchema = z.discriminatedUnion('kind', [
   z.strictObject({
     kind: z.literal('modulus'),
     /** Modulus of elasticity E, Pa. */
-    modulus: positive('modulus of elasticity'),
+    modulus: ranged('modulus of elasticity', L.modulus),
   }),
   z.strictObject({
     kind: z.literal('concrete'),
     /** Specified compressive strength f'c, Pa. */
-    fc: positive("f'c"),
+    fc: ranged("f'c", L.concreteStrength),
     /** Unit weight wc, N/m³ (Art. 5.4.2.4 uses it in kcf). */
-    unitWeight: positive('concrete unit weight').default(150 * 4448.2216152605 / 0.3048 ** 3 / 1000),
+    unitWeight: ranged('concrete unit weight', L.concreteUnitWeight).default(150 * 4448.2216152605 / 0.3048 ** 3 / 1000),
     /** Correction factor for source of aggregate K1 (Art. 5.4.2.4). */
-    K1: positive('K1').default(1),
+    K1: ranged('K1', L.K1).default(1),
     /**
      * Which modulus equation of Art. 5.4.2.4: 'current' Ec = 120,000·K1·wc^2.0·f'c^0.33
      * (8th edition and later), or 'pre-2015' Ec = 33,000·K1·wc^1.5·√f'c (earlier editions).
@@ -130,7 +145,7 @@ export const materialSchema = z.discriminatedUnion('kind', [
 
 export const spanSchema = z.strictObject({
   /** Span length along the girders, support centreline to support centreline, m. */
-  length: positive('span length'),
+  length: ranged('span length', L.spanLength),
 });
 
 export const supportSchema = z.strictObject({
@@ -150,9 +165,9 @@ export const diaphragmSchema = z.strictObject({
   /** Number of equally spaced intermediate diaphragm lines in each span. */
   intermediatePerSpan: z.number().int('intermediate diaphragm count must be a whole number').min(0).max(20).default(0),
   /** Effective moment of inertia of one diaphragm or cross-frame for the grillage, m⁴. */
-  inertia: positive('diaphragm moment of inertia').optional(),
+  inertia: ranged('diaphragm moment of inertia', L.diaphragmInertia).optional(),
   /** Modulus of elasticity of the diaphragm, Pa (defaults to the girder's). */
-  modulus: positive('diaphragm modulus').optional(),
+  modulus: ranged('diaphragm modulus', L.modulus).optional(),
 });
 
 export const policySchema = z.strictObject({
@@ -166,11 +181,11 @@ export const policySchema = z.strictObject({
 
 export const loadModifierSchema = z.strictObject({
   /** ηD, ductility (Art. 1.3.3). */
-  ductility: positive('ηD').default(1),
+  ductility: ranged('ηD', L.loadModifier).default(1),
   /** ηR, redundancy (Art. 1.3.4). */
-  redundancy: positive('ηR').default(1),
+  redundancy: ranged('ηR', L.loadModifier).default(1),
   /** ηI, operational importance (Art. 1.3.5). */
-  importance: positive('ηI').default(1),
+  importance: ranged('ηI', L.loadModifier).default(1),
 });
 
 /** Sections that take their properties into the empirical formulas, per type. */
@@ -194,8 +209,8 @@ export const deckSchema = z
     sectionType: z.enum(SECTION_TYPES, { error: 'section type must be one of a, b, c, d, e, f, g, h, i, j, k' }),
     girders: girderLayoutSchema,
     /** Overhangs from exterior girder centreline to deck edge, m. */
-    overhangLeft: nonNegative('left overhang'),
-    overhangRight: nonNegative('right overhang'),
+    overhangLeft: ranged('left overhang', L.overhang),
+    overhangRight: ranged('right overhang', L.overhang),
     barrierLeft: barrierSchema,
     barrierRight: barrierSchema,
     slab: slabSchema,
@@ -204,7 +219,7 @@ export const deckSchema = z
       deck: materialSchema,
       girder: materialSchema,
       /** Modular ratio n = E_girder / E_deck entered directly (overrides the moduli). */
-      modularRatio: positive('modular ratio n').optional(),
+      modularRatio: ranged('modular ratio n', L.modularRatio).optional(),
     }),
     spans: z.array(spanSchema).min(1, 'a deck needs at least one span').max(12, 'at most 12 spans'),
     /** true: girders continuous over the interior supports; false: simple spans. */
@@ -219,14 +234,34 @@ export const deckSchema = z
     if (deck.girders.kind === 'offsets') {
       const o = deck.girders.offsets;
       for (let i = 1; i < o.length; i++) {
-        if (!(o[i] > o[i - 1])) {
+        const gap = o[i] - o[i - 1];
+        if (!(gap > 0)) {
           ctx.addIssue({
             code: 'custom',
             path: ['girders', 'offsets', i],
             message: `girder ${i + 1} must lie to the right of girder ${i} (offsets must increase; overlapping or coincident girders are not allowed)`,
           });
+        } else if (gap < L.girderSpacing.min || gap > L.girderSpacing.max) {
+          ctx.addIssue({
+            code: 'custom',
+            path: ['girders', 'offsets', i],
+            message: `the spacing from girder ${i} to girder ${i + 1} must be from ${formatBound(L.girderSpacing.min, 'length')} to ${formatBound(L.girderSpacing.max, 'length')}`,
+          });
         }
       }
+    }
+    const spread =
+      deck.girders.kind === 'uniform'
+        ? (deck.girders.count - 1) * deck.girders.spacing
+        : deck.girders.offsets[deck.girders.offsets.length - 1] - deck.girders.offsets[0];
+    const width = spread + deck.overhangLeft + deck.overhangRight;
+    const partsInRange = Math.max(deck.overhangLeft, deck.overhangRight) <= L.overhang.max && spread <= L.girderSpacing.max * 40;
+    if (partsInRange && width > L.deckWidth.max) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['girders'],
+        message: `the deck is ${formatBound(width, 'length')} wide (girders plus overhangs): at most ${formatBound(L.deckWidth.max, 'length')} is accepted`,
+      });
     }
     if (deck.supports.length !== deck.spans.length + 1) {
       ctx.addIssue({

@@ -12,6 +12,7 @@
  *   more than 3 lanes 0.65.
  */
 import { DeckInputError } from '../deck/schema.js';
+import { MAX_DESIGN_LANES } from '../deck/limits.js';
 import type { TraceStep } from '../trace.js';
 import { fromUs, toUs } from '../units.js';
 
@@ -25,7 +26,8 @@ const LANE_TOLERANCE_FT = 1e-9;
  * Number and width of design lanes on a roadway.
  * @param roadwayWidth clear roadway width w between curb or barrier faces, m.
  * @returns count (whole lanes), width of each design lane (m) and the trace step.
- * @throws DeckInputError when w is not a finite number or is narrower than one 12 ft lane.
+ * @throws DeckInputError when w is not a finite number, is narrower than one 12 ft lane, or gives
+ *   more than MAX_DESIGN_LANES lanes.
  */
 export function designLanes(roadwayWidth: number): { count: number; width: number; trace: TraceStep } {
   if (!Number.isFinite(roadwayWidth)) {
@@ -40,6 +42,13 @@ export function designLanes(roadwayWidth: number): { count: number; width: numbe
   }
   const inTwentyToTwentyFour = wFt >= 20 - LANE_TOLERANCE_FT && wFt <= 24 + LANE_TOLERANCE_FT;
   const count = inTwentyToTwentyFour ? 2 : Math.floor(wFt / 12 + LANE_TOLERANCE_FT);
+  if (count > MAX_DESIGN_LANES) {
+    // A guard behind the deck schema's width range: no lane array is sized from an unchecked width.
+    throw new DeckInputError(
+      ['roadwayWidth'],
+      `the clear roadway width ${wFt.toFixed(2)} ft gives ${count} design lanes: at most ${MAX_DESIGN_LANES} are computed`,
+    );
+  }
   const width = inTwentyToTwentyFour ? roadwayWidth / 2 : DESIGN_LANE_WIDTH;
   const trace: TraceStep = {
     label: 'Number of design lanes',

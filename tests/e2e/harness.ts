@@ -153,6 +153,7 @@ export async function startHarness(options: HarnessOptions = {}): Promise<Harnes
       DATABASE_URL: databaseUrl,
       CLIENT_DIST: join(ROOT, 'dist'),
       SEED_DEMO: 'true',
+      DEMO_PASSWORD,
       LOG_REQUESTS: 'true',
       PUBLIC_URL: baseUrl,
       ...options.env,

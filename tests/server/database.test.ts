@@ -30,7 +30,7 @@ describe('database', () => {
 
   it('never seeds a database that already has data', async () => {
     const before = ctx.db.select({ n: count() }).from(users).get()!.n;
-    expect(await seedDemo(ctx.db)).toBe(false);
+    expect(await seedDemo(ctx.db, 'another-password-1')).toBe(false);
     expect(ctx.db.select({ n: count() }).from(users).get()!.n).toBe(before);
   });
 

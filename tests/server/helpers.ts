@@ -7,7 +7,10 @@ import request from 'supertest';
 import type { Express } from 'express';
 import { loadConfig, type Config } from '../../server/config/env.js';
 import { openDatabase, type Db } from '../../server/db/client.js';
-import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed.js';
+import { seedDemo } from '../../server/db/seed.js';
+
+/** The demo users' password in tests (the server itself picks a random one unless DEMO_PASSWORD is set). */
+export const DEMO_PASSWORD = 'deckshare-demo-1';
 import { createApp } from '../../server/app.js';
 
 export interface TestContext {
@@ -22,7 +25,7 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
   const dir = mkdtempSync(join(tmpdir(), 'deckshare-test-'));
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: join(dir, 'test.db'), LOG_REQUESTS: 'false', CLIENT_DIST: join(dir, 'no-client') }, overrides);
   const db = openDatabase(config.databaseUrl);
-  await seedDemo(db);
+  await seedDemo(db, DEMO_PASSWORD);
   const app = createApp({ db, config, log: () => {} });
   return {
     app,

@@ -142,6 +142,24 @@ describe('bad files import nothing', () => {
     expect((await upload(designer, 'girder,spacing_ft\n1,\n')).body.error.details[0].message).toBe('the file has 1 girder row: a deck needs at least 2 girders');
   });
 
+  it('huge spacings and section values are refused row by row before anything is computed', async () => {
+    // A spacing of 1,000,000 m or 1e300 once ran the server out of memory; each value is now
+    // checked against its physical range (shared/deck/limits.ts) with the row and column named.
+    const before = await versionCount();
+    for (const huge of ['1000000', '1e300', '1e999']) {
+      const res = await upload(designer, `girder,spacing_m,area_m2\n1,,0.5\n2,2.5,\n3,${huge},\n`, { dryRun: 'true' });
+      expect(res.status, huge).toBe(400);
+      expect(res.body.error.details).toContainEqual({ path: 'file.row4.spacing_m', message: expect.stringMatching(/^row 4, column spacing_m: the spacing must be at most 8 m \(26\.25 ft\)/) });
+    }
+    const bigArea = await upload(designer, 'girder,spacing_ft,area_in2\n1,,1e12\n2,8,\n', { dryRun: 'true' });
+    expect(bigArea.status).toBe(400);
+    expect(bigArea.body.error.details).toContainEqual({ path: 'file.row2.area_in2', message: expect.stringMatching(/^row 2, column area_in2: must be at most .* in²\) \(got 1000000000000\)/) });
+    const tiny = await upload(designer, 'girder,spacing_ft\n1,\n2,0.01\n', { dryRun: 'true' });
+    expect(tiny.body.error.details[0].message).toMatch(/must be at least 0\.3 m \(0\.9843 ft\)/);
+    expect(await versionCount()).toBe(before);
+    expect((await designer.get('/api/health')).status).toBe(200);
+  });
+
   it('a roadway too narrow for a lane is traced back to the spacing column', async () => {
     const res = await upload(designer, 'girder,spacing_ft\n1,\n2,2\n');
     expect(res.status).toBe(400);

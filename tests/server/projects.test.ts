@@ -143,6 +143,26 @@ describe('decks and versions', () => {
     expect(ctx.db.select().from(deckVersions).all().length).toBe(before);
   });
 
+  it('a huge or non-physical value is refused with its unit, the server keeps serving and nothing is written', async () => {
+    // An overhang of 1e308 once ended the process (a fatal "invalid size" while laying out
+    // design lanes): every length now has a physical range (shared/deck/limits.ts).
+    const before = ctx.db.select().from(deckVersions).all().length;
+    const cases: [Record<string, unknown>, string, RegExp][] = [
+      [{ overhangLeft: 1e308 }, 'body.deck.overhangLeft', /^left overhang must be at most 6 m \(19\.69 ft\)$/],
+      [{ overhangRight: 1e5 }, 'body.deck.overhangRight', /at most 6 m/],
+      [{ spans: [{ length: 1e308 }], supports: [{ skew: 0 }, { skew: 0 }] }, 'body.deck.spans.0.length', /at most 300 m \(984\.3 ft\)/],
+      [{ girders: { kind: 'uniform', count: 40, spacing: 8 } }, 'body.deck.girders', /wide \(girders plus overhangs\): at most 80 m/],
+      [{ slab: { thickness: 1e-9 } }, 'body.deck.slab.thickness', /at least 50 mm \(1\.969 in\)/],
+    ];
+    for (const [change, path, message] of cases) {
+      const res = await post(designer, `/api/projects/${projectId}/decks`, { deck: { ...quarryCreekDeck(), ...change }, message: 'huge' });
+      expect(res.status, path).toBe(400);
+      expect(res.body.error.details, path).toContainEqual({ path, message: expect.stringMatching(message) });
+    }
+    expect((await designer.get('/api/health')).status).toBe(200);
+    expect(ctx.db.select().from(deckVersions).all().length).toBe(before);
+  });
+
   it('another firm gets 404 for a deck and its versions', async () => {
     const deckId = (await designer.get(`/api/projects/${projectId}/decks`)).body.decks[0].id;
     expect((await outsider.get(`/api/decks/${deckId}`)).status).toBe(404);

@@ -14,7 +14,7 @@ import { firms, outboxMessages, userRoles, users, type Role } from '../../server
 import { hashPassword } from '../../server/auth/password.js';
 import { createSmtpMailer, type Mailer } from '../../server/mail/mailer.js';
 import { startLocalSmtp, type LocalSmtp } from '../../server/mail/localSmtp.js';
-import { signIn, type Agent } from './helpers.js';
+import { DEMO_PASSWORD, signIn, type Agent } from './helpers.js';
 
 export interface WorkflowContext {
   app: Express;
@@ -31,7 +31,7 @@ export async function makeWorkflowApp(overrides: Partial<Config> = {}): Promise<
   const dir = mkdtempSync(join(tmpdir(), 'deckshare-workflow-'));
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: join(dir, 'test.db'), LOG_REQUESTS: 'false', CLIENT_DIST: join(dir, 'no-client'), PUBLIC_URL: 'http://deckshare.test' }, overrides);
   const db = openDatabase(config.databaseUrl);
-  await seedDemo(db);
+  await seedDemo(db, DEMO_PASSWORD);
   const smtp = await startLocalSmtp({ db, port: 0 });
   const lines: string[] = [];
   const mailer = createSmtpMailer({ host: smtp.host, port: smtp.port, from: 'Deckshare <no-reply@deckshare.test>', tagMessages: true, log: (l) => lines.push(l) });

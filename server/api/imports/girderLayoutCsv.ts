@@ -18,12 +18,14 @@
  * row; on later rows a cell is blank or repeats girder 1's value.
  *
  * Every problem is reported at once, naming the row (as a spreadsheet numbers it: the header is
- * row 1), the column and the rule. A file with any problem imports nothing.
+ * row 1), the column and the rule; each value is checked against its physical range
+ * (shared/deck/limits.ts) before anything is computed. A file with any problem imports nothing.
  * Output values are internal SI (m, m², m⁴).
  */
 import Papa from 'papaparse';
 import { fromUs } from '../../../shared/units.js';
 import type { SectionProperties } from '../../../shared/deck/schema.js';
+import { formatBound, PHYSICAL_LIMITS, type PhysicalRange } from '../../../shared/deck/limits.js';
 
 export type SectionField = 'area' | 'inertia' | 'centroidFromTop' | 'depth' | 'torsion' | 'width' | 'eg';
 
@@ -72,6 +74,26 @@ export interface ParsedLayout {
   /** The column name used for each field, for error messages later on. */
   columnOf: Partial<Record<ColumnDef['field'], string>>;
   rows: number;
+}
+
+/** The physical range of each column's quantity. */
+const RANGE_OF: Record<'spacing' | SectionField, PhysicalRange> = {
+  spacing: PHYSICAL_LIMITS.girderSpacing,
+  area: PHYSICAL_LIMITS.girderArea,
+  inertia: PHYSICAL_LIMITS.girderInertia,
+  torsion: PHYSICAL_LIMITS.torsion,
+  centroidFromTop: PHYSICAL_LIMITS.sectionDimension,
+  depth: PHYSICAL_LIMITS.sectionDimension,
+  width: PHYSICAL_LIMITS.sectionDimension,
+  eg: PHYSICAL_LIMITS.sectionDimension,
+};
+
+/** The rule a positive value in internal units breaks, or null when it is within range. */
+function outOfRange(field: 'spacing' | SectionField, si: number): string | null {
+  const r = RANGE_OF[field];
+  if (si < r.min) return `must be at least ${formatBound(r.min, r.kind)}`;
+  if (!(si <= r.max)) return `must be at most ${formatBound(r.max, r.kind)}`;
+  return null;
 }
 
 function fmt(v: number): string {
@@ -155,7 +177,8 @@ export function parseGirderLayoutCsv(text: string): { ok: true; layout: ParsedLa
     } else if (s === null) {
       problems.push({ row: r.row, column: spacingCol.name, message: `row ${r.row}, column ${spacingCol.name}: the spacing from girder ${i} is missing` });
     } else if (s !== undefined) {
-      if (!(s > 0)) problems.push({ row: r.row, column: spacingCol.name, message: `row ${r.row}, column ${spacingCol.name}: the spacing must be greater than 0 (got ${fmt(s)})` });
+      const rule = s > 0 ? outOfRange('spacing', spacingCol.toSi(s)) : 'must be greater than 0';
+      if (rule) problems.push({ row: r.row, column: spacingCol.name, message: `row ${r.row}, column ${spacingCol.name}: the spacing ${rule} (got ${fmt(s)})` });
       else spacings.push(spacingCol.toSi(s));
     }
 
@@ -167,8 +190,9 @@ export function parseGirderLayoutCsv(text: string): { ok: true; layout: ParsedLa
       if (i === 0) {
         if (v === null) {
           problems.push({ row: r.row, column: col.name, message: `row ${r.row}, column ${col.name}: give girder 1's value (later rows may leave it blank)` });
-        } else if (!(v > 0)) {
-          problems.push({ row: r.row, column: col.name, message: `row ${r.row}, column ${col.name}: must be greater than 0 (got ${fmt(v)})` });
+        } else if (!(v > 0) || outOfRange(field, col.toSi(v))) {
+          const rule = v > 0 ? outOfRange(field, col.toSi(v)) : 'must be greater than 0';
+          problems.push({ row: r.row, column: col.name, message: `row ${r.row}, column ${col.name}: ${rule} (got ${fmt(v)})` });
         } else {
           firstSection.set(field, v);
           section[field] = col.toSi(v);

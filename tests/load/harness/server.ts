@@ -7,6 +7,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
 import { resolve } from 'node:path';
+import { DEMO_PASSWORD } from './client.js';
 
 export const REPO_ROOT = resolve(import.meta.dirname, '../../..');
 const TSX = resolve(REPO_ROOT, 'node_modules/.bin/tsx');
@@ -45,7 +46,9 @@ function serverEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
     PORT: String(port),
     HOST: '127.0.0.1',
     JWT_SECRET,
+    // The demo firm is seeded only when asked for, with this password (harness/client.ts).
     SEED_DEMO: 'true',
+    DEMO_PASSWORD,
     LOG_REQUESTS: 'false',
     LOCAL_SMTP_PORT: '0',
     CLIENT_DIST: resolve(databaseUrl, '..', 'no-client'),
