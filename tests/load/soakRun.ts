@@ -52,9 +52,12 @@ export async function runSoak(options: SoakOptions, print: Print = console.log):
       await server.stop();
     }
     const database = checkDatabase(dbPath);
-    if (options.signInFlood) phases.push(...(await runSignInFloodPhase(options, print)));
     const result = { phases, saves, database, ok: isCorrect(phases, saves, database) };
     printSoak(print, result);
+    if (options.signInFlood) {
+      const flood = await runSignInFloodPhase(options, print);
+      if (flood.ran && flood.exitCode !== 0) result.ok = false;
+    }
     return result;
   } finally {
     rmSync(dir, { recursive: true, force: true });
