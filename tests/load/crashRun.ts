@@ -79,11 +79,19 @@ function startWriters(server: RunningServer, session: Session, target: SaveTarge
   return w;
 }
 
+/** On a slow machine the first save may outlast the chosen delay: a round kills only after one
+ *  acknowledged save (bounded), so every round has something to lose. */
+async function untilFirstAck(w: Writers, boundMs = 30_000): Promise<void> {
+  const deadline = Date.now() + boundMs;
+  while (w.acks.length === 0 && w.unanswered === 0 && Date.now() < deadline) await pause(20);
+}
+
 async function crashRound(round: number, server: RunningServer, dbPath: string, options: CrashOptions, target: SaveTarget, run: string, next: { n: number }): Promise<{ figures: RoundFigures; server: RunningServer }> {
   const session = await signIn(server.url, DEMO.designer);
   const killAfterMs = Math.round(options.seconds * 1000 * (0.4 + 0.6 * Math.random()));
   const writers = startWriters(server, session, target, run, options.connections, next);
   await pause(killAfterMs);
+  await untilFirstAck(writers);
   await server.kill();
   await writers.done;
   const integrityAfterKill = checkDatabase(dbPath).integrity;
