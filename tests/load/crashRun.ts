@@ -88,10 +88,11 @@ async function untilFirstAck(w: Writers, boundMs = 30_000): Promise<void> {
 
 async function crashRound(round: number, server: RunningServer, dbPath: string, options: CrashOptions, target: SaveTarget, run: string, next: { n: number }): Promise<{ figures: RoundFigures; server: RunningServer }> {
   const session = await signIn(server.url, DEMO.designer);
-  const killAfterMs = Math.round(options.seconds * 1000 * (0.4 + 0.6 * Math.random()));
+  const started = Date.now();
   const writers = startWriters(server, session, target, run, options.connections, next);
-  await pause(killAfterMs);
+  await pause(Math.round(options.seconds * 1000 * (0.4 + 0.6 * Math.random())));
   await untilFirstAck(writers);
+  const killAfterMs = Date.now() - started;
   await server.kill();
   await writers.done;
   const integrityAfterKill = checkDatabase(dbPath).integrity;
