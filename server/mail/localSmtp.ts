@@ -4,10 +4,15 @@
  * in the `outbox_messages` table, filed under the firm named by the X-Deckshare-Firm header;
  * admins read it in the product (GET /api/mail/outbox). The message is stored before the
  * service answers "250 OK", so a sender whose `sendMail` resolved finds it in the outbox.
+ *
+ * Only the application may file messages: the service requires SMTP AUTH (PLAIN or LOGIN) with
+ * a secret made at each start and handed to the application's mailer in memory (`auth`), so a
+ * process that merely reaches the port cannot plant a message in a firm's outbox.
  */
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
 import type { AddressInfo } from 'node:net';
+import { randomBytes, timingSafeEqual } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { Db } from '../db/client.js';
 import { firms, outboxMessages } from '../db/schema.js';
@@ -16,7 +21,17 @@ import { FIRM_HEADER, KIND_HEADER } from './mailer.js';
 export interface LocalSmtp {
   host: string;
   port: number;
+  /** The credentials the application's mailer signs in with (made at start, never stored). */
+  auth: { user: string; pass: string };
   close(): Promise<void>;
+}
+
+const SMTP_USER = 'deckshare-app';
+
+function sameSecret(given: string | null | undefined, expected: string): boolean {
+  const a = Buffer.from(given ?? '');
+  const b = Buffer.from(expected);
+  return a.length === b.length && timingSafeEqual(a, b);
 }
 
 export interface LocalSmtpOptions {
@@ -40,15 +55,24 @@ export function startLocalSmtp(o: LocalSmtpOptions): Promise<LocalSmtp> {
   const host = o.host ?? '127.0.0.1';
   const maxBytes = o.maxBytes ?? 5 * 1024 * 1024;
   const log = o.log ?? (() => {});
+  const secret = randomBytes(24).toString('base64url');
   const server = new SMTPServer({
     name: 'deckshare-local-smtp',
     banner: 'Deckshare local mail service (development and tests only)',
-    disabledCommands: ['STARTTLS', 'AUTH'],
+    disabledCommands: ['STARTTLS'],
     hideSTARTTLS: true,
-    authOptional: true,
+    authMethods: ['PLAIN', 'LOGIN'],
+    // loopback only, and the secret never leaves this process: plain-text AUTH is acceptable here
+    allowInsecureAuth: true,
+    authOptional: false,
     disableReverseLookup: true,
     size: maxBytes,
     logger: false,
+    onAuth(auth, _session, callback) {
+      if (auth.username === SMTP_USER && sameSecret(auth.password, secret)) return callback(null, { user: SMTP_USER });
+      log('local SMTP: refused a sign-in that did not come from the application');
+      return callback(Object.assign(new Error('authentication failed: this service accepts mail from the Deckshare application only'), { responseCode: 535 }));
+    },
     onData(stream, session, callback) {
       simpleParser(stream)
         .then((mail) => {
@@ -98,6 +122,7 @@ export function startLocalSmtp(o: LocalSmtpOptions): Promise<LocalSmtp> {
       resolve({
         host,
         port,
+        auth: { user: SMTP_USER, pass: secret },
         close: () => new Promise<void>((done) => server.close(() => done())),
       });
     });

@@ -52,6 +52,8 @@ export interface SmtpMailerOptions {
   url?: string;
   host?: string;
   port?: number;
+  /** Credentials for the host/port pair (the local service's per-start secret). */
+  auth?: { user: string; pass: string };
   /** The From address, e.g. "Deckshare <no-reply@example.com>". */
   from: string;
   /** Add the firm and kind headers (the local service files messages by them). */
@@ -77,7 +79,7 @@ function trackingQueue(send: (m: MailMessage) => Promise<void>, log: (line: stri
 export function createSmtpMailer(o: SmtpMailerOptions): Mailer {
   const transport: Transporter = o.url
     ? nodemailer.createTransport(o.url)
-    : nodemailer.createTransport({ host: o.host, port: o.port, secure: false, ignoreTLS: true, connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 20_000 });
+    : nodemailer.createTransport({ host: o.host, port: o.port, secure: false, ignoreTLS: true, auth: o.auth, connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 20_000 });
   const send = async (m: MailMessage) => {
     await transport.sendMail({
       from: o.from,

@@ -54,7 +54,7 @@ export async function startMail(db: Db, source: NodeJS.ProcessEnv, log: (line: s
     log(`local SMTP: port ${env.LOCAL_SMTP_PORT} is in use; using a free port instead`);
     return startLocalSmtp({ db, port: 0, log });
   });
-  const mailer = createSmtpMailer({ host: local.host, port: local.port, from: env.MAIL_FROM, tagMessages: true, log });
+  const mailer = createSmtpMailer({ host: local.host, port: local.port, auth: local.auth, from: env.MAIL_FROM, tagMessages: true, log });
   return {
     mailer,
     local,

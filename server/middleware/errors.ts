@@ -30,8 +30,8 @@ export class ApiError extends Error {
   static notFound(what = 'resource') {
     return new ApiError(404, 'not_found', `${what} not found`);
   }
-  static conflict(message: string) {
-    return new ApiError(409, 'conflict', message);
+  static conflict(message: string, details?: ErrorDetail[]) {
+    return new ApiError(409, 'conflict', message, details);
   }
 }
 

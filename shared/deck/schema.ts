@@ -18,6 +18,7 @@
  */
 import { z } from 'zod';
 import { formatBound, PHYSICAL_LIMITS, type PhysicalRange } from './limits.js';
+import { personText } from '../text.js';
 
 export const SECTION_TYPES = ['a', 'b', 'c', 'd', 'e', 'f', 'g', 'h', 'i', 'j', 'k'] as const;
 export type SectionType = (typeof SECTION_TYPES)[number];
@@ -205,7 +206,7 @@ export const REQUIRED_SECTION_PROPERTIES: Record<SectionType, (keyof z.infer<typ
 
 export const deckSchema = z
   .strictObject({
-    name: z.string().trim().min(1, 'deck name is required').max(200, 'deck name is at most 200 characters'),
+    name: personText('deck name', 200, { min: 1, minMessage: 'deck name is required' }),
     sectionType: z.enum(SECTION_TYPES, { error: 'section type must be one of a, b, c, d, e, f, g, h, i, j, k' }),
     girders: girderLayoutSchema,
     /** Overhangs from exterior girder centreline to deck edge, m. */

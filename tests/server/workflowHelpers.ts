@@ -34,7 +34,7 @@ export async function makeWorkflowApp(overrides: Partial<Config> = {}): Promise<
   await seedDemo(db, DEMO_PASSWORD);
   const smtp = await startLocalSmtp({ db, port: 0 });
   const lines: string[] = [];
-  const mailer = createSmtpMailer({ host: smtp.host, port: smtp.port, from: 'Deckshare <no-reply@deckshare.test>', tagMessages: true, log: (l) => lines.push(l) });
+  const mailer = createSmtpMailer({ host: smtp.host, port: smtp.port, auth: smtp.auth, from: 'Deckshare <no-reply@deckshare.test>', tagMessages: true, log: (l) => lines.push(l) });
   const attachmentsDir = join(dir, 'files');
   const app = createApp({ db, config, log: (l) => lines.push(l), mailer, attachmentsDir });
   return {

@@ -9,6 +9,7 @@ import { createReadStream, existsSync } from 'node:fs';
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 import type { Db } from '../../db/client.js';
 import { allow } from '../../auth/passport.js';
 import { ApiError } from '../../middleware/errors.js';
@@ -17,7 +18,7 @@ import { addAttachment, deleteAttachment, findAttachment, listAttachments } from
 import { MAX_ATTACHMENT_BYTES, storedPath } from './attachmentStore.js';
 
 const uploadFields = z.strictObject({
-  title: z.string({ error: 'title must be text' }).trim().max(200, 'title must be at most 200 characters').optional(),
+  title: personText('title', 200).optional(),
 });
 
 /** multer for one file in the field "file"; its errors become the API's typed errors. */

@@ -2,8 +2,9 @@
  *  deck schema, so the API, the forms and the command-line tool apply the same rules. */
 import { z } from 'zod';
 import { deckSchema } from '../../../shared/deck/schema.js';
+import { personText } from '../../../shared/text.js';
 
-const message = z.string({ error: 'message must be text' }).trim().min(1, 'a save message is required').max(500, 'message must be at most 500 characters');
+const message = personText('message', 500, { multiline: true, min: 1, minMessage: 'a save message is required' });
 
 /** Saved lane and wheel placements: free-form JSON, bounded in size by the body limit. */
 const placements = z.unknown().optional();

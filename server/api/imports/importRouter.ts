@@ -7,6 +7,7 @@
  */
 import { Router } from 'express';
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 import type { Db } from '../../db/client.js';
 import { allow } from '../../auth/passport.js';
 import { validate } from '../../middleware/validate.js';
@@ -20,7 +21,7 @@ export const MAX_CSV_BYTES = 256 * 1024;
 const templateQuery = z.strictObject({ units: z.enum(['US', 'SI'], { error: 'units must be "US" or "SI"' }).default('US') });
 const importFields = z.strictObject({
   deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id'),
-  message: z.string().trim().max(500, 'message must be at most 500 characters').optional(),
+  message: personText('message', 500, { multiline: true }).optional(),
   dryRun: z.enum(['true', 'false'], { error: 'dryRun must be "true" or "false"' }).default('false'),
 });
 

@@ -1,7 +1,9 @@
 /** Request schemas for projects (bridges). Strings are trimmed; unknown fields are refused. */
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 
-const text = (what: string, max: number) => z.string({ error: `${what} must be text` }).trim().max(max, `${what} must be at most ${max} characters`);
+/** Text a person types (shared/text.ts): NFC, no control or bidirectional-override characters; fields over 200 characters may hold lines. */
+const text = (what: string, max: number) => personText(what, max, { multiline: max > 200 });
 
 export const projectCreateBody = z.strictObject({
   name: text('name', 200).min(1, 'name is required'),

@@ -1,5 +1,6 @@
 /** Request schemas for review rounds. Strings are trimmed; unknown fields are refused. */
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 import { REVIEW_STATES } from '../../db/schema.js';
 
 /** Effects and methods a comment may be anchored to (the factor table's own names). */
@@ -7,7 +8,8 @@ export const ANCHOR_EFFECTS = ['moment', 'negative-moment', 'shear', 'reaction',
 export const ANCHOR_METHODS = ['formula', 'lever-rule', 'rigid-section', 'equal-share', 'interior-minimum', 'grillage', 'governing'] as const;
 
 const id = (what: string) => z.number({ error: `${what} must be a number` }).int(`${what} must be a whole number`).positive(`${what} must be a positive id`);
-const text = (what: string, max: number) => z.string({ error: `${what} must be text` }).trim().max(max, `${what} must be at most ${max} characters`);
+/** Text a person types (shared/text.ts): NFC, no control or bidirectional-override characters; fields over 200 characters may hold lines. */
+const text = (what: string, max: number) => personText(what, max, { multiline: max > 200 });
 
 export const anchorSchema = z
   .strictObject({

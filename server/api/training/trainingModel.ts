@@ -11,11 +11,13 @@
  * from girder 1 and the left wheel line's offset from that edge, both in m.
  */
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 
 export const FACTOR_EFFECTS = ['moment', 'negative-moment', 'shear', 'reaction', 'fatigue-moment', 'fatigue-shear', 'deflection'] as const;
 export const FACTOR_METHODS = ['governing', 'formula', 'lever-rule', 'rigid-section', 'equal-share'] as const;
 
-const text = (what: string, max: number) => z.string({ error: `${what} must be text` }).trim().max(max, `${what} must be at most ${max} characters`);
+/** Text a person types (shared/text.ts): NFC, no control or bidirectional-override characters; fields over 200 characters may hold lines. */
+const text = (what: string, max: number) => personText(what, max, { multiline: max > 200 });
 const id = (what: string) => z.number({ error: `${what} must be a number` }).int(`${what} must be a whole number`).positive(`${what} must be a positive id`);
 
 export const factorParams = z.strictObject({

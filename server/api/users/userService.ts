@@ -1,6 +1,7 @@
 /** The firm's users, managed by its admins. */
 import { and, asc, eq } from 'drizzle-orm';
 import { z } from 'zod';
+import { personText } from '../../../shared/text.js';
 import type { Db } from '../../db/client.js';
 import { ROLES, sessions, userRoles, users, type Role } from '../../db/schema.js';
 import { hashPassword, temporaryPassword } from '../../auth/password.js';
@@ -14,13 +15,13 @@ const roles = z
 
 export const userCreateBody = z.strictObject({
   email: z.string().trim().toLowerCase().email('email must be an e-mail address').max(254),
-  name: z.string().trim().min(1, 'name is required').max(200, 'name must be at most 200 characters'),
+  name: personText('name', 200, { min: 1, minMessage: 'name is required' }),
   roles,
 });
 
 export const userUpdateBody = z
   .strictObject({
-    name: z.string().trim().min(1, 'name is required').max(200, 'name must be at most 200 characters').optional(),
+    name: personText('name', 200, { min: 1, minMessage: 'name is required' }).optional(),
     roles: roles.optional(),
     disabled: z.boolean({ error: 'disabled must be true or false' }).optional(),
   })
@@ -47,8 +48,14 @@ export function listUsers(db: Db, firmId: number) {
 }
 
 export async function createUser(db: Db, actor: Actor, body: z.infer<typeof userCreateBody>) {
-  if (db.select({ id: users.id }).from(users).where(eq(users.email, body.email)).get()) {
-    throw ApiError.conflict(`a user with e-mail ${body.email} already exists`);
+  // E-mail addresses are unique across firms because sign-in asks for the address alone. A
+  // clash inside the admin's own firm is named (the admin sees that list anyway); a clash with
+  // another firm is answered without saying that another firm has the address.
+  const taken = db.select({ firmId: users.firmId }).from(users).where(eq(users.email, body.email)).get();
+  if (taken) {
+    throw taken.firmId === actor.firmId
+      ? ApiError.conflict(`${body.email} is already a user of your firm: find them in the list`, [{ path: 'body.email', message: 'already a user of your firm' }])
+      : ApiError.conflict(`${body.email} cannot be given to a new account: use another address for this person`, [{ path: 'body.email', message: 'cannot be given to a new account' }]);
   }
   const password = temporaryPassword();
   const hash = await hashPassword(password);
