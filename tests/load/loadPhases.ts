@@ -18,6 +18,7 @@ export interface PhaseFigures {
   timeouts: number;
   p50: number;
   p99: number;
+  max: number;
   perSecond: number;
 }
 
@@ -29,7 +30,7 @@ export interface LoadSettings {
 }
 
 function figures(phase: string, r: autocannon.Result): PhaseFigures {
-  return { phase, requests: r.requests.total, non2xx: r.non2xx, errors: r.errors, timeouts: r.timeouts, p50: r.latency.p50, p99: r.latency.p99, perSecond: r.requests.average };
+  return { phase, requests: r.requests.total, non2xx: r.non2xx, errors: r.errors, timeouts: r.timeouts, p50: r.latency.p50, p99: r.latency.p99, max: r.latency.max, perSecond: r.requests.average };
 }
 
 /** Headers of the session whose turn request n is. */

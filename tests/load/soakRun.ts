@@ -8,9 +8,9 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startServer } from './harness/server.js';
-import { DEMO, signIn } from './harness/client.js';
+import { DEMO, getJson, signIn } from './harness/client.js';
 import { findSaveTarget, readBack, type ReadBack } from './harness/saves.js';
-import { checkDatabase, megabytes, type DatabaseCheck } from './harness/database.js';
+import { checkDatabase, megabytes, versionsOfDeck, type DatabaseCheck } from './harness/database.js';
 import { printPhaseTable, type Print } from './harness/report.js';
 import { readPhase, savePhase, type PhaseFigures } from './loadPhases.js';
 import { runSignInFloodPhase } from './signInFloodPhase.js';
@@ -25,6 +25,9 @@ export interface SoakOptions {
 export interface SoakResult {
   phases: PhaseFigures[];
   saves: ReadBack;
+  /** Versions the server stored whose answer never reached the client (it gave up after
+   *  autocannon's 10 s timeout, or the phase ended first): not lost, just never acknowledged. */
+  unacknowledgedStored: number;
   database: DatabaseCheck;
   ok: boolean;
 }
@@ -39,11 +42,15 @@ export async function runSoak(options: SoakOptions, print: Print = console.log):
     const server = await startServer(dbPath);
     let phases: PhaseFigures[];
     let saves: ReadBack;
+    let deckId: number;
+    let versionsBefore: number;
     try {
       const sessions = await Promise.all([DEMO.designer, DEMO.admin, DEMO.instructor].map((e) => signIn(server.url, e)));
       const settings = { url: server.url, sessions, seconds: options.seconds, connections: options.connections };
       const reads = await readPhase(settings);
       const target = await findSaveTarget(server.url, sessions[0]);
+      deckId = target.deckId;
+      versionsBefore = (await getJson<{ versions: unknown[] }>(server.url, sessions[0], `/api/decks/${deckId}`)).body.versions.length;
       const run = `r${Date.now().toString(36)}`;
       const written = await savePhase(settings, target, run);
       saves = await readBack(server.url, sessions[0], target, run, written.acks);
@@ -52,7 +59,8 @@ export async function runSoak(options: SoakOptions, print: Print = console.log):
       await server.stop();
     }
     const database = checkDatabase(dbPath);
-    const result = { phases, saves, database, ok: isCorrect(phases, saves, database) };
+    const unacknowledgedStored = versionsOfDeck(dbPath, deckId) - versionsBefore - saves.acknowledged;
+    const result = { phases, saves, unacknowledgedStored, database, ok: isCorrect(phases, saves, database) };
     printSoak(print, result);
     if (options.signInFlood) {
       const flood = await runSignInFloodPhase(options, print);
@@ -74,6 +82,7 @@ function printSoak(print: Print, r: SoakResult): void {
   printPhaseTable(print, r.phases);
   print(`acknowledged saves: ${r.saves.acknowledged}, found intact on read-back: ${r.saves.found}, lost or different: ${r.saves.acknowledged - r.saves.found}`);
   for (const p of r.saves.problems.slice(0, 10)) print(`  problem: ${p}`);
+  print(`saves stored but never acknowledged (client timed out at 10 s, or in flight when the phase ended): ${r.unacknowledgedStored}`);
   print(`integrity_check: ${r.database.integrity}`);
   print(`database: ${megabytes(r.database.bytes)} (${r.database.versions} deck versions)`);
   const reads = r.phases[0];

@@ -25,6 +25,16 @@ export function checkDatabase(path: string): DatabaseCheck {
   }
 }
 
+/** Versions stored for one deck (read-only, the server stopped). */
+export function versionsOfDeck(path: string, deckId: number): number {
+  const db = new Database(path, { readonly: true, fileMustExist: true });
+  try {
+    return (db.prepare('select count(*) as n from deck_versions where deck_id = ?').get(deckId) as { n: number }).n;
+  } finally {
+    db.close();
+  }
+}
+
 export function megabytes(bytes: number): string {
   return `${(bytes / 1024 / 1024).toFixed(2)} MB`;
 }
