@@ -86,15 +86,15 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/invitations', invitationRouter(db, config, pp, mailer)); // token routes need no session
   api.use(authenticate(pp), requireCsrf, requirePasswordChanged);
   api.use('/projects', projectRouter(db));
-  api.use('/projects/:projectId/decks', projectDecksRouter(db));
-  api.use('/decks', deckRouter(db));
+  api.use('/projects/:projectId/decks', projectDecksRouter(db, config));
+  api.use('/decks', deckRouter(db, config));
   api.use('/admin/users', userRouter(db, config, mailer));
   api.use('/mail', mailRouter(db));
   api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));
   api.use('/attachments', attachmentRouter(db, filesDir));
   api.use('/reviews', reviewRouter(db, config, mailer));
   api.use('/training', trainingRouter(db, config, mailer));
-  api.use('/imports', importRouter(db));
+  api.use('/imports', importRouter(db, config));
   api.use('/reports', reportRouter(db));
   api.use(notFoundHandler);
   app.use('/api', api);

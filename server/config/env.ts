@@ -5,6 +5,10 @@
 import { randomBytes } from 'node:crypto';
 import { z } from 'zod';
 
+/** Default storage quota per firm: 2 GB of deck versions and results (FIRM_STORAGE_QUOTA_MB). */
+export const DEFAULT_FIRM_STORAGE_QUOTA_MB = 2048;
+export const DEFAULT_FIRM_STORAGE_QUOTA_BYTES = DEFAULT_FIRM_STORAGE_QUOTA_MB * 1024 * 1024;
+
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
@@ -39,6 +43,8 @@ const envSchema = z.object({
   BACKUP_EVERY_MINUTES: z.coerce.number().int('BACKUP_EVERY_MINUTES must be a whole number').min(1).max(7 * 24 * 60).default(60),
   /** Periodic backups kept (the newest); older ones are deleted. */
   BACKUP_KEEP: z.coerce.number().int('BACKUP_KEEP must be a whole number').min(1).max(1000).default(7),
+  /** Stored deck data (versions and their results) allowed per firm, MB. */
+  FIRM_STORAGE_QUOTA_MB: z.coerce.number().int('FIRM_STORAGE_QUOTA_MB must be a whole number').min(1).max(1024 * 1024).default(DEFAULT_FIRM_STORAGE_QUOTA_MB),
 });
 
 export interface Config {
@@ -62,6 +68,8 @@ export interface Config {
   secureCookies: boolean;
   /** Periodic backups (server/backup/periodic.ts); null when BACKUP_DIR is unset. */
   backup: { dir: string; everyMinutes: number; keep: number } | null;
+  /** Stored deck data allowed per firm, bytes (FIRM_STORAGE_QUOTA_MB). */
+  firmStorageQuotaBytes: number;
 }
 
 export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: Partial<Config> = {}): Config {
@@ -101,6 +109,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     secureCookies: e.NODE_ENV === 'production',
     backup: e.BACKUP_DIR ? { dir: e.BACKUP_DIR, everyMinutes: e.BACKUP_EVERY_MINUTES, keep: e.BACKUP_KEEP } : null,
+    firmStorageQuotaBytes: e.FIRM_STORAGE_QUOTA_MB * 1024 * 1024,
     ...overrides,
   };
 }

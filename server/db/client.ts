@@ -1,6 +1,8 @@
 /**
- * Opens the SQLite database (better-sqlite3) with WAL journaling, foreign keys and a busy
- * timeout, applies the committed migrations, and returns the Drizzle handle.
+ * Opens the SQLite database (better-sqlite3) with WAL journaling, foreign keys, a busy
+ * timeout and recursive triggers (so the implicit delete of a REPLACE fires the append-only
+ * tables' DELETE triggers too; their BEFORE INSERT triggers refuse it on any connection),
+ * applies the committed migrations, and returns the Drizzle handle.
  *
  * Durability: `synchronous = FULL` in WAL mode syncs the write-ahead log at every commit, so a
  * save the API acknowledged survives a power loss or an operating-system crash, not only a
@@ -33,6 +35,7 @@ export function openDatabase(url: string): Db {
   sqlite.pragma('foreign_keys = ON');
   sqlite.pragma('busy_timeout = 5000');
   sqlite.pragma('synchronous = FULL');
+  sqlite.pragma('recursive_triggers = ON');
   const db = drizzle(sqlite, { schema }) as Db;
   migrate(db, { migrationsFolder: MIGRATIONS });
   return db;

@@ -2,13 +2,15 @@
  * Deckshare's database schema (SQLite through Drizzle). One file; migrations are generated
  * from it by drizzle-kit into server/db/migrations and applied at start-up.
  *
- * Immutability: deck versions, analysis results and the audit log are append-only. Triggers
- * in migration 0001 refuse UPDATE and DELETE on those tables, so not even a bug can change a
- * saved version.
+ * Immutability: deck versions, analysis results, the audit log, review comments, submissions
+ * and the outbox are append-only. Triggers (migrations 0001, 0003, 0005) refuse UPDATE and
+ * DELETE on those tables and any INSERT whose key already exists (so INSERT OR REPLACE,
+ * REPLACE INTO and upserts cannot swap a row either), so not even a bug can change a saved
+ * version. Stored bytes per firm are counted by triggers into firm_storage (migration 0005).
  * Timestamps are ISO-8601 strings in UTC.
  */
 import { sql } from 'drizzle-orm';
-import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
 export const ROLES = ['admin', 'designer', 'reviewer', 'instructor', 'trainee'] as const;
 export type Role = (typeof ROLES)[number];
@@ -127,7 +129,14 @@ export const deckVersions = sqliteTable(
   (t) => [uniqueIndex('deck_versions_deck_number_unique').on(t.deckId, t.number)],
 );
 
-/** Computed results per deck version and method, with the solver version that made them. */
+/** How a result's data is stored: 'json' in data_json (older rows), 'brotli-json' in data_blob. */
+export const RESULT_ENCODINGS = ['json', 'brotli-json'] as const;
+export type ResultEncoding = (typeof RESULT_ENCODINGS)[number];
+
+/**
+ * Computed results per deck version and method, with the solver version that made them.
+ * Read and write them only through server/storage/storedResults.ts (it knows the encodings).
+ */
 export const analysisResults = sqliteTable(
   'analysis_results',
   {
@@ -137,7 +146,11 @@ export const analysisResults = sqliteTable(
       .references(() => deckVersions.id),
     method: text('method').notNull(),
     solverVersion: text('solver_version').notNull(),
+    /** The result as JSON when encoding is 'json'; '' when the data is in data_blob. */
     dataJson: text('data_json').notNull(),
+    encoding: text('encoding', { enum: RESULT_ENCODINGS }).notNull().default('json'),
+    /** The result's JSON compressed with brotli when encoding is 'brotli-json'. */
+    dataBlob: blob('data_blob', { mode: 'buffer' }),
     createdAt: text('created_at').notNull().default(now),
   },
   (t) => [uniqueIndex('analysis_results_version_method_unique').on(t.versionId, t.method, t.solverVersion)],
@@ -162,10 +175,22 @@ export const auditLog = sqliteTable(
   (t) => [index('audit_firm_project_idx').on(t.firmId, t.projectId)],
 );
 
+/**
+ * Bytes of deck data each firm has stored (versions and their results), kept by triggers on
+ * insert (migration 0005) and checked against the firm's quota before a save.
+ */
+export const firmStorage = sqliteTable('firm_storage', {
+  firmId: integer('firm_id')
+    .primaryKey()
+    .references(() => firms.id),
+  bytes: integer('bytes').notNull().default(0),
+});
+
 export type UserRow = typeof users.$inferSelect;
 export type ProjectRow = typeof projects.$inferSelect;
 export type DeckRow = typeof decks.$inferSelect;
 export type DeckVersionRow = typeof deckVersions.$inferSelect;
+export type AnalysisResultRow = typeof analysisResults.$inferSelect;
 export type AuditRow = typeof auditLog.$inferSelect;
 
 // ─── Review, mail, attachments and training (workflow tables) ─────────────────────────────

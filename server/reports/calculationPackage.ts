@@ -1,5 +1,6 @@
 /**
- * The calculation package of a deck version, as a PDF (pdfkit, Open Sans embedded): a cover
+ * The calculation package of a deck version, as a PDF (pdfkit; Open Sans embedded, with Noto
+ * Sans SC and Noto Emoji subsets only for the characters that need them): a cover
  * (project, deck, version, author, reviewer, status), the inputs and derived section
  * properties, the governing factors, every factor with its trace and article, the governing
  * placements drawn on the cross-section (lanes, wheels, girders), the comparison of methods,
@@ -13,7 +14,7 @@ import { deckGeometry } from '../../shared/deck/geometry.js';
 import type { FactorRow } from '../../shared/lrfd/index.js';
 import type { TraceStep } from '../../shared/trace.js';
 import { fromUs, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '../../shared/units.js';
-import { baseFont, heightOf, printable, registerFonts, write, type Weight } from './pdfFonts.js';
+import { baseFont, fitLine, heightOf, registerFonts, write, type Weight } from './pdfFonts.js';
 import type { ReportData } from './reportData.js';
 
 export const PACKAGE_CAUTION = 'Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
@@ -638,9 +639,10 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
     doc.page.margins.bottom = 0;
     doc.moveTo(PAGE.margin, PAGE.height - 40).lineTo(PAGE.margin + CONTENT_W, PAGE.height - 40).lineWidth(0.4).strokeColor(RULE).stroke();
     doc.fillColor(MUTED).font(baseFont()).fontSize(7);
-    doc.text(printable(`${data.project.name} · ${data.deck.name} · version ${data.version.number} · ${data.status.label}`), PAGE.margin, PAGE.height - 35, { width: CONTENT_W * 0.7, lineBreak: false });
-    doc.text(`page ${i + 1} of ${range.count}`, PAGE.margin + CONTENT_W * 0.7, PAGE.height - 35, { width: CONTENT_W * 0.3, align: 'right', lineBreak: false });
-    doc.text(printable(PACKAGE_CAUTION), PAGE.margin, PAGE.height - 26, { width: CONTENT_W, lineBreak: false });
+    const footer = fitLine(doc, `${data.project.name} · ${data.deck.name} · version ${data.version.number} · ${data.status.label}`, CONTENT_W * 0.7 - 4);
+    write(doc, footer, PAGE.margin, PAGE.height - 35, { width: CONTENT_W * 0.7, lineBreak: false });
+    doc.font(baseFont()).text(`page ${i + 1} of ${range.count}`, PAGE.margin + CONTENT_W * 0.7, PAGE.height - 35, { width: CONTENT_W * 0.3, align: 'right', lineBreak: false });
+    write(doc, PACKAGE_CAUTION, PAGE.margin, PAGE.height - 26, { width: CONTENT_W, lineBreak: false });
     doc.page.margins.bottom = bottom;
   }
   doc.end();

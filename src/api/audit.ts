@@ -1,8 +1,7 @@
-/** A project's audit trail (admin, reviewer, designer, instructor). */
+/** A project's audit trail (admin, reviewer, designer, instructor), a page at a time, newest first. */
 import { http } from './http';
-import type { AuditEntry } from './types';
+import type { AuditEntry, Page } from './types';
 
-export async function listProjectAudit(projectId: number): Promise<AuditEntry[]> {
-  const { entries } = await http.get<{ entries: AuditEntry[] }>(`/api/projects/${projectId}/audit`);
-  return entries;
+export async function listProjectAudit(projectId: number, cursor?: string): Promise<{ entries: AuditEntry[]; page: Page }> {
+  return http.get<{ entries: AuditEntry[]; page: Page }>(`/api/projects/${projectId}/audit`, cursor ? { cursor } : {});
 }

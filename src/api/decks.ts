@@ -1,7 +1,7 @@
 /** Decks (saved configurations) of a project and their immutable versions. */
 import type { DeckInput } from '@shared/deck/schema';
 import { http } from './http';
-import type { DeckSummary, DeckVersion, VersionSummary } from './types';
+import type { DeckSummary, DeckVersion, Page, VersionSummary } from './types';
 
 export async function listDecks(projectId: number): Promise<DeckSummary[]> {
   const { decks } = await http.get<{ decks: DeckSummary[] }>(`/api/projects/${projectId}/decks`);
@@ -15,9 +15,14 @@ export async function createDeck(
   return http.post<{ deck: DeckSummary; version: DeckVersion }>(`/api/projects/${projectId}/decks`, input);
 }
 
-/** The deck with its versions, newest first. */
-export async function getDeck(deckId: number): Promise<{ deck: DeckSummary; versions: VersionSummary[] }> {
-  return http.get<{ deck: DeckSummary; versions: VersionSummary[] }>(`/api/decks/${deckId}`);
+/** The deck with the first page of its versions, newest first. */
+export async function getDeck(deckId: number): Promise<{ deck: DeckSummary; versions: VersionSummary[]; page: Page }> {
+  return http.get<{ deck: DeckSummary; versions: VersionSummary[]; page: Page }>(`/api/decks/${deckId}`);
+}
+
+/** The next page of a deck's versions (older ones), from the previous page's `nextCursor`. */
+export async function listVersions(deckId: number, cursor: string): Promise<{ versions: VersionSummary[]; page: Page }> {
+  return http.get<{ versions: VersionSummary[]; page: Page }>(`/api/decks/${deckId}/versions`, { cursor });
 }
 
 export async function saveVersion(

@@ -1,6 +1,6 @@
 /** The firm's outbox of e-mail notices and the invitations to set a password. */
 import { http } from './http';
-import type { PersonRef, SessionUser } from './types';
+import type { Page, PersonRef, SessionUser } from './types';
 
 export const MAIL_KIND_LABELS = {
   invitation: 'invitation',
@@ -34,9 +34,9 @@ export interface Invitation {
   status: 'pending' | 'used' | 'expired' | 'replaced';
 }
 
-export async function listOutbox(query: { kind?: MailKind; to?: string } = {}): Promise<OutboxMessage[]> {
-  const { messages } = await http.get<{ messages: OutboxMessage[] }>('/api/mail/outbox', query);
-  return messages;
+/** A page of the outbox, newest first. */
+export async function listOutbox(query: { kind?: MailKind; to?: string; cursor?: string } = {}): Promise<{ messages: OutboxMessage[]; page: Page }> {
+  return http.get<{ messages: OutboxMessage[]; page: Page }>('/api/mail/outbox', query);
 }
 
 export async function getOutboxMessage(id: number): Promise<OutboxMessage> {

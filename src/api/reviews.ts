@@ -1,6 +1,6 @@
 /** Review rounds of deck versions (see server/api/reviews): submit, comment, decide, withdraw. */
 import { http, request } from './http';
-import type { PersonRef, UnitSystem } from './types';
+import type { Page, PersonRef, UnitSystem } from './types';
 
 export type ReviewState = 'awaiting-review' | 'approved' | 'sent-back' | 'withdrawn';
 export type VersionReviewState = ReviewState | 'in-progress';
@@ -116,14 +116,15 @@ export interface Reviewer {
 export interface DeckReviewStatus {
   deckId: number;
   versions: { versionId: number; number: number; state: VersionReviewState; stateLabel: string; roundId: number | null }[];
+  page: Page;
   latestApprovedNumber: number | null;
 }
 
 export type ReviewView = 'assigned' | 'submitted' | 'all';
 
-export async function listReviews(query: { view?: ReviewView; state?: ReviewState; deckId?: number } = {}): Promise<ReviewSummary[]> {
-  const { reviews } = await http.get<{ reviews: ReviewSummary[] }>('/api/reviews', query);
-  return reviews;
+/** A page of review rounds, most recently changed first. */
+export async function listReviews(query: { view?: ReviewView; state?: ReviewState; deckId?: number; cursor?: string } = {}): Promise<{ reviews: ReviewSummary[]; page: Page }> {
+  return http.get<{ reviews: ReviewSummary[]; page: Page }>('/api/reviews', query);
 }
 
 export async function getReview(reviewId: number): Promise<{ review: ReviewDetail; summary: RefinedSummary }> {
@@ -135,8 +136,9 @@ export async function listReviewers(): Promise<Reviewer[]> {
   return reviewers;
 }
 
-export async function deckReviewStatus(deckId: number): Promise<DeckReviewStatus> {
-  return http.get<DeckReviewStatus>('/api/reviews/status', { deckId });
+/** The review state of a page of the deck's versions (newest first). */
+export async function deckReviewStatus(deckId: number, cursor?: string): Promise<DeckReviewStatus> {
+  return http.get<DeckReviewStatus>('/api/reviews/status', cursor ? { deckId, cursor } : { deckId });
 }
 
 export async function submitForReview(input: { versionId: number; reviewerId: number; note?: string }): Promise<ReviewSummary> {

@@ -118,6 +118,13 @@ export interface UserChanges {
   disabled?: boolean;
 }
 
+/** One page of a long list, newest first: pass `nextCursor` back to get the next page. */
+export interface Page {
+  limit: number;
+  total: number;
+  nextCursor: string | null;
+}
+
 export interface AuditEntry {
   id: number;
   at: string;

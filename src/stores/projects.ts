@@ -4,7 +4,7 @@ import { ref } from 'vue';
 import * as projectsApi from '@/api/projects';
 import * as decksApi from '@/api/decks';
 import * as auditApi from '@/api/audit';
-import type { ArchivedFilter, AuditEntry, DeckSummary, NewProject, Project, ProjectChanges } from '@/api/types';
+import type { ArchivedFilter, AuditEntry, DeckSummary, NewProject, Page, Project, ProjectChanges } from '@/api/types';
 
 export const useProjectsStore = defineStore('projects', () => {
   const projects = ref<Project[]>([]);
@@ -17,6 +17,8 @@ export const useProjectsStore = defineStore('projects', () => {
   const current = ref<Project | null>(null);
   const currentDecks = ref<DeckSummary[]>([]);
   const currentAudit = ref<AuditEntry[]>([]);
+  /** The last audit page fetched (total, and the cursor of older entries). */
+  const auditPage = ref<Page | null>(null);
 
   async function fetchProjects(filter: ArchivedFilter = archivedFilter.value): Promise<void> {
     archivedFilter.value = filter;
@@ -71,11 +73,27 @@ export const useProjectsStore = defineStore('projects', () => {
     ]);
     current.value = project;
     currentDecks.value = decks;
-    currentAudit.value = withAudit ? await auditApi.listProjectAudit(projectId) : [];
+    if (withAudit) await refreshAudit(projectId);
+    else {
+      currentAudit.value = [];
+      auditPage.value = null;
+    }
   }
 
+  /** Loads the newest page of the project's audit trail. */
   async function refreshAudit(projectId: number): Promise<void> {
-    currentAudit.value = await auditApi.listProjectAudit(projectId);
+    const answer = await auditApi.listProjectAudit(projectId);
+    currentAudit.value = answer.entries;
+    auditPage.value = answer.page;
+  }
+
+  /** Appends the next (older) page of the audit trail. */
+  async function fetchOlderAudit(projectId: number): Promise<void> {
+    const cursor = auditPage.value?.nextCursor;
+    if (!cursor) return;
+    const answer = await auditApi.listProjectAudit(projectId, cursor);
+    currentAudit.value = [...currentAudit.value, ...answer.entries];
+    auditPage.value = answer.page;
   }
 
   return {
@@ -86,10 +104,12 @@ export const useProjectsStore = defineStore('projects', () => {
     current,
     currentDecks,
     currentAudit,
+    auditPage,
     fetchProjects,
     createProject,
     updateProject,
     openProject,
     refreshAudit,
+    fetchOlderAudit,
   };
 });

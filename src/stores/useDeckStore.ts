@@ -9,7 +9,7 @@ import type { DeckInput } from '@shared/deck/schema';
 import type { UnitSystem } from '@shared/units';
 import * as decksApi from '@/api/decks';
 import * as projectsApi from '@/api/projects';
-import type { DeckSummary, DeckVersion, Project, VersionSummary } from '@/api/types';
+import type { DeckSummary, DeckVersion, Page, Project, VersionSummary } from '@/api/types';
 import { validateDeck } from '@/components/deck/deckValidation';
 import { deckTemplate, type DeckTemplateKey } from '@/components/deck/deckTemplates';
 import { getAt, pathKey, setAt, type FieldPath } from '@/components/deck/deckPaths';
@@ -93,6 +93,8 @@ export const useDeckStore = defineStore('deck', () => {
   const deckId = ref<number | null>(null);
   const summary = ref<DeckSummary | null>(null);
   const versions = ref<VersionSummary[]>([]);
+  /** The last page of versions fetched: the total and the cursor of older ones. */
+  const versionsPage = ref<Page | null>(null);
   /** The version opened (read-only) or the one the draft started from. */
   const version = ref<DeckVersion | null>(null);
   /** The version a save will name as its base. */
@@ -125,6 +127,7 @@ export const useDeckStore = defineStore('deck', () => {
     deckId.value = null;
     summary.value = null;
     versions.value = [];
+    versionsPage.value = null;
     version.value = null;
     basedOnVersionId.value = null;
     draft.value = deckTemplate(template).build();
@@ -166,7 +169,17 @@ export const useDeckStore = defineStore('deck', () => {
     const answer = await decksApi.getDeck(forDeck);
     summary.value = answer.deck;
     versions.value = answer.versions;
+    versionsPage.value = answer.page;
     projectId.value = answer.deck.projectId;
+  }
+
+  /** Appends the next page of older versions to the history. */
+  async function fetchOlderVersions(): Promise<void> {
+    const cursor = versionsPage.value?.nextCursor;
+    if (deckId.value === null || !cursor) return;
+    const answer = await decksApi.listVersions(deckId.value, cursor);
+    versions.value = [...versions.value, ...answer.versions];
+    versionsPage.value = answer.page;
   }
 
   function applyVersion(v: DeckVersion, asMode: WorkspaceMode): void {
@@ -267,6 +280,8 @@ export const useDeckStore = defineStore('deck', () => {
     deckId,
     summary,
     versions,
+    versionsPage,
+    fetchOlderVersions,
     version,
     basedOnVersionId,
     dirty,

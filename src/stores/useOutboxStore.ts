@@ -3,9 +3,12 @@ import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import * as mailApi from '@/api/mail';
 import type { Invitation, MailKind, OutboxMessage } from '@/api/mail';
+import type { Page } from '@/api/types';
 
 export const useOutboxStore = defineStore('outbox', () => {
   const messages = ref<OutboxMessage[]>([]);
+  /** The last page fetched: its total and the cursor of the next (older) page. */
+  const page = ref<Page | null>(null);
   const invitations = ref<Invitation[]>([]);
   const kind = ref<MailKind | undefined>(undefined);
   const loading = ref(false);
@@ -15,7 +18,23 @@ export const useOutboxStore = defineStore('outbox', () => {
     kind.value = filter;
     loading.value = true;
     try {
-      messages.value = await mailApi.listOutbox(filter ? { kind: filter } : {});
+      const answer = await mailApi.listOutbox(filter ? { kind: filter } : {});
+      messages.value = answer.messages;
+      page.value = answer.page;
+    } finally {
+      loading.value = false;
+    }
+  }
+
+  /** Appends the next (older) page. */
+  async function fetchMore(): Promise<void> {
+    const cursor = page.value?.nextCursor;
+    if (!cursor) return;
+    loading.value = true;
+    try {
+      const answer = await mailApi.listOutbox({ ...(kind.value ? { kind: kind.value } : {}), cursor });
+      messages.value = [...messages.value, ...answer.messages];
+      page.value = answer.page;
     } finally {
       loading.value = false;
     }
@@ -43,5 +62,5 @@ export const useOutboxStore = defineStore('outbox', () => {
     return inv;
   }
 
-  return { messages, invitations, kind, loading, selected, fetchMessages, select, fetchInvitations, invite };
+  return { messages, page, invitations, kind, loading, selected, fetchMessages, fetchMore, select, fetchInvitations, invite };
 });

@@ -3,9 +3,11 @@ import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import * as reviewsApi from '@/api/reviews';
 import type { CommentAnchor, RefinedSummary, ReviewDetail, ReviewState, ReviewSummary, ReviewView, Reviewer } from '@/api/reviews';
+import type { Page } from '@/api/types';
 
 export const useReviewStore = defineStore('reviews', () => {
   const list = ref<ReviewSummary[]>([]);
+  const listPage = ref<Page | null>(null);
   const listView = ref<ReviewView>('assigned');
   const listState = ref<ReviewState | undefined>(undefined);
   const loadingList = ref(false);
@@ -18,7 +20,23 @@ export const useReviewStore = defineStore('reviews', () => {
     listState.value = state;
     loadingList.value = true;
     try {
-      list.value = await reviewsApi.listReviews({ view, state });
+      const answer = await reviewsApi.listReviews({ view, state });
+      list.value = answer.reviews;
+      listPage.value = answer.page;
+    } finally {
+      loadingList.value = false;
+    }
+  }
+
+  /** Appends the next page of the list (rounds changed earlier). */
+  async function fetchMore(): Promise<void> {
+    const cursor = listPage.value?.nextCursor;
+    if (!cursor) return;
+    loadingList.value = true;
+    try {
+      const answer = await reviewsApi.listReviews({ view: listView.value, state: listState.value, cursor });
+      list.value = [...list.value, ...answer.reviews];
+      listPage.value = answer.page;
     } finally {
       loadingList.value = false;
     }
@@ -66,5 +84,5 @@ export const useReviewStore = defineStore('reviews', () => {
     await reload();
   }
 
-  return { list, listView, listState, loadingList, current, summary, reviewers, fetchList, open, reload, fetchReviewers, submit, comment, recordRefined, decide, withdraw };
+  return { list, listPage, listView, listState, loadingList, current, summary, reviewers, fetchList, fetchMore, open, reload, fetchReviewers, submit, comment, recordRefined, decide, withdraw };
 });

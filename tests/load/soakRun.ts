@@ -8,7 +8,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startServer } from './harness/server.js';
-import { DEMO, getJson, signIn } from './harness/client.js';
+import { DEMO, signIn } from './harness/client.js';
 import { findSaveTarget, readBack, type ReadBack } from './harness/saves.js';
 import { checkDatabase, megabytes, versionsOfDeck, type DatabaseCheck } from './harness/database.js';
 import { printPhaseTable, type Print } from './harness/report.js';
@@ -50,7 +50,7 @@ export async function runSoak(options: SoakOptions, print: Print = console.log):
       const reads = await readPhase(settings);
       const target = await findSaveTarget(server.url, sessions[0]);
       deckId = target.deckId;
-      versionsBefore = (await getJson<{ versions: unknown[] }>(server.url, sessions[0], `/api/decks/${deckId}`)).body.versions.length;
+      versionsBefore = target.latestNumber;
       const run = `r${Date.now().toString(36)}`;
       const written = await savePhase(settings, target, run);
       saves = await readBack(server.url, sessions[0], target, run, written.acks);

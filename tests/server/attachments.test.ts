@@ -119,4 +119,22 @@ describe('drawings', () => {
     expect(audit[0].summary).toBe(`deleted drawing “${list[0].title}” (${list[0].originalName})`);
     expect(existsSync(ctx.attachmentsDir)).toBe(true);
   });
+
+  it('keeps a UTF-8 file name as the browser sent it: upload, list, download header', async () => {
+    // Browsers send the name's UTF-8 bytes in filename="…" (WHATWG HTML, multipart/form-data
+    // encoding); the download names it in RFC 6266 / RFC 5987 filename*=UTF-8'' with an ASCII fallback.
+    const name = 'ü-ñ-橋梁-🦀.pdf';
+    const up = await upload(designer, PDF, name, 'application/pdf');
+    expect(up.status).toBe(201);
+    expect(up.body.attachment).toMatchObject({ originalName: name, title: name });
+    const list = (await reviewer.get(`/api/projects/${projectId}/attachments`)).body.attachments;
+    expect(list.find((a: { id: number }) => a.id === up.body.attachment.id).originalName).toBe(name);
+    const dl = await reviewer.get(up.body.attachment.downloadUrl);
+    expect(dl.status).toBe(200);
+    const header = dl.headers['content-disposition'];
+    expect(header).toBe(`attachment; filename="u-n-__-_.pdf"; filename*=UTF-8''%C3%BC-%C3%B1-%E6%A9%8B%E6%A2%81-%F0%9F%A6%80.pdf`);
+    expect(decodeURIComponent(/filename\*=UTF-8''(.+)$/.exec(header)![1])).toBe(name);
+    const audit = (await designer.get(`/api/projects/${projectId}/audit`)).body.entries[0];
+    expect(audit.summary).toContain(`(${name}, application/pdf`);
+  });
 });

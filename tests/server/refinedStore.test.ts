@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { demo, makeTestApp, signIn, type TestContext } from './helpers.js';
 import { analysisResults } from '../../server/db/schema.js';
+import { decodeResult } from '../../server/storage/storedResults.js';
 import { SOLVER_VERSION } from '../../shared/version.js';
 import { quarryCreekDeck } from '../fixtures/decks.js';
 
@@ -30,7 +31,8 @@ describe('stored grillage results', () => {
     const stored = grillageRows();
     expect(stored).toHaveLength(1);
     expect(stored[0].solverVersion).toBe(SOLVER_VERSION);
-    const data = JSON.parse(stored[0].dataJson) as { rows: { method: string; value: number }[] };
+    expect(stored[0].encoding).toBe('brotli-json');
+    const data = decodeResult(stored[0]) as { rows: { method: string; value: number }[] };
     expect(data.rows.length).toBeGreaterThan(0);
     expect(data.rows.every((r) => r.method === 'grillage' && Number.isFinite(r.value))).toBe(true);
 

@@ -72,6 +72,9 @@ describe('calculation package (PDF)', () => {
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
     expect(pdf.includes(Buffer.from('/FontFile2'))).toBe(true);
     expect(pdf.includes(Buffer.from('OpenSans-Regular'))).toBe(true);
+    // A package of Latin text only embeds no fallback font (they load only for the characters that need them).
+    expect(pdf.includes(Buffer.from('NotoSansSC'))).toBe(false);
+    expect(pdf.includes(Buffer.from('NotoEmoji'))).toBe(false);
     text = pdfText(pdf);
   });
 
@@ -106,6 +109,29 @@ describe('calculation package (PDF)', () => {
     expect((await outsider.get(`/api/reports/decks/${deckId}/versions/1/factors.csv`)).status).toBe(404);
     expect((await designer.get(`/api/reports/decks/${deckId}/versions/9/package.pdf`)).status).toBe(404);
     expect((await designer.get(`/api/reports/decks/abc/versions/1/package.pdf`)).status).toBe(400);
+  });
+});
+
+describe('calculation package with CJK, accented and emoji characters in names and notes', () => {
+  it('prints them in fonts that have them (Noto Sans SC, Noto Emoji), not as "?"', async () => {
+    const project = await send.post(designer, '/api/projects', { name: 'Brücke am Año 橋梁 🦀', ownerAgency: 'Kreis Süd 道路局', location: 'ü ñ 河川', units: 'US', notes: '' });
+    expect(project.status).toBe(201);
+    const created = await send.post(designer, `/api/projects/${project.body.project.id}/decks`, { deck: { ...quarryCreekDeck(), name: 'Hauptfeld 主桥 ü ñ 🦀' }, message: 'Trägerlage 橋梁 🦀' });
+    expect(created.status).toBe(201);
+    const round = await send.post(designer, '/api/reviews', { versionId: created.body.version.id, reviewerId: userId(ctx, demo.reviewer) });
+    await send.put(reviewer, `/api/reviews/${round.body.review.id}/refined-analysis`, { justified: false, reason: 'Alle Formeln im Bereich 橋梁 ü ñ 🦀.' });
+    const decided = await send.post(reviewer, `/api/reviews/${round.body.review.id}/decision`, { outcome: 'approve', note: 'Geprüft 橋梁 🦀' });
+    expect(decided.status).toBe(200);
+    const res = await designer.get(`/api/reports/decks/${created.body.deck.id}/versions/1/package.pdf`).buffer(true).parse(binary);
+    expect(res.status).toBe(200);
+    const pdf = res.body as Buffer;
+    expect(pdf.includes(Buffer.from('NotoSansSC'))).toBe(true);
+    expect(pdf.includes(Buffer.from('NotoEmoji'))).toBe(true);
+    const text = pdfText(pdf);
+    for (const s of ['Brücke am Año 橋梁 🦀', 'Kreis Süd 道路局', 'ü ñ 河川', 'Hauptfeld 主桥 ü ñ 🦀 — version 1', 'Trägerlage 橋梁 🦀', 'Alle Formeln im Bereich 橋梁 ü ñ 🦀.', 'Geprüft 橋梁 🦀']) {
+      expect(text, s).toContain(s);
+    }
+    expect(text).not.toMatch(/\?\s?🦀|橋梁\s?\?/);
   });
 });
 

@@ -3,11 +3,12 @@
 import { z } from 'zod';
 import { deckSchema } from '../../../shared/deck/schema.js';
 import { personText } from '../../../shared/text.js';
+import { placementsSchema } from './placementsModel.js';
 
 const message = personText('message', 500, { multiline: true, min: 1, minMessage: 'a save message is required' });
 
-/** Saved lane and wheel placements: free-form JSON, bounded in size by the body limit. */
-const placements = z.unknown().optional();
+/** Saved lane and wheel placements (placementsModel.ts): bounded in depth, lengths and size. */
+const placements = placementsSchema.optional();
 
 export const deckCreateBody = z.strictObject({
   deck: deckSchema,

@@ -2,15 +2,22 @@
  * Decks and their versions. A save always inserts a new version row (numbered 1, 2, …) with
  * the code-method results computed from it; nothing is overwritten (database triggers refuse
  * updates and deletes of versions and results). Firm scoping goes through the project.
+ * Results are stored compressed (server/storage/storedResults.ts); a save that would take the
+ * firm past its storage quota is refused before anything is written (server/storage/firmQuota.ts).
  */
-import { and, desc, eq, max } from 'drizzle-orm';
+import { and, count, desc, eq, lt, max } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
-import { analysisResults, decks, deckVersions, projects, users, type DeckRow, type DeckVersionRow } from '../../db/schema.js';
+import { decks, deckVersions, projects, users, type DeckRow, type DeckVersionRow } from '../../db/schema.js';
 import type { Deck } from '../../../shared/deck/schema.js';
 import { ApiError } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
 import { findProject } from '../projects/projectService.js';
 import { computeStoredResults } from './analysis.js';
+import { cutPage, decodeCursor, DEFAULT_PAGE, numberCursor, type PageRequest } from '../pagination.js';
+import { readStoredPlacements, type SavedPlacements } from './placementsModel.js';
+import { encodeResultRow, encodedBytes, insertEncodedResult, MAX_RESULT_JSON_BYTES, ResultTooLargeError, resultsOfVersion } from '../../storage/storedResults.js';
+import { assertWithinQuota } from '../../storage/firmQuota.js';
+import { DEFAULT_FIRM_STORAGE_QUOTA_BYTES } from '../../config/env.js';
 
 interface Actor {
   id: number;
@@ -51,12 +58,11 @@ function deckSummary(db: Db, d: DeckRow) {
 }
 
 function fullVersion(db: Db, v: DeckVersionRow) {
-  const results = db.select().from(analysisResults).where(eq(analysisResults.versionId, v.id)).all();
   return {
     ...versionSummary(db, v),
     deck: JSON.parse(v.deckJson) as Deck,
-    placements: v.placementsJson === null ? null : (JSON.parse(v.placementsJson) as unknown),
-    results: results.map((r) => ({ method: r.method, solverVersion: r.solverVersion, data: JSON.parse(r.dataJson) as unknown, createdAt: r.createdAt })),
+    placements: readStoredPlacements(v.placementsJson),
+    results: resultsOfVersion(db, v.id),
   };
 }
 
@@ -77,10 +83,27 @@ export function listDecks(db: Db, firmId: number, projectId: number) {
   return db.select().from(decks).where(eq(decks.projectId, projectId)).orderBy(desc(decks.id)).all().map((d) => deckSummary(db, d));
 }
 
-export function getDeck(db: Db, firmId: number, deckId: number) {
+/** A page of a deck's versions, newest first (server/api/pagination.ts). */
+export function listVersions(db: Db, firmId: number, deckId: number, req: PageRequest = { limit: DEFAULT_PAGE }) {
   const d = findDeck(db, firmId, deckId);
-  const versions = db.select().from(deckVersions).where(eq(deckVersions.deckId, d.id)).orderBy(desc(deckVersions.number)).all();
-  return { deck: deckSummary(db, d), versions: versions.map((v) => versionSummary(db, v)) };
+  const after = decodeCursor(req.cursor, numberCursor);
+  const scope = eq(deckVersions.deckId, d.id);
+  const total = db.select({ n: count() }).from(deckVersions).where(scope).get()?.n ?? 0;
+  const rows = db
+    .select()
+    .from(deckVersions)
+    .where(after ? and(scope, lt(deckVersions.number, after.number)) : scope)
+    .orderBy(desc(deckVersions.number))
+    .limit(req.limit + 1)
+    .all();
+  const cut = cutPage(rows, req.limit, total, (v) => ({ number: v.number }));
+  return { deck: d, versions: cut.rows.map((v) => versionSummary(db, v)), page: cut.page };
+}
+
+/** The deck with the first page of its versions (newest first) and the page's cursor. */
+export function getDeck(db: Db, firmId: number, deckId: number, req?: PageRequest) {
+  const { deck, versions, page } = listVersions(db, firmId, deckId, req);
+  return { deck: deckSummary(db, deck), versions, page };
 }
 
 export function getVersion(db: Db, firmId: number, deckId: number, number: number) {
@@ -93,45 +116,74 @@ export function getVersion(db: Db, firmId: number, deckId: number, number: numbe
 interface SaveInput {
   deck: Deck;
   message: string;
-  placements?: unknown;
+  placements?: SavedPlacements;
   basedOnVersionId?: number;
 }
 
-function insertVersion(tx: Parameters<Parameters<Db['transaction']>[0]>[0], deckId: number, actor: Actor, input: SaveInput, results: ReturnType<typeof computeStoredResults>) {
+/** Storage rules of a save: the firm's quota in bytes (FIRM_STORAGE_QUOTA_MB). */
+export interface StoragePolicy {
+  firmQuotaBytes: number;
+}
+
+const defaultPolicy: StoragePolicy = { firmQuotaBytes: DEFAULT_FIRM_STORAGE_QUOTA_BYTES };
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** A result too large to store is refused as bad input: the deck is what makes it large. */
+function encodeOrRefuse(r: ReturnType<typeof computeStoredResults>[number]) {
+  try {
+    return encodeResultRow(r);
+  } catch (e) {
+    if (!(e instanceof ResultTooLargeError)) throw e;
+    const mb = (n: number) => `${(n / 1024 / 1024).toFixed(1)} MB`;
+    const message = `the ${r.method} results of this deck would take ${e.bytes === null ? 'more than any string can hold' : mb(e.bytes)}, more than the ${mb(MAX_RESULT_JSON_BYTES)} one version may store: check the girder count, spacing and spans`;
+    throw ApiError.badRequest(`body.deck: ${message}`, [{ path: 'body.deck', message }]);
+  }
+}
+
+/** The columns a save writes, encoded once so the quota check counts what will be stored. */
+function encodeSave(input: SaveInput, results: ReturnType<typeof computeStoredResults>) {
+  const deckJson = JSON.stringify(input.deck);
+  const placementsJson = input.placements === undefined ? null : JSON.stringify(input.placements);
+  const encoded = results.map(encodeOrRefuse);
+  const bytes = Buffer.byteLength(deckJson) + (placementsJson === null ? 0 : Buffer.byteLength(placementsJson)) + encoded.reduce((n, r) => n + encodedBytes(r), 0);
+  return { deckJson, placementsJson, encoded, bytes };
+}
+
+function insertVersion(tx: Tx, deckId: number, actor: Actor, input: SaveInput, save: ReturnType<typeof encodeSave>) {
   const top = tx.select({ n: max(deckVersions.number) }).from(deckVersions).where(eq(deckVersions.deckId, deckId)).get();
   const v = tx
     .insert(deckVersions)
     .values({
       deckId,
       number: (top?.n ?? 0) + 1,
-      deckJson: JSON.stringify(input.deck),
-      placementsJson: input.placements === undefined ? null : JSON.stringify(input.placements),
+      deckJson: save.deckJson,
+      placementsJson: save.placementsJson,
       message: input.message,
       basedOnVersionId: input.basedOnVersionId ?? null,
       createdBy: actor.id,
     })
     .returning()
     .get();
-  for (const r of results) {
-    tx.insert(analysisResults).values({ versionId: v.id, method: r.method, solverVersion: r.solverVersion, dataJson: JSON.stringify(r.data) }).run();
-  }
+  for (const r of save.encoded) insertEncodedResult(tx, v.id, r);
   return v;
 }
 
-export function createDeck(db: Db, actor: Actor, projectId: number, input: SaveInput) {
+export function createDeck(db: Db, actor: Actor, projectId: number, input: SaveInput, policy: StoragePolicy = defaultPolicy) {
   const project = findProject(db, actor.firmId, projectId);
   if (project.archived) throw ApiError.conflict('the project is archived: restore it before adding decks');
-  const results = computeStoredResults(input.deck);
+  const save = encodeSave(input, computeStoredResults(input.deck));
   const { d, v } = db.transaction((tx) => {
+    assertWithinQuota(tx, actor.firmId, policy.firmQuotaBytes, save.bytes);
     const d = tx.insert(decks).values({ projectId, name: input.deck.name, createdBy: actor.id }).returning().get();
-    const v = insertVersion(tx, d.id, actor, input, results);
+    const v = insertVersion(tx, d.id, actor, input, save);
     recordAudit(tx, { firmId: actor.firmId, projectId, actorId: actor.id, action: 'create', entityType: 'deck', entityId: d.id, summary: `created deck “${d.name}” (version 1: ${input.message})` });
     return { d, v };
   });
   return { deck: deckSummary(db, d), version: fullVersion(db, v) };
 }
 
-export function saveVersion(db: Db, actor: Actor, deckId: number, input: SaveInput) {
+export function saveVersion(db: Db, actor: Actor, deckId: number, input: SaveInput, policy: StoragePolicy = defaultPolicy) {
   const d = findDeck(db, actor.firmId, deckId);
   const project = findProject(db, actor.firmId, d.projectId);
   if (project.archived) throw ApiError.conflict('the project is archived: restore it before saving');
@@ -139,9 +191,10 @@ export function saveVersion(db: Db, actor: Actor, deckId: number, input: SaveInp
     const base = db.select().from(deckVersions).where(and(eq(deckVersions.id, input.basedOnVersionId), eq(deckVersions.deckId, deckId))).get();
     if (!base) throw ApiError.badRequest('basedOnVersionId: no such version of this deck', [{ path: 'body.basedOnVersionId', message: 'no such version of this deck' }]);
   }
-  const results = computeStoredResults(input.deck);
+  const save = encodeSave(input, computeStoredResults(input.deck));
   const v = db.transaction((tx) => {
-    const v = insertVersion(tx, deckId, actor, input, results);
+    assertWithinQuota(tx, actor.firmId, policy.firmQuotaBytes, save.bytes);
+    const v = insertVersion(tx, deckId, actor, input, save);
     recordAudit(tx, { firmId: actor.firmId, projectId: d.projectId, actorId: actor.id, action: 'save-version', entityType: 'deck', entityId: deckId, summary: `saved version ${v.number} of deck “${d.name}”: ${input.message}` });
     return v;
   });

@@ -9,10 +9,11 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { personText } from '../../../shared/text.js';
 import type { Db } from '../../db/client.js';
+import type { Config } from '../../config/env.js';
 import { allow } from '../../auth/passport.js';
 import { validate } from '../../middleware/validate.js';
 import { ApiError } from '../../middleware/errors.js';
-import { receiveOneFile } from '../attachments/attachmentRouter.js';
+import { receiveOneFile } from '../../uploads/receiveFile.js';
 import { girderLayoutTemplate } from './girderLayoutCsv.js';
 import { importGirderLayout } from './importService.js';
 
@@ -25,7 +26,7 @@ const importFields = z.strictObject({
   dryRun: z.enum(['true', 'false'], { error: 'dryRun must be "true" or "false"' }).default('false'),
 });
 
-export function importRouter(db: Db): Router {
+export function importRouter(db: Db, config: Pick<Config, 'firmStorageQuotaBytes'>): Router {
   const r = Router();
   r.get('/girder-layout/template', allow('project:read'), validate({ query: templateQuery }), (_req, res) => {
     const units = res.locals.query.units as 'US' | 'SI';
@@ -33,14 +34,14 @@ export function importRouter(db: Db): Router {
     res.type('text/csv; charset=utf-8');
     res.send(girderLayoutTemplate(units));
   });
-  r.post('/girder-layout', allow('deck:save'), receiveOneFile(MAX_CSV_BYTES, 'the CSV file'), validate({ body: importFields }), (req, res) => {
+  r.post('/girder-layout', allow('deck:save'), receiveOneFile({ maxBytes: MAX_CSV_BYTES, what: 'the CSV file' }), validate({ body: importFields }), (req, res) => {
     const file = req.file!;
     const text = file.buffer.toString('utf8');
     if (text.includes('\u0000') || text.includes('\uFFFD')) {
       throw ApiError.badRequest('file: the file is not UTF-8 text (save it as CSV UTF-8)', [{ path: 'file', message: 'the file is not UTF-8 text (save it as CSV UTF-8)' }]);
     }
     const body = res.locals.body as z.infer<typeof importFields>;
-    const out = importGirderLayout(db, req.user!, { deckId: body.deckId, csv: text, fileName: file.originalname || 'the CSV file', message: body.message, dryRun: body.dryRun === 'true' });
+    const out = importGirderLayout(db, req.user!, { deckId: body.deckId, csv: text, fileName: file.originalname || 'the CSV file', message: body.message, dryRun: body.dryRun === 'true' }, { firmQuotaBytes: config.firmStorageQuotaBytes });
     res.status(out.dryRun ? 200 : 201).json(out);
   });
   return r;

@@ -12,7 +12,7 @@ import { deckSchema, DeckInputError, type Deck } from '../../../shared/deck/sche
 import { computeCodeFactors } from '../../../shared/lrfd/index.js';
 import { ApiError, type ErrorDetail } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
-import { findDeck, saveVersion } from '../decks/deckService.js';
+import { findDeck, saveVersion, type StoragePolicy } from '../decks/deckService.js';
 import { findProject } from '../projects/projectService.js';
 import { parseGirderLayoutCsv, SECTION_FIELDS, type CsvProblem, type ParsedLayout } from './girderLayoutCsv.js';
 
@@ -50,7 +50,7 @@ export interface ImportInput {
   dryRun: boolean;
 }
 
-export function importGirderLayout(db: Db, actor: Actor, input: ImportInput) {
+export function importGirderLayout(db: Db, actor: Actor, input: ImportInput, policy?: StoragePolicy) {
   const d = findDeck(db, actor.firmId, input.deckId);
   const project = findProject(db, actor.firmId, d.projectId);
   if (project.archived) throw ApiError.conflict('the project is archived: restore it before importing');
@@ -84,7 +84,7 @@ export function importGirderLayout(db: Db, actor: Actor, input: ImportInput) {
   const message = input.message?.trim() || `Imported the girder layout and section from ${input.fileName}`;
   // saveVersion's own transaction nests (a savepoint) inside this one, with the audit entry.
   const version = db.transaction(() => {
-    const v = saveVersion(db, actor, d.id, { deck, message, basedOnVersionId: latest.id });
+    const v = saveVersion(db, actor, d.id, { deck, message, basedOnVersionId: latest.id }, policy);
     recordAudit(db, {
       firmId: actor.firmId,
       projectId: d.projectId,

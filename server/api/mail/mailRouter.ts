@@ -1,6 +1,7 @@
-/** /api/mail — the outbox of the local SMTP service, for the firm's admins (mail:read). */
+/** /api/mail — the outbox of the local SMTP service, for the firm's admins (mail:read); the list is
+ *  paged newest first (server/api/pagination.ts). */
 import { Router } from 'express';
-import { and, desc, eq, like, type SQL } from 'drizzle-orm';
+import { and, count, desc, eq, like, lt, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Db } from '../../db/client.js';
 import { outboxMessages } from '../../db/schema.js';
@@ -8,11 +9,12 @@ import { allow } from '../../auth/passport.js';
 import { ApiError } from '../../middleware/errors.js';
 import { idParams, validate } from '../../middleware/validate.js';
 import { MAIL_KINDS } from '../../mail/mailer.js';
+import { cutPage, decodeCursor, idCursor, pageFields } from '../pagination.js';
 
 const listQuery = z.strictObject({
   kind: z.enum(MAIL_KINDS, { error: `kind must be one of ${MAIL_KINDS.join(', ')}` }).optional(),
   to: z.string().trim().max(254, 'to must be at most 254 characters').optional(),
-  limit: z.coerce.number().int('limit must be a whole number').min(1, 'limit must be at least 1').max(500, 'limit must be at most 500').default(100),
+  ...pageFields,
 });
 
 function present(m: typeof outboxMessages.$inferSelect, withBody: boolean) {
@@ -38,8 +40,12 @@ export function mailRouter(db: Db): Router {
     const where: SQL[] = [eq(outboxMessages.firmId, req.user!.firmId)];
     if (q.kind) where.push(eq(outboxMessages.kind, q.kind));
     if (q.to) where.push(like(outboxMessages.toAddresses, `%${q.to.replace(/[%_]/g, '')}%`));
-    const rows = db.select().from(outboxMessages).where(and(...where)).orderBy(desc(outboxMessages.id)).limit(q.limit).all();
-    res.json({ messages: rows.map((m) => present(m, false)) });
+    const total = db.select({ n: count() }).from(outboxMessages).where(and(...where)).get()?.n ?? 0;
+    const after = decodeCursor(q.cursor, idCursor);
+    if (after) where.push(lt(outboxMessages.id, after.id));
+    const rows = db.select().from(outboxMessages).where(and(...where)).orderBy(desc(outboxMessages.id)).limit(q.limit + 1).all();
+    const cut = cutPage(rows, q.limit, total, (m) => ({ id: m.id }));
+    res.json({ messages: cut.rows.map((m) => present(m, false)), page: cut.page });
   });
 
   r.get('/outbox/:messageId', validate({ params: idParams('messageId') }), (req, res) => {

@@ -4,6 +4,7 @@ import type { Db } from '../../db/client.js';
 import { allow } from '../../auth/passport.js';
 import { idParams, validate } from '../../middleware/validate.js';
 import { projectAudit } from '../audit/auditService.js';
+import { pageQuery } from '../pagination.js';
 import { projectCreateBody, projectListQuery, projectUpdateBody } from './projectModel.js';
 import { createProject, findProject, getProject, listProjects, updateProject } from './projectService.js';
 
@@ -27,9 +28,9 @@ export function projectRouter(db: Db): Router {
     res.json({ project: updateProject(db, req.user!, res.locals.params.projectId, res.locals.body) });
   });
 
-  r.get('/:projectId/audit', allow('audit:read'), projectId, (req, res) => {
+  r.get('/:projectId/audit', allow('audit:read'), validate({ params: idParams('projectId'), query: pageQuery }), (req, res) => {
     findProject(db, req.user!.firmId, res.locals.params.projectId);
-    res.json({ entries: projectAudit(db, req.user!.firmId, res.locals.params.projectId) });
+    res.json(projectAudit(db, req.user!.firmId, res.locals.params.projectId, res.locals.query));
   });
 
   return r;

@@ -17,7 +17,7 @@ import { DeckInputError } from '../../../shared/deck/schema.js';
 import { GrillageMechanismError } from '../../../shared/grillage/errors.js';
 import { computeRefinedFactors } from '../../../shared/grillage/refinedFactors.js';
 import { SOLVER_VERSION } from '../../../shared/version.js';
-import { analysisResults } from '../../db/schema.js';
+import { insertResultOnce } from '../../storage/storedResults.js';
 
 export interface RefinedFactor {
   /** Girder number, 1 = left exterior. */
@@ -60,12 +60,8 @@ function computeAndStore(db: Db, v: DeckVersionRow): unknown {
     if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
     data = { error: e.message };
   }
-  try {
-    db.insert(analysisResults).values({ versionId: v.id, method: 'grillage', solverVersion: SOLVER_VERSION, dataJson: JSON.stringify(data) }).run();
-  } catch (e) {
-    // Another request stored it first (unique version + method + solver version): keep theirs.
-    if (!String((e as Error).message).includes('UNIQUE')) throw e;
-  }
+  // When another request stored it first (same version, method and solver version), theirs is kept.
+  insertResultOnce(db, { versionId: v.id, method: 'grillage', solverVersion: SOLVER_VERSION, data });
   return data;
 }
 

@@ -1,6 +1,7 @@
 /** Request schemas for review rounds. Strings are trimmed; unknown fields are refused. */
 import { z } from 'zod';
 import { personText } from '../../../shared/text.js';
+import { pageFields } from '../pagination.js';
 import { REVIEW_STATES } from '../../db/schema.js';
 
 /** Effects and methods a comment may be anchored to (the factor table's own names). */
@@ -56,10 +57,12 @@ export const listQuery = z.strictObject({
   view: z.enum(['assigned', 'submitted', 'all'], { error: 'view must be assigned, submitted or all' }).default('all'),
   state: z.enum(REVIEW_STATES, { error: `state must be one of ${REVIEW_STATES.join(', ')}` }).optional(),
   deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id').optional(),
+  ...pageFields,
 });
 
 export const statusQuery = z.strictObject({
   deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id'),
+  ...pageFields,
 });
 
 export type SubmitBody = z.infer<typeof submitBody>;

@@ -27,13 +27,13 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer): Router {
   const reviewId = validate({ params: idParams('reviewId') });
 
   r.get('/', allow('review:read'), validate({ query: listQuery }), (req, res) => {
-    res.json({ reviews: listReviews(db, req.user!, res.locals.query) });
+    res.json(listReviews(db, req.user!, res.locals.query));
   });
   r.get('/reviewers', allow('review:submit'), (req, res) => {
     res.json({ reviewers: listReviewers(db, req.user!) });
   });
   r.get('/status', allow('review:read'), validate({ query: statusQuery }), (req, res) => {
-    res.json(deckReviewStatus(db, req.user!.firmId, res.locals.query.deckId));
+    res.json(deckReviewStatus(db, req.user!.firmId, res.locals.query.deckId, res.locals.query));
   });
   r.post('/', allow('review:submit'), validate({ body: submitBody }), (req, res) => {
     res.status(201).json({ review: submitForReview(deps, req.user!, res.locals.body) });

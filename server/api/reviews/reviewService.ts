@@ -25,7 +25,7 @@
  * Every state change is audited in the same transaction and the people concerned are e-mailed
  * after it commits.
  */
-import { and, asc, desc, eq, inArray, ne, or, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, lt, ne, or, type SQL } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
 import {
   decks,
@@ -43,7 +43,8 @@ import {
 import { mayPerform } from '../../auth/permissions.js';
 import { ApiError } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
-import { findDeck } from '../decks/deckService.js';
+import { findDeck, listVersions } from '../decks/deckService.js';
+import { cutPage, decodeCursor, DEFAULT_PAGE, updatedCursor, type Page, type PageRequest } from '../pagination.js';
 import type { Mailer } from '../../mail/mailer.js';
 import { reviewRequestedMessage, versionApprovedMessage, versionSentBackMessage, type VersionRef } from '../../mail/messages.js';
 import { girderCountOf } from './versionResults.js';
@@ -230,7 +231,8 @@ function presentEarlier(db: Db, p: ReviewRoundRow) {
   };
 }
 
-export function listReviews(db: Db, actor: Actor, q: ListQuery): ReviewView[] {
+/** A page of review rounds, most recently changed first (server/api/pagination.ts). */
+export function listReviews(db: Db, actor: Actor, q: ListQuery): { reviews: ReviewView[]; page: Page } {
   const where: SQL[] = [eq(reviewRounds.firmId, actor.firmId)];
   if (q.view === 'assigned') where.push(eq(reviewRounds.reviewerId, actor.id));
   if (q.view === 'submitted') where.push(eq(reviewRounds.submittedBy, actor.id));
@@ -239,27 +241,41 @@ export function listReviews(db: Db, actor: Actor, q: ListQuery): ReviewView[] {
     findDeck(db, actor.firmId, q.deckId);
     where.push(eq(reviewRounds.deckId, q.deckId));
   }
-  return db
+  const total = db.select({ n: count() }).from(reviewRounds).where(and(...where)).get()?.n ?? 0;
+  const after = decodeCursor(q.cursor, updatedCursor);
+  if (after) {
+    where.push(or(lt(reviewRounds.updatedAt, after.updatedAt), and(eq(reviewRounds.updatedAt, after.updatedAt), lt(reviewRounds.id, after.id)))!);
+  }
+  const rows = db
     .select()
     .from(reviewRounds)
     .where(and(...where))
     .orderBy(desc(reviewRounds.updatedAt), desc(reviewRounds.id))
-    .all()
-    .map((r) => presentRound(db, actor, r));
+    .limit(q.limit + 1)
+    .all();
+  const cut = cutPage(rows, q.limit, total, (r) => ({ updatedAt: r.updatedAt, id: r.id }));
+  return { reviews: cut.rows.map((r) => presentRound(db, actor, r)), page: cut.page };
 }
 
-/** The review state of every version of a deck (newest first). */
-export function deckReviewStatus(db: Db, firmId: number, deckId: number) {
-  findDeck(db, firmId, deckId);
-  const versions = db.select().from(deckVersions).where(eq(deckVersions.deckId, deckId)).orderBy(desc(deckVersions.number)).all();
-  const rounds = db.select().from(reviewRounds).where(eq(reviewRounds.deckId, deckId)).orderBy(desc(reviewRounds.id)).all();
+/** The review state of a page of a deck's versions (newest first), and its latest approved version. */
+export function deckReviewStatus(db: Db, firmId: number, deckId: number, req: PageRequest = { limit: DEFAULT_PAGE }) {
+  const { versions, page } = listVersions(db, firmId, deckId, req);
+  const ids = versions.map((v) => v.id);
+  const rounds = ids.length ? db.select().from(reviewRounds).where(and(eq(reviewRounds.deckId, deckId), inArray(reviewRounds.versionId, ids))).orderBy(desc(reviewRounds.id)).all() : [];
   const out = versions.map((v) => {
     const latest = rounds.find((r) => r.versionId === v.id);
     const state: VersionReviewState = !latest || latest.state === 'withdrawn' ? 'in-progress' : latest.state;
     return { versionId: v.id, number: v.number, state, stateLabel: STATE_WORDS[state], roundId: latest?.id ?? null };
   });
-  const approved = out.find((v) => v.state === 'approved');
-  return { deckId, versions: out, latestApprovedNumber: approved?.number ?? null };
+  const approved = db
+    .select({ number: deckVersions.number })
+    .from(reviewRounds)
+    .innerJoin(deckVersions, eq(deckVersions.id, reviewRounds.versionId))
+    .where(and(eq(reviewRounds.deckId, deckId), eq(reviewRounds.state, 'approved')))
+    .orderBy(desc(deckVersions.number))
+    .limit(1)
+    .get();
+  return { deckId, versions: out, page, latestApprovedNumber: approved?.number ?? null };
 }
 
 /** Users of the firm who may be chosen as reviewer (not the caller, not disabled). */

@@ -5,9 +5,9 @@
  * results is the deck service's job). Versions and results are immutable, so both paths give
  * the same numbers for a given solver version.
  */
-import { and, desc, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
-import { analysisResults, type DeckVersionRow } from '../../db/schema.js';
+import type { DeckVersionRow } from '../../db/schema.js';
+import { newestResult } from '../../storage/storedResults.js';
 import { assertDeck, type Deck } from '../../../shared/deck/schema.js';
 import { girderOffsets } from '../../../shared/deck/geometry.js';
 import { computeCodeFactors, type CodeFactorResult, type FactorRow } from '../../../shared/lrfd/index.js';
@@ -23,13 +23,7 @@ export function girderCountOf(v: Pick<DeckVersionRow, 'deckJson'>): number {
 
 /** The newest stored result of a method for a version, with its solver version, or null. */
 export function storedResult(db: Db, versionId: number, method: string): { data: unknown; solverVersion: string } | null {
-  const row = db
-    .select()
-    .from(analysisResults)
-    .where(and(eq(analysisResults.versionId, versionId), eq(analysisResults.method, method)))
-    .orderBy(desc(analysisResults.id))
-    .get();
-  return row ? { data: JSON.parse(row.dataJson) as unknown, solverVersion: row.solverVersion } : null;
+  return newestResult(db, versionId, method);
 }
 
 function looksLikeCodeResult(d: unknown): d is CodeFactorResult {

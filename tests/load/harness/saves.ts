@@ -10,6 +10,8 @@ export interface SaveTarget {
   deckId: number;
   /** The deck JSON of the latest version, as the server stored and returns it. */
   baseDeck: Record<string, unknown>;
+  /** That version's number: versions are numbered 1, 2, … and never deleted. */
+  latestNumber: number;
 }
 
 /** One acknowledged save: what was sent (by its sequence number) and what the server said. */
@@ -37,7 +39,7 @@ export async function findSaveTarget(baseUrl: string, session: Session): Promise
     const d = decks.body.decks?.[0];
     if (!d) continue;
     const v = await getJson<VersionBody>(baseUrl, session, `/api/decks/${d.id}/versions/${d.latestVersion.number}`);
-    return { deckId: d.id, baseDeck: v.body.version.deck as Record<string, unknown> };
+    return { deckId: d.id, baseDeck: v.body.version.deck as Record<string, unknown>, latestNumber: d.latestVersion.number };
   }
   throw new Error('no demo deck found: is the demo firm seeded?');
 }
