@@ -2,10 +2,10 @@
  * The Express application factory. Tests import `createApp` with their own database and
  * configuration; `server/index.ts` only listens.
  *
- * Order: security headers → request log → compression → cookies → JSON body (size-limited) → /api routes
- * (health open; auth; everything else behind authentication, CSRF and the temporary-password
- * check, each route declaring its permitted roles) → API 404 → built client with SPA
- * fallback → one error handler. The client's hashed assets are cached for a year (their names
+ * Order: security headers → request log → sign-in limit per client address → compression →
+ * cookies → JSON body (size-limited) → /api routes (health open; auth; everything else behind
+ * authentication, CSRF and the temporary-password check, each route declaring its permitted
+ * roles) → API 404 → built client with SPA fallback → one error handler. The client's hashed assets are cached for a year (their names
  * change with their content); index.html is revalidated on every load.
  */
 import express, { type Express } from 'express';
@@ -18,7 +18,7 @@ import { sql } from 'drizzle-orm';
 import type { Config } from './config/env.js';
 import type { Db } from './db/client.js';
 import { authenticate, configurePassport, requireCsrf, requirePasswordChanged } from './auth/passport.js';
-import { authRouter } from './auth/authRouter.js';
+import { addressLimiter, authRouter } from './auth/authRouter.js';
 import { projectRouter } from './api/projects/projectRouter.js';
 import { deckRouter, projectDecksRouter } from './api/decks/deckRouter.js';
 import { userRouter } from './api/users/userRouter.js';
@@ -44,22 +44,29 @@ export interface AppDeps {
   attachmentsDir?: string;
 }
 
+/** Helmet's headers; HSTS and upgrade-insecure-requests only when served over HTTPS. */
+function securityHeaders(config: Config) {
+  const https = config.secureCookies;
+  return helmet({
+    strictTransportSecurity: https,
+    contentSecurityPolicy: {
+      directives: {
+        'script-src': ["'self'"],
+        'worker-src': ["'self'", 'blob:'],
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'upgrade-insecure-requests': https ? [] : null,
+      },
+    },
+  });
+}
+
 export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir }: AppDeps): Express {
   const app = express();
   const filesDir = attachmentsDir ?? defaultAttachmentsDir(config.databaseUrl);
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        directives: {
-          'script-src': ["'self'"],
-          'worker-src': ["'self'", 'blob:'],
-          'img-src': ["'self'", 'data:', 'blob:'],
-        },
-      },
-    }),
-  );
+  // Off unless TRUST_PROXY names the proxy: a client cannot pick its own address (rate limits).
+  app.set('trust proxy', config.trustProxy);
+  app.use(securityHeaders(config));
   if (config.logRequests) {
     app.use((req, res, next) => {
       const t0 = process.hrtime.bigint();
@@ -70,6 +77,8 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
       next();
     });
   }
+  // Before compression and body parsing: a client over its sign-in limit costs as little as possible.
+  app.post('/api/auth/login', addressLimiter(config));
   app.use(compression());
   app.use(cookieParser());
   app.use('/api', express.json({ limit: config.jsonLimit }));

@@ -1,17 +1,19 @@
-/** Starts the server: reads the environment, opens (and migrates) the database, prepares an
- *  empty one as configured (server/db/bootstrap.ts: the demo firm only with `--demo` or
- *  SEED_DEMO=true outside production, or a first administrator), starts periodic backups when
- *  configured, listens, and shuts down cleanly on SIGINT/SIGTERM (waiting for a backup in
- *  progress). */
+/** Starts the server: reads the environment, sizes the password-hashing pool, opens (and
+ *  migrates) the database, prepares an empty one as configured (server/db/bootstrap.ts: the
+ *  demo firm only with `--demo` or SEED_DEMO=true outside production, or a first
+ *  administrator), starts periodic backups when configured, listens, and shuts down cleanly
+ *  on SIGINT/SIGTERM (connections, a backup in progress, mail, hashing threads, database). */
 import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
 import { bootstrapDatabase } from './db/bootstrap.js';
 import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
+import { closePasswordHashing, configurePasswordHashing } from './auth/password.js';
 import { startPeriodicBackup } from './backup/periodic.js';
 
 async function main() {
   const config = loadConfig();
+  await configurePasswordHashing({ threads: config.passwordHashThreads, queue: config.passwordHashQueue });
   const db = openDatabase(config.databaseUrl);
   await bootstrapDatabase(db, config, (line) => console.log(line), process.argv.includes('--demo'));
   const mail = await startMail(db, process.env, (line) => console.log(line));
@@ -31,12 +33,12 @@ async function main() {
     if (stopping) return;
     stopping = true;
     console.log(`${signal}: closing connections…`);
-    server.close(async () => {
-      await backups?.stop();
-      void mail.close().catch(() => {});
-      db.$client.close();
-      console.log('Deckshare stopped.');
-      process.exit(0);
+    server.close(() => {
+      void Promise.allSettled([backups?.stop(), mail.close(), closePasswordHashing()]).then(() => {
+        db.$client.close();
+        console.log('Deckshare stopped.');
+        process.exit(0);
+      });
     });
     server.closeAllConnections();
     setTimeout(() => process.exit(1), 5000).unref();

@@ -1,6 +1,6 @@
 /** Sign-in, sign-out, the current user and password change. */
-import { Router } from 'express';
-import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
+import { Router, type Request, type Response } from 'express';
+import rateLimit, { ipKeyGenerator, type RateLimitRequestHandler } from 'express-rate-limit';
 import type passport from 'passport';
 import { and, eq, ne } from 'drizzle-orm';
 import { z } from 'zod';
@@ -24,26 +24,48 @@ const passwordBody = z.strictObject({
   newPassword: newPasswordSchema,
 });
 
-// A hash to compare against when the e-mail is unknown, so both paths take the same time.
-const DUMMY_HASH = '$2b$10$CwTycUXWue0Thq9StjUM0uJ8.Wc0u7mjRjCqQ5o0r2e5f3y6hE4Qy';
+const SIGN_IN_WINDOW_MS = 15 * 60_000;
+
+/**
+ * A limit on failed sign-ins in the window (successful ones are given back). Over the limit:
+ * 429 in the error envelope, with Retry-After and the RateLimit headers.
+ */
+function signInLimiter(name: string, limit: number, key: (req: Request, res: Response) => string, message: string): RateLimitRequestHandler {
+  return rateLimit({
+    windowMs: SIGN_IN_WINDOW_MS,
+    limit,
+    identifier: name,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    skipSuccessfulRequests: true,
+    keyGenerator: key,
+    handler: (_req, _res, next) => next(new ApiError(429, 'too_many_requests', `${message}: wait 15 minutes and try again`)),
+  });
+}
+
+/**
+ * Per client address, whatever the e-mail: stops one client trying many accounts. Mounted by
+ * createApp ahead of body parsing (server/app.ts), so a flood from one address stays cheap.
+ */
+export function addressLimiter(config: Config) {
+  return signInLimiter('sign-in-address', config.loginAttemptsPerAddressPer15Min, (req) => ipKeyGenerator(req.ip ?? ''), 'too many failed sign-ins from this address');
+}
+
+/** Per account, whatever the client address: stops many clients guessing one password. */
+function accountLimiter(config: Config) {
+  return signInLimiter('sign-in-account', config.loginAttemptsPer15Min, (_req, res) => (res.locals.body as z.infer<typeof loginBody>).email, 'too many failed sign-ins for this account');
+}
 
 export function authRouter(db: Db, config: Config, pp: passport.PassportStatic): Router {
   const r = Router();
-  const limiter = rateLimit({
-    windowMs: 15 * 60_000,
-    limit: config.loginAttemptsPer15Min,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').trim().toLowerCase()}`,
-    handler: (_req, _res, next) =>
-      next(new ApiError(429, 'too_many_requests', 'too many sign-in attempts: wait 15 minutes and try again')),
-  });
 
-  // who: anyone (not signed in)
-  r.post('/login', limiter, validate({ body: loginBody }), async (_req, res) => {
+  // who: anyone (not signed in). The per-address limit has already run (server/app.ts); the
+  // per-account one needs the validated e-mail.
+  r.post('/login', validate({ body: loginBody }), accountLimiter(config), async (_req, res) => {
     const { email, password } = res.locals.body as z.infer<typeof loginBody>;
     const row = db.select().from(users).where(eq(users.email, email)).get();
-    const ok = await verifyPassword(password, row?.passwordHash ?? DUMMY_HASH);
+    // Unknown e-mail: compared against a dummy hash, so it takes as long as a wrong password.
+    const ok = await verifyPassword(password, row?.passwordHash);
     if (!row || !ok || row.disabled) throw ApiError.unauthenticated('e-mail or password is wrong, or the account is disabled');
     const user = loadUser(db, row.id);
     if (!user) throw ApiError.unauthenticated('e-mail or password is wrong, or the account is disabled');

@@ -3,11 +3,53 @@
  * Tests build a `Config` directly (see `loadConfig(overrides)`).
  */
 import { randomBytes } from 'node:crypto';
+import { isIP } from 'node:net';
+import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 
 /** Default storage quota per firm: 2 GB of deck versions and results (FIRM_STORAGE_QUOTA_MB). */
 export const DEFAULT_FIRM_STORAGE_QUOTA_MB = 2048;
 export const DEFAULT_FIRM_STORAGE_QUOTA_BYTES = DEFAULT_FIRM_STORAGE_QUOTA_MB * 1024 * 1024;
+
+/** Password hashes computed at once: half the cores, at least one (one on a 2-core machine). */
+export function defaultPasswordHashThreads(): number {
+  return Math.max(1, Math.floor(availableParallelism() / 2));
+}
+export const DEFAULT_PASSWORD_HASH_QUEUE = 16;
+
+/** Express's `trust proxy`: off, a hop count, or the proxies' addresses / CIDR ranges. */
+export type TrustProxy = false | number | string[];
+
+const PROXY_NAMES = new Set(['loopback', 'linklocal', 'uniquelocal']);
+
+function isProxyAddress(entry: string): boolean {
+  if (PROXY_NAMES.has(entry)) return true;
+  const [address, prefix, ...rest] = entry.split('/');
+  const family = isIP(address);
+  if (family === 0 || rest.length > 0) return false;
+  if (prefix === undefined) return true;
+  const bits = Number(prefix);
+  return /^\d{1,3}$/.test(prefix) && bits <= (family === 4 ? 32 : 128);
+}
+
+const trustProxySchema = z
+  .string()
+  .trim()
+  .optional()
+  .transform((raw, ctx): TrustProxy => {
+    if (raw === undefined || raw === '' || raw === 'false') return false;
+    if (/^\d+$/.test(raw)) return Number(raw) === 0 ? false : Number(raw);
+    const entries = raw.split(',').map((e) => e.trim());
+    const bad = entries.filter((e) => !isProxyAddress(e));
+    if (raw === 'true' || bad.length > 0) {
+      ctx.addIssue({
+        code: 'custom',
+        message: `must be a hop count or a comma-separated list of proxy addresses, CIDR ranges, loopback, linklocal or uniquelocal (not ${raw === 'true' ? '"true", which would trust every client' : bad.map((b) => `"${b}"`).join(', ')})`,
+      });
+      return z.NEVER;
+    }
+    return entries;
+  });
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -18,8 +60,16 @@ const envSchema = z.object({
   JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters').optional(),
   /** Session lifetime in minutes. */
   SESSION_MINUTES: z.coerce.number().int().min(1).max(7 * 24 * 60).default(480),
-  /** Sign-in attempts allowed per e-mail address and client address in 15 minutes. */
+  /** Failed sign-ins allowed per account (e-mail address, from any client) in 15 minutes. */
   LOGIN_ATTEMPTS_PER_15_MIN: z.coerce.number().int().min(1).max(10000).default(10),
+  /** Failed sign-ins allowed per client address (whatever the e-mail) in 15 minutes. */
+  LOGIN_ATTEMPTS_PER_ADDRESS_PER_15_MIN: z.coerce.number().int().min(1).max(100000).default(50),
+  /** Reverse proxies whose X-Forwarded-For is believed; off unless set. */
+  TRUST_PROXY: trustProxySchema,
+  /** Worker threads that compute password hashes. */
+  PASSWORD_HASH_THREADS: z.coerce.number().int().min(1).max(64).default(defaultPasswordHashThreads),
+  /** Password hashes allowed to wait for a thread; more are answered 503. */
+  PASSWORD_HASH_QUEUE: z.coerce.number().int().min(0).max(10000).default(DEFAULT_PASSWORD_HASH_QUEUE),
   /** Largest JSON body accepted. */
   JSON_LIMIT: z.string().default('512kb'),
   /** Seed the invented demo firm when the database is empty: "true" or "false" (never in production). */
@@ -55,6 +105,11 @@ export interface Config {
   jwtSecret: string;
   sessionMinutes: number;
   loginAttemptsPer15Min: number;
+  loginAttemptsPerAddressPer15Min: number;
+  /** Express's `trust proxy`; false: X-Forwarded-For is ignored, the socket's address counts. */
+  trustProxy: TrustProxy;
+  passwordHashThreads: number;
+  passwordHashQueue: number;
   jsonLimit: string;
   seedDemo: boolean;
   /** Password of the demo users when seeding; undefined: a random one. */
@@ -64,7 +119,7 @@ export interface Config {
   logRequests: boolean;
   clientDist: string;
   publicUrl: string;
-  /** Cookies marked Secure (production, behind HTTPS). */
+  /** Served over HTTPS (production): cookies marked Secure, HSTS and upgrade-insecure-requests sent. */
   secureCookies: boolean;
   /** Periodic backups (server/backup/periodic.ts); null when BACKUP_DIR is unset. */
   backup: { dir: string; everyMinutes: number; keep: number } | null;
@@ -97,6 +152,10 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     jwtSecret: e.JWT_SECRET ?? randomBytes(32).toString('hex'),
     sessionMinutes: e.SESSION_MINUTES,
     loginAttemptsPer15Min: e.LOGIN_ATTEMPTS_PER_15_MIN,
+    loginAttemptsPerAddressPer15Min: e.LOGIN_ATTEMPTS_PER_ADDRESS_PER_15_MIN,
+    trustProxy: e.TRUST_PROXY,
+    passwordHashThreads: e.PASSWORD_HASH_THREADS,
+    passwordHashQueue: e.PASSWORD_HASH_QUEUE,
     jsonLimit: e.JSON_LIMIT,
     seedDemo: e.SEED_DEMO === 'true',
     demoPassword: e.DEMO_PASSWORD,

@@ -14,6 +14,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly details?: ErrorDetail[],
+    /** Response headers to send with the error (e.g. Retry-After). */
+    readonly headers?: Record<string, string>,
   ) {
     super(message);
     this.name = 'ApiError';
@@ -52,6 +54,7 @@ export function errorHandler(log: (msg: string) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) return;
     if (err instanceof ApiError) {
+      if (err.headers) res.set(err.headers);
       res.status(err.status).json({ error: { code: err.code, message: err.message, details: err.details ?? [] } });
       return;
     }

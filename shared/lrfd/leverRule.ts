@@ -44,7 +44,10 @@ export interface LeverRuleCase {
   loadedLanes: number;
   /** Multiple presence factor applied. */
   multiplePresence: number;
+  /** The trucks that load the girder (a wheel with a non-zero ordinate), left to right. */
   trucks: LeverRuleTruck[];
+  /** Loaded lanes whose trucks stand beyond the hinges (every ordinate 0): counted in m, not drawn. */
+  trucksBeyondHinges: number;
   /** Σ ordinates of all wheels. */
   sumOrdinates: number;
   /** Reaction in lanes before multiple presence: Σ ordinates / 2. */
@@ -218,7 +221,10 @@ export function leverRule(
     const sumOrdinates = trucks.reduce((s, t) => s + t.wheels[0].ordinate + t.wheels[1].ordinate, 0);
     const m = k === 1 && options.oneLaneFactor !== undefined ? options.oneLaneFactor : multiplePresenceFactor(k);
     const reaction = sumOrdinates / 2;
-    cases.push({ loadedLanes: k, multiplePresence: m, trucks, sumOrdinates, reaction, value: m * reaction });
+    // Trucks beyond the hinges add nothing to this girder: kept out of the worksheet and the
+    // trace (on a wide deck they are most of the trucks), and counted.
+    const loading = trucks.filter((t) => t.wheels.some((w) => w.ordinate !== 0));
+    cases.push({ loadedLanes: k, multiplePresence: m, trucks: loading, trucksBeyondHinges: trucks.length - loading.length, sumOrdinates, reaction, value: m * reaction });
   }
   if (cases.length === 0) {
     throw new DeckInputError(['barrierRight', 'width'], 'no design lane fits between the barrier faces, so the lever rule cannot place a truck (Art. 3.6.1.1.1)');
@@ -260,7 +266,9 @@ export function leverRule(
     value: cs.value,
     kind: 'none',
     article: 'AASHTO LRFD Art. 4.6.2.2.1 (lever rule), Art. 3.6.1.3.1 (wheel placement), Table 3.6.1.1.2-1',
-    note: `hinged at ${hingeText}; reaction ${cs.reaction.toFixed(4)} lanes before m`,
+    note: `hinged at ${hingeText}; reaction ${cs.reaction.toFixed(4)} lanes before m${
+      cs.trucksBeyondHinges ? `; ${cs.trucksBeyondHinges} more loaded lane${cs.trucksBeyondHinges > 1 ? 's stand' : ' stands'} beyond the hinges (ordinates 0)` : ''
+    }`,
   }));
   const g = cases[governingCase];
   return { value: g.value, loadedLanes: g.loadedLanes, worksheet, trace };

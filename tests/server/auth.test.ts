@@ -143,7 +143,7 @@ describe('temporary passwords', () => {
 });
 
 describe('rate limiting', () => {
-  it('answers 429 after too many sign-in attempts for one address', async () => {
+  it('answers 429 after too many failed sign-ins for one account', async () => {
     const local = await makeTestApp({ loginAttemptsPer15Min: 3 });
     try {
       const attempt = () => request(local.app).post('/api/auth/login').send({ email: demo.trainee, password: 'wrong-password' });

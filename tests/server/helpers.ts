@@ -12,6 +12,7 @@ import { seedDemo } from '../../server/db/seed.js';
 /** The demo users' password in tests (the server itself picks a random one unless DEMO_PASSWORD is set). */
 export const DEMO_PASSWORD = 'deckshare-demo-1';
 import { createApp } from '../../server/app.js';
+import { closePasswordHashing } from '../../server/auth/password.js';
 
 export interface TestContext {
   app: Express;
@@ -35,6 +36,8 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
     close() {
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
+      // Worker threads stop; the next hash in this file starts them again.
+      void closePasswordHashing().catch(() => {});
     },
   };
 }
