@@ -66,7 +66,7 @@ function startWriters(server: RunningServer, session: Session, target: SaveTarge
       const n = next.n++;
       try {
         const res = await fetch(`${server.url}/api/decks/${target.deckId}/versions`, { method: 'POST', headers: session.headers, body: JSON.stringify(saveBody(target, n, run)) });
-        const ack = ackFrom(n, res.status, await res.text());
+        const ack = ackFrom(n, target.deckId, res.status, await res.text());
         if (!ack) throw new Error(`save ${n} answered ${res.status}`);
         w.acks.push(ack);
       } catch {
@@ -99,7 +99,7 @@ async function crashRound(round: number, server: RunningServer, dbPath: string, 
   const t0 = Date.now();
   const restarted = await startServer(dbPath);
   const restartMs = Date.now() - t0;
-  const back = await readBack(restarted.url, await signIn(restarted.url, DEMO.designer), target, run, writers.acks);
+  const back = await readBack(restarted.url, await signIn(restarted.url, DEMO.designer), [target], run, writers.acks);
   return { figures: { round, killAfterMs, acknowledged: writers.acks.length, unanswered: writers.unanswered, integrityAfterKill, restartMs, readBack: back }, server: restarted };
 }
 

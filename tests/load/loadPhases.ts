@@ -1,8 +1,9 @@
 /**
  * The load phases, driven by autocannon against a running server:
  * - reads: signed-in clients listing the firm's projects (GET /api/projects);
- * - saves: signed-in clients saving new versions of one demo deck, every acknowledged save
- *   recorded (201 + version id and number) for the read-back.
+ * - saves: signed-in clients saving new versions of the demo decks (in turn: a one-span and a
+ *   three-span continuous deck), every acknowledged save recorded (201 + version id and
+ *   number) for the read-back.
  * Requests are spread over the given sessions (a session may be used concurrently: a JWT
  * naming one server-side session row, nothing per request is stored in it).
  */
@@ -54,7 +55,7 @@ export interface SavePhaseResult {
   acks: Ack[];
 }
 
-export async function savePhase(s: LoadSettings, target: SaveTarget, run: string): Promise<SavePhaseResult> {
+export async function savePhase(s: LoadSettings, targets: SaveTarget[], run: string): Promise<SavePhaseResult> {
   let next = 0;
   const acks: Ack[] = [];
   const result = await autocannon({
@@ -64,18 +65,19 @@ export async function savePhase(s: LoadSettings, target: SaveTarget, run: string
     requests: [
       {
         method: 'POST',
-        path: `/api/decks/${target.deckId}/versions`,
         setupRequest: (req, context) => {
           const n = next++;
-          (context as { n?: number }).n = n;
-          return { ...req, headers: sessionFor(s.sessions, n), body: JSON.stringify(saveBody(target, n, run)) };
+          const target = targets[n % targets.length];
+          Object.assign(context, { n, deckId: target.deckId });
+          return { ...req, path: `/api/decks/${target.deckId}/versions`, headers: sessionFor(s.sessions, n), body: JSON.stringify(saveBody(target, n, run)) };
         },
         onResponse: (status, body, context) => {
-          const ack = ackFrom((context as { n: number }).n, status, body);
+          const { n, deckId } = context as { n: number; deckId: number };
+          const ack = ackFrom(n, deckId, status, body);
           if (ack) acks.push(ack);
         },
       },
     ],
   });
-  return { figures: figures(`saves: POST /api/decks/${target.deckId}/versions`, result), acks };
+  return { figures: figures(`saves: POST /api/decks/{${targets.map((t) => t.deckId).join(',')}}/versions`, result), acks };
 }

@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startServer } from './harness/server.js';
 import { DEMO, signIn } from './harness/client.js';
-import { findSaveTarget, readBack, type ReadBack } from './harness/saves.js';
+import { findSaveTargets, readBack, type ReadBack } from './harness/saves.js';
 import { checkDatabase, megabytes, versionsOfDeck, type DatabaseCheck } from './harness/database.js';
 import { printPhaseTable, type Print } from './harness/report.js';
 import { readPhase, savePhase, type PhaseFigures } from './loadPhases.js';
@@ -42,24 +42,24 @@ export async function runSoak(options: SoakOptions, print: Print = console.log):
     const server = await startServer(dbPath);
     let phases: PhaseFigures[];
     let saves: ReadBack;
-    let deckId: number;
+    let deckIds: number[];
     let versionsBefore: number;
     try {
       const sessions = await Promise.all([DEMO.designer, DEMO.admin, DEMO.instructor].map((e) => signIn(server.url, e)));
       const settings = { url: server.url, sessions, seconds: options.seconds, connections: options.connections };
       const reads = await readPhase(settings);
-      const target = await findSaveTarget(server.url, sessions[0]);
-      deckId = target.deckId;
-      versionsBefore = target.latestNumber;
+      const targets = await findSaveTargets(server.url, sessions[0]);
+      deckIds = targets.map((t) => t.deckId);
+      versionsBefore = targets.reduce((sum, t) => sum + t.latestNumber, 0);
       const run = `r${Date.now().toString(36)}`;
-      const written = await savePhase(settings, target, run);
-      saves = await readBack(server.url, sessions[0], target, run, written.acks);
+      const written = await savePhase(settings, targets, run);
+      saves = await readBack(server.url, sessions[0], targets, run, written.acks);
       phases = [reads, written.figures];
     } finally {
       await server.stop();
     }
     const database = checkDatabase(dbPath);
-    const unacknowledgedStored = versionsOfDeck(dbPath, deckId) - versionsBefore - saves.acknowledged;
+    const unacknowledgedStored = deckIds.reduce((sum, id) => sum + versionsOfDeck(dbPath, id), 0) - versionsBefore - saves.acknowledged;
     const result = { phases, saves, unacknowledgedStored, database, ok: isCorrect(phases, saves, database) };
     printSoak(print, result);
     if (options.signInFlood) {
