@@ -33,6 +33,7 @@ import { reviewRouter } from './api/reviews/reviewRouter.js';
 import { trainingRouter } from './api/training/trainingRouter.js';
 import { importRouter } from './api/imports/importRouter.js';
 import { reportRouter } from './reports/reportRouter.js';
+import { refinedPoolFor, type RefinedPool } from './compute/refinedPool.js';
 
 export interface AppDeps {
   db: Db;
@@ -42,6 +43,8 @@ export interface AppDeps {
   mailer?: Mailer;
   /** Folder for uploaded drawings (default: "attachments" beside the database file). */
   attachmentsDir?: string;
+  /** Worker pool of the refined (grillage) analyses (server/compute); the caller closes it. Without one, the app makes its own from `config` (`app.locals.refinedPool`). */
+  refinedPool?: RefinedPool;
 }
 
 /** Helmet's headers; HSTS and upgrade-insecure-requests only when served over HTTPS. */
@@ -60,8 +63,10 @@ function securityHeaders(config: Config) {
   });
 }
 
-export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir }: AppDeps): Express {
+export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir, refinedPool }: AppDeps): Express {
   const app = express();
+  const pool = refinedPool ?? refinedPoolFor(config);
+  app.locals.refinedPool = pool;
   const filesDir = attachmentsDir ?? defaultAttachmentsDir(config.databaseUrl);
   app.disable('x-powered-by');
   // Off unless TRUST_PROXY names the proxy: a client cannot pick its own address (rate limits).
@@ -78,7 +83,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
     });
   }
   // Before compression and body parsing: a client over its sign-in limit costs as little as possible.
-  app.post('/api/auth/login', addressLimiter(config));
+  app.post('/api/auth/login', addressLimiter(db, config));
   app.use(compression());
   app.use(cookieParser());
   app.use('/api', express.json({ limit: config.jsonLimit }));
@@ -101,10 +106,10 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/mail', mailRouter(db));
   api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));
   api.use('/attachments', attachmentRouter(db, filesDir));
-  api.use('/reviews', reviewRouter(db, config, mailer));
+  api.use('/reviews', reviewRouter(db, config, mailer, pool));
   api.use('/training', trainingRouter(db, config, mailer));
   api.use('/imports', importRouter(db, config));
-  api.use('/reports', reportRouter(db));
+  api.use('/reports', reportRouter(db, pool));
   api.use(notFoundHandler);
   app.use('/api', api);
 

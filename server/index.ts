@@ -1,14 +1,16 @@
 /** Starts the server: reads the environment, sizes the password-hashing pool, opens (and
  *  migrates) the database, prepares an empty one as configured (server/db/bootstrap.ts: the
  *  demo firm only with `--demo` or SEED_DEMO=true outside production, or a first
- *  administrator), starts periodic backups when configured, listens, and shuts down cleanly
- *  on SIGINT/SIGTERM (connections, a backup in progress, mail, hashing threads, database). */
+ *  administrator), starts the refined-analysis pool and, when configured, periodic backups,
+ *  listens, and shuts down cleanly on SIGINT/SIGTERM (connections, a backup in progress, mail,
+ *  hashing threads, refined-analysis threads, database). */
 import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
 import { bootstrapDatabase } from './db/bootstrap.js';
 import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
 import { closePasswordHashing, configurePasswordHashing } from './auth/password.js';
+import { refinedPoolFor } from './compute/refinedPool.js';
 import { startPeriodicBackup } from './backup/periodic.js';
 
 async function main() {
@@ -18,7 +20,9 @@ async function main() {
   await bootstrapDatabase(db, config, (line) => console.log(line), process.argv.includes('--demo'));
   const mail = await startMail(db, process.env, (line) => console.log(line));
   console.log(`Mail: ${mail.mailer.description}${mail.local ? ' (messages kept in the outbox, read by admins under Mail)' : ''}`);
-  const app = createApp({ db, config, mailer: mail.mailer });
+  const refinedPool = refinedPoolFor(config);
+  console.log(`Refined analyses: ${config.refinedThreads} worker thread(s), ${config.refinedJobMs / 1000} s per run, ${config.refinedQueue} waiting at most`);
+  const app = createApp({ db, config, mailer: mail.mailer, refinedPool });
   const server = app.listen(config.port, config.host, (err?: Error) => {
     if (err) {
       console.error(`Deckshare could not listen on ${config.host}:${config.port}: ${err.message}`);
@@ -34,7 +38,7 @@ async function main() {
     stopping = true;
     console.log(`${signal}: closing connections…`);
     server.close(() => {
-      void Promise.allSettled([backups?.stop(), mail.close(), closePasswordHashing()]).then(() => {
+      void Promise.allSettled([backups?.stop(), mail.close(), closePasswordHashing(), refinedPool.close()]).then(() => {
         db.$client.close();
         console.log('Deckshare stopped.');
         process.exit(0);

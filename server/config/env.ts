@@ -95,6 +95,16 @@ const envSchema = z.object({
   BACKUP_KEEP: z.coerce.number().int('BACKUP_KEEP must be a whole number').min(1).max(1000).default(7),
   /** Stored deck data (versions and their results) allowed per firm, MB. */
   FIRM_STORAGE_QUOTA_MB: z.coerce.number().int('FIRM_STORAGE_QUOTA_MB must be a whole number').min(1).max(1024 * 1024).default(DEFAULT_FIRM_STORAGE_QUOTA_MB),
+  /** Worker threads of the refined-analysis pool (default: cores − 1, at least 1). */
+  REFINED_THREADS: z.coerce.number().int('REFINED_THREADS must be a whole number').min(1).max(64).optional(),
+  /** Longest refined (grillage) run of one version, seconds. */
+  REFINED_JOB_SECONDS: z.coerce.number().positive('REFINED_JOB_SECONDS must be greater than 0').max(3600).default(60),
+  /** Refined runs that may wait for a thread beyond those running. */
+  REFINED_QUEUE: z.coerce.number().int('REFINED_QUEUE must be a whole number').min(0).max(1000).default(8),
+  /** Heap cap of each refined-analysis worker, MB. */
+  REFINED_WORKER_MEMORY_MB: z.coerce.number().int('REFINED_WORKER_MEMORY_MB must be a whole number').min(64).max(65536).default(1024),
+  /** Largest refined model accepted: mesh nodes × girder lines (server/compute/modelSize.ts). */
+  REFINED_MAX_NODE_GIRDERS: z.coerce.number().int('REFINED_MAX_NODE_GIRDERS must be a whole number').min(1000).default(100000),
 });
 
 export interface Config {
@@ -125,6 +135,12 @@ export interface Config {
   backup: { dir: string; everyMinutes: number; keep: number } | null;
   /** Stored deck data allowed per firm, bytes (FIRM_STORAGE_QUOTA_MB). */
   firmStorageQuotaBytes: number;
+  /** The refined-analysis pool (server/compute/refinedPool.ts). */
+  refinedThreads: number;
+  refinedJobMs: number;
+  refinedQueue: number;
+  refinedWorkerMemoryMb: number;
+  refinedMaxNodeGirders: number;
 }
 
 export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: Partial<Config> = {}): Config {
@@ -169,6 +185,11 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     secureCookies: e.NODE_ENV === 'production',
     backup: e.BACKUP_DIR ? { dir: e.BACKUP_DIR, everyMinutes: e.BACKUP_EVERY_MINUTES, keep: e.BACKUP_KEEP } : null,
     firmStorageQuotaBytes: e.FIRM_STORAGE_QUOTA_MB * 1024 * 1024,
+    refinedThreads: e.REFINED_THREADS ?? Math.max(1, availableParallelism() - 1),
+    refinedJobMs: e.REFINED_JOB_SECONDS * 1000,
+    refinedQueue: e.REFINED_QUEUE,
+    refinedWorkerMemoryMb: e.REFINED_WORKER_MEMORY_MB,
+    refinedMaxNodeGirders: e.REFINED_MAX_NODE_GIRDERS,
     ...overrides,
   };
 }

@@ -186,12 +186,34 @@ export const firmStorage = sqliteTable('firm_storage', {
   bytes: integer('bytes').notNull().default(0),
 });
 
+/**
+ * Refused sign-ins, one row per key and window: the first attempt a limit refuses (per client
+ * address, or per account and address) is recorded with who was tried and from where; the
+ * attempts that follow in the same window are refused without a row, so a flood cannot fill the
+ * database. `firm_id` is the firm of the account tried, when the e-mail belongs to one.
+ */
+export const signInRefusals = sqliteTable(
+  'sign_in_refusals',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    at: text('at').notNull().default(now),
+    /** Which limit refused: 'address' (many e-mails from one address) or 'account-address'. */
+    limit: text('limit_name').notNull(),
+    /** The e-mail tried, when the limit saw it. */
+    email: text('email'),
+    address: text('address').notNull(),
+    firmId: integer('firm_id').references(() => firms.id),
+  },
+  (t) => [index('sign_in_refusals_at_idx').on(t.at)],
+);
+
 export type UserRow = typeof users.$inferSelect;
 export type ProjectRow = typeof projects.$inferSelect;
 export type DeckRow = typeof decks.$inferSelect;
 export type DeckVersionRow = typeof deckVersions.$inferSelect;
 export type AnalysisResultRow = typeof analysisResults.$inferSelect;
 export type AuditRow = typeof auditLog.$inferSelect;
+export type SignInRefusalRow = typeof signInRefusals.$inferSelect;
 
 // ─── Review, mail, attachments and training (workflow tables) ─────────────────────────────
 

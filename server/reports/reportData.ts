@@ -16,6 +16,7 @@ import { codeResultsOf, deckOf } from '../api/reviews/versionResults.js';
 import { refinedSummaryOf, type RefinedSummary } from '../api/reviews/refinedSummary.js';
 import { STATE_WORDS, type VersionReviewState } from '../api/reviews/reviewService.js';
 import { girderEnvelopes, type GirderEnvelopes } from './envelopes.js';
+import type { RefinedPool } from '../compute/refinedPool.js';
 
 export interface ReportData {
   generatedAt: string;
@@ -43,7 +44,7 @@ function name(db: Db, id: number | null) {
   return db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, id)).get() ?? { name: '', email: '' };
 }
 
-export function reportData(db: Db, firmId: number, deckId: number, versionNumber: number): ReportData {
+export async function reportData(db: Db, pool: RefinedPool, firmId: number, deckId: number, versionNumber: number): Promise<ReportData> {
   const row = db
     .select({ v: deckVersions, d: decks, p: projects })
     .from(deckVersions)
@@ -58,6 +59,7 @@ export function reportData(db: Db, firmId: number, deckId: number, versionNumber
   const state: VersionReviewState = current ? current.state : 'in-progress';
   const code = codeResultsOf(db, row.v);
   const input = deckOf(row.v);
+  const refined = await refinedResultsOf(db, pool, row.v);
   return {
     generatedAt: new Date().toISOString(),
     units: row.p.units,
@@ -82,8 +84,8 @@ export function reportData(db: Db, firmId: number, deckId: number, versionNumber
     code: code.result,
     solverVersion: code.solverVersion,
     resultSource: code.source,
-    summary: refinedSummaryOf(db, row.v),
-    refinedRows: refinedResultsOf(db, row.v).rows,
+    summary: await refinedSummaryOf(db, pool, row.v, refined),
+    refinedRows: refined.rows,
     envelopes: girderEnvelopes(input, code.result),
   };
 }

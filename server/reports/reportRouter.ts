@@ -14,20 +14,21 @@ import { recordAudit } from '../api/audit/auditService.js';
 import { reportData, type ReportData } from './reportData.js';
 import { calculationPackagePdf } from './calculationPackage.js';
 import { envelopesCsv, factorsCsv } from './csvExport.js';
+import type { RefinedPool } from '../compute/refinedPool.js';
 
 function fileStem(data: ReportData): string {
   const clean = data.deck.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'deck';
   return `${clean}-v${data.version.number}`;
 }
 
-export function reportRouter(db: Db): Router {
+export function reportRouter(db: Db, pool: RefinedPool): Router {
   const r = Router();
   const params = validate({ params: versionParams });
   const audit = (req: Express.Request, data: ReportData, what: string) =>
     recordAudit(db, { firmId: req.user!.firmId, projectId: data.project.id, actorId: req.user!.id, action: 'export', entityType: 'deck', entityId: data.deck.id, summary: `exported ${what} of version ${data.version.number} of deck “${data.deck.name}”` });
 
   r.get('/decks/:deckId/versions/:number/package.pdf', allow('report:export'), params, async (req, res) => {
-    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const data = await reportData(db, pool, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
     const pdf = await calculationPackagePdf(data);
     audit(req, data, 'the calculation package (PDF)');
     res.attachment(`${fileStem(data)}-calculation-package.pdf`);
@@ -36,8 +37,8 @@ export function reportRouter(db: Db): Router {
     res.send(pdf);
   });
 
-  r.get('/decks/:deckId/versions/:number/factors.csv', allow('report:export'), params, (req, res) => {
-    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+  r.get('/decks/:deckId/versions/:number/factors.csv', allow('report:export'), params, async (req, res) => {
+    const data = await reportData(db, pool, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
     const text = factorsCsv(data);
     audit(req, data, 'the factor table (CSV)');
     res.attachment(`${fileStem(data)}-factors.csv`);
@@ -46,8 +47,8 @@ export function reportRouter(db: Db): Router {
     res.send(text);
   });
 
-  r.get('/decks/:deckId/versions/:number/envelopes.csv', allow('report:export'), params, (req, res) => {
-    const data = reportData(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+  r.get('/decks/:deckId/versions/:number/envelopes.csv', allow('report:export'), params, async (req, res) => {
+    const data = await reportData(db, pool, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
     const text = envelopesCsv(data);
     audit(req, data, 'the girder envelopes (CSV)');
     res.attachment(`${fileStem(data)}-envelopes.csv`);

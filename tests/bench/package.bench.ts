@@ -13,13 +13,16 @@ import { seedDemo } from '../../server/db/seed.js';
 import { decks, firms } from '../../server/db/schema.js';
 import { reportData, type ReportData } from '../../server/reports/reportData.js';
 import { calculationPackagePdf } from '../../server/reports/calculationPackage.js';
+import { loadConfig } from '../../server/config/env.js';
+import { refinedPoolFor } from '../../server/compute/refinedPool.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'deckshare-bench-'));
 const db = openDatabase(join(dir, 'bench.db'));
 await seedDemo(db, 'bench-demo-password-1');
 const firmId = db.select().from(firms).orderBy(asc(firms.id)).get()!.id;
 const deck = db.select().from(decks).orderBy(asc(decks.id)).get()!;
-const plain = reportData(db, firmId, deck.id, 1);
+const refinedPool = refinedPoolFor(loadConfig({}));
+const plain = await reportData(db, refinedPool, firmId, deck.id, 1);
 const wide: ReportData = {
   ...plain,
   project: { ...plain.project, name: `${plain.project.name} 橋梁 🦀` },
@@ -49,5 +52,6 @@ async function time(label: string, data: ReportData): Promise<void> {
 
 await time('demo deck (Latin names)', plain);
 await time('demo deck, CJK + emoji in names', wide);
+await refinedPool.close();
 db.$client.close();
 rmSync(dir, { recursive: true, force: true });

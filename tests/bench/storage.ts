@@ -19,6 +19,8 @@ import { demoDecks } from '../../server/db/demoDecks.js';
 import { decks, deckVersions, projects, users } from '../../server/db/schema.js';
 import { saveVersion } from '../../server/api/decks/deckService.js';
 import { refinedResultsOf } from '../../server/api/reviews/refinedResults.js';
+import { loadConfig } from '../../server/config/env.js';
+import { refinedPoolFor } from '../../server/compute/refinedPool.js';
 import { encodeResult, ResultTooLargeError } from '../../server/storage/storedResults.js';
 import { assertDeck } from '../../shared/deck/schema.js';
 import { computeCodeFactors } from '../../shared/lrfd/factors.js';
@@ -73,7 +75,9 @@ try {
 
   const t1 = performance.now();
   const versions = db.select().from(deckVersions).all();
-  for (const v of versions) refinedResultsOf(db, v);
+  const refinedPool = refinedPoolFor(loadConfig({}));
+  for (const v of versions) await refinedResultsOf(db, refinedPool, v);
+  await refinedPool.close();
   const refinedMs = (performance.now() - t1) / versions.length;
   const afterRefined = fileBytes(db);
   const resultPayloadWithRefined = payloadBytes(db, 'analysis_results');

@@ -9,7 +9,7 @@ import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startServer, type RunningServer } from './harness/server.js';
-import { DEMO, signIn, type Session } from './harness/client.js';
+import { DEMO, getJson, signIn, type Session } from './harness/client.js';
 import { ackFrom, findSaveTarget, readBack, saveBody, type Ack, type ReadBack, type SaveTarget } from './harness/saves.js';
 import { checkDatabase, megabytes, type DatabaseCheck } from './harness/database.js';
 import { checkPdf, type PdfCheck } from './harness/pdf.js';
@@ -31,15 +31,21 @@ export interface RoundFigures {
   integrityAfterKill: string;
   /** From the restart command to /api/health answering (migrations and WAL recovery included). */
   restartMs: number;
+  /** Highest version number acknowledged in the round. */
+  lastNumber: number;
   readBack: ReadBack;
 }
 
 export interface ExportCrashFigures {
+  /** The version whose export was killed. */
+  version: number;
   killAfterMs: number;
   /** The interrupted request: whether anything arrived, and whether that was a whole PDF. */
   interrupted: { answered: boolean; complete: boolean; text: string };
   newFiles: string[];
   integrityAfterKill: string;
+  /** GET of the killed version after the restart: status and the methods of its stored results. */
+  versionAfterRestart: { status: number; methods: string[] };
   afterRestart: PdfCheck & { status: number; bytes: number };
 }
 
@@ -100,7 +106,7 @@ async function crashRound(round: number, server: RunningServer, dbPath: string, 
   const restarted = await startServer(dbPath);
   const restartMs = Date.now() - t0;
   const back = await readBack(restarted.url, await signIn(restarted.url, DEMO.designer), [target], run, writers.acks);
-  return { figures: { round, killAfterMs, acknowledged: writers.acks.length, unanswered: writers.unanswered, integrityAfterKill, restartMs, readBack: back }, server: restarted };
+  return { figures: { round, killAfterMs, acknowledged: writers.acks.length, unanswered: writers.unanswered, integrityAfterKill, restartMs, lastNumber: Math.max(1, ...writers.acks.map((a) => a.number)), readBack: back }, server: restarted };
 }
 
 function dataFiles(dir: string): string[] {
@@ -112,36 +118,64 @@ async function fetchPdf(url: string, session: Session): Promise<{ status: number
   return { status: res.status, pdf: Buffer.from(await res.arrayBuffer()) };
 }
 
-/** Milliseconds of one export after a first (cold) one, so the kill lands inside the next. */
-async function timeWarmExport(url: string, session: Session): Promise<number> {
-  let ms = 0;
-  for (let i = 0; i < 2; i++) {
-    const t0 = Date.now();
-    const r = await fetchPdf(url, session);
-    if (r.status !== 200 || !checkPdf(r.pdf).complete) throw new Error(`the export failed before any kill: ${r.status}`);
-    ms = Date.now() - t0;
-  }
-  return ms;
+/** Milliseconds of the first export of a version: its refined analysis runs (on the pool's
+ *  worker threads) and is stored, then the PDF is drawn. */
+async function timeColdExport(url: string, session: Session): Promise<number> {
+  const t0 = Date.now();
+  const r = await fetchPdf(url, session);
+  if (r.status !== 200 || !checkPdf(r.pdf).complete) throw new Error(`the export failed before any kill: ${r.status}`);
+  return Date.now() - t0;
 }
 
-async function exportCrash(server: RunningServer, dbPath: string, dir: string, deckId: number): Promise<{ figures: ExportCrashFigures; server: RunningServer }> {
-  const path = `/api/reports/decks/${deckId}/versions/1/package.pdf`;
+const packagePath = (deckId: number, n: number) => `/api/reports/decks/${deckId}/versions/${n}/package.pdf`;
+
+/** After the restart: the killed version reads back (its stored results decode) and exports whole. */
+async function afterExportRestart(server: RunningServer, deckId: number, n: number) {
   const session = await signIn(server.url, DEMO.designer);
-  const killAfterMs = Math.max(5, Math.round((await timeWarmExport(`${server.url}${path}`, session)) * 0.4));
-  const before = dataFiles(dir);
-  const interruptedRequest = fetchPdf(`${server.url}${path}`, session).then(
+  const v = await getJson<{ version?: { results?: { method: string }[] } }>(server.url, session, `/api/decks/${deckId}/versions/${n}`);
+  const again = await fetchPdf(`${server.url}${packagePath(deckId, n)}`, session);
+  return {
+    version: { status: v.status, methods: (v.body.version?.results ?? []).map((r) => r.method) },
+    pdf: { ...checkPdf(again.pdf), status: again.status, bytes: again.pdf.length },
+  };
+}
+
+type Interrupted = ExportCrashFigures['interrupted'];
+
+/** Starts an export of version n and returns what the client got once the server is gone. */
+function exportInFlight(server: RunningServer, session: Session, deckId: number, n: number): Promise<Interrupted> {
+  return fetchPdf(`${server.url}${packagePath(deckId, n)}`, session).then(
     (r) => ({ answered: true, complete: r.status === 200 && checkPdf(r.pdf).complete, text: `answered ${r.status} before the kill: ${checkPdf(r.pdf).reason}` }),
     () => ({ answered: false, complete: false, text: 'got no response (connection dropped)' }),
   );
-  await pause(killAfterMs);
-  await server.kill();
-  const interrupted = await interruptedRequest;
-  const newFiles = dataFiles(dir).filter((f) => !before.includes(f));
-  const integrityAfterKill = checkDatabase(dbPath).integrity;
-  const restarted = await startServer(dbPath);
-  const again = await fetchPdf(`${restarted.url}${path}`, await signIn(restarted.url, DEMO.designer));
-  const afterRestart = { ...checkPdf(again.pdf), status: again.status, bytes: again.pdf.length };
-  return { figures: { killAfterMs, interrupted, newFiles, integrityAfterKill, afterRestart }, server: restarted };
+}
+
+/** Kills the server while it exports a version never exported before (so its refined analysis
+ *  is running or being stored), at 40 % of a first export of version 1. When the export beat the
+ *  kill, the server is restarted and a newer unexported version tried with half the delay (up
+ *  to three times). */
+async function exportCrash(server: RunningServer, dbPath: string, dir: string, deckId: number, freshNumber: number): Promise<{ figures: ExportCrashFigures; server: RunningServer }> {
+  let session = await signIn(server.url, DEMO.designer);
+  let killAfterMs = Math.max(5, Math.round((await timeColdExport(`${server.url}${packagePath(deckId, 1)}`, session)) * 0.4));
+  let attempt = 0;
+  for (;;) {
+    const version = freshNumber - attempt;
+    const before = dataFiles(dir);
+    const interruptedRequest = exportInFlight(server, session, deckId, version);
+    await pause(killAfterMs);
+    await server.kill();
+    const interrupted = await interruptedRequest;
+    const newFiles = dataFiles(dir).filter((f) => !before.includes(f));
+    const integrityAfterKill = checkDatabase(dbPath).integrity;
+    server = await startServer(dbPath);
+    if (interrupted.answered && interrupted.complete && ++attempt < 3 && integrityAfterKill === 'ok' && newFiles.length === 0) {
+      killAfterMs = Math.max(5, Math.round(killAfterMs / 2));
+      session = await signIn(server.url, DEMO.designer);
+      continue;
+    }
+    const after = await afterExportRestart(server, deckId, version);
+    return { figures: { version, killAfterMs, interrupted, newFiles, integrityAfterKill, versionAfterRestart: after.version, afterRestart: after.pdf }, server };
+  }
 }
 
 export async function runCrash(options: CrashOptions, print: Print = console.log): Promise<CrashResult> {
@@ -159,7 +193,8 @@ export async function runCrash(options: CrashOptions, print: Print = console.log
       server = r.server;
       rounds.push(r.figures);
     }
-    const e = await exportCrash(server, dbPath, dir, target.deckId);
+    const fresh = Math.max(...rounds.map((r) => r.lastNumber));
+    const e = await exportCrash(server, dbPath, dir, target.deckId, fresh);
     server = e.server;
     await server.stop();
     const database = checkDatabase(dbPath);
@@ -175,7 +210,7 @@ export async function runCrash(options: CrashOptions, print: Print = console.log
 function isCorrect(rounds: RoundFigures[], e: ExportCrashFigures, database: DatabaseCheck): boolean {
   const roundsOk = rounds.every((r) => r.acknowledged > 0 && r.readBack.problems.length === 0 && r.integrityAfterKill === 'ok');
   // A response that did arrive must be a whole PDF (never half a file served as done).
-  const exportOk = (!e.interrupted.answered || e.interrupted.complete) && e.newFiles.length === 0 && e.integrityAfterKill === 'ok' && e.afterRestart.status === 200 && e.afterRestart.complete;
+  const exportOk = (!e.interrupted.answered || e.interrupted.complete) && e.newFiles.length === 0 && e.versionAfterRestart.status === 200 && e.integrityAfterKill === 'ok' && e.afterRestart.status === 200 && e.afterRestart.complete;
   return roundsOk && exportOk && database.integrity === 'ok';
 }
 
@@ -188,10 +223,11 @@ function printCrash(print: Print, r: CrashResult): void {
     for (const p of x.readBack.problems.slice(0, 10)) print(`       problem: ${p}`);
   }
   const e = r.exportCrash;
-  print(`PDF export killed after ${e.killAfterMs} ms: interrupted request ${e.interrupted.text}; new files left in the data folder: ${e.newFiles.length ? e.newFiles.join(', ') : 'none'}; integrity after kill: ${e.integrityAfterKill}`);
+  print(`PDF export of version ${e.version} (never exported before) killed after ${e.killAfterMs} ms: interrupted request ${e.interrupted.text}; new files left in the data folder: ${e.newFiles.length ? e.newFiles.join(', ') : 'none'}; integrity after kill: ${e.integrityAfterKill}`);
   const caution = e.afterRestart.cautionReadBack === null ? 'pdftotext not installed' : e.afterRestart.cautionReadBack ? 'caution line read back by pdftotext' : 'caution line NOT read back';
   print(`PDF export after restart: ${e.afterRestart.status}, ${e.afterRestart.bytes} bytes, ${e.afterRestart.complete ? 'complete' : 'INCOMPLETE'} (${e.afterRestart.reason}; ${caution})`);
-  print('background jobs: none persisted — there is no job table; work in memory is lost with the process and nothing needs recovering at start');
+  print(`version ${e.version} read back after restart (before exporting it again): ${e.versionAfterRestart.status}, stored results: ${e.versionAfterRestart.methods.join(', ') || 'none'}${e.versionAfterRestart.methods.includes('grillage') ? '' : ' (the killed refined run stored nothing)'}`);
+  print('background jobs: refined analyses run on an in-memory worker pool; there is no job table, so a run cut off by the kill leaves nothing behind and runs again when next asked for');
   print(`final integrity_check: ${r.database.integrity}; database ${megabytes(r.database.bytes)} (${r.database.versions} deck versions)`);
   print(`correctness (every acknowledged save intact after each kill, integrity ok, export complete after restart): ${r.ok ? 'PASS' : 'FAIL'}`);
 }

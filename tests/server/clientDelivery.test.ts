@@ -19,8 +19,8 @@ beforeAll(async () => {
   writeFileSync(join(dist, 'assets', 'index-AbCd1234.js'), asset);
   ctx = await makeTestApp({ clientDist: dist });
 });
-afterAll(() => {
-  ctx.close();
+afterAll(async () => {
+  await ctx.close();
   rmSync(dist, { recursive: true, force: true });
 });
 

@@ -59,7 +59,7 @@ describe('append-only tables refuse replacing inserts', () => {
       db.prepare("INSERT INTO outbox_messages (firm_id, kind, message_id, from_address, to_addresses, subject, text_body, size_bytes) VALUES (?, 'test', '<m@x>', 'a@example.test', 'b@example.test', 'original subject', 'body', 4)").run(v.firm_id);
     }
     if (!db.prepare('SELECT 1 FROM review_comments').get()) {
-      const round = db.prepare("INSERT INTO review_rounds (firm_id, project_id, deck_id, version_id, submitted_by, reviewer_id, state) VALUES (?, ?, ?, ?, ?, ?, 'withdrawn')").run(v.firm_id, v.project_id, v.deck_id, v.id, v.created_by, v.created_by);
+      const round = db.prepare("INSERT INTO review_rounds (firm_id, project_id, deck_id, version_id, submitted_by, reviewer_id, state) VALUES (?, ?, ?, ?, ?, ?, 'awaiting-review')").run(v.firm_id, v.project_id, v.deck_id, v.id, v.created_by, v.created_by);
       db.prepare("INSERT INTO review_comments (round_id, author_id, body) VALUES (?, ?, 'original comment')").run(round.lastInsertRowid, v.created_by);
     }
     if (!db.prepare('SELECT 1 FROM submissions').get()) {

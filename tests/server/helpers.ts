@@ -12,6 +12,7 @@ import { seedDemo } from '../../server/db/seed.js';
 /** The demo users' password in tests (the server itself picks a random one unless DEMO_PASSWORD is set). */
 export const DEMO_PASSWORD = 'deckshare-demo-1';
 import { createApp } from '../../server/app.js';
+import { refinedPoolFor, type RefinedPool } from '../../server/compute/refinedPool.js';
 import { closePasswordHashing } from '../../server/auth/password.js';
 
 export interface TestContext {
@@ -19,7 +20,9 @@ export interface TestContext {
   db: Db;
   config: Config;
   dir: string;
-  close(): void;
+  /** The app's refined-analysis worker pool. */
+  refinedPool: RefinedPool;
+  close(): Promise<void>;
 }
 
 export async function makeTestApp(overrides: Partial<Config> = {}): Promise<TestContext> {
@@ -27,13 +30,16 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: join(dir, 'test.db'), LOG_REQUESTS: 'false', CLIENT_DIST: join(dir, 'no-client') }, overrides);
   const db = openDatabase(config.databaseUrl);
   await seedDemo(db, DEMO_PASSWORD);
-  const app = createApp({ db, config, log: () => {} });
+  const refinedPool = refinedPoolFor(config);
+  const app = createApp({ db, config, log: () => {}, refinedPool });
   return {
     app,
     db,
     config,
     dir,
-    close() {
+    refinedPool,
+    async close() {
+      await refinedPool.close();
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
       // Worker threads stop; the next hash in this file starts them again.

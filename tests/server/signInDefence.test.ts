@@ -1,6 +1,7 @@
 /**
  * Sign-in under attack (API, in-process): failed sign-ins limited per client address across
- * e-mails and per account across addresses; X-Forwarded-For believed only with TRUST_PROXY;
+ * e-mails and per account and address, slowed (never refused) per account across addresses,
+ * first refusals recorded; X-Forwarded-For believed only with TRUST_PROXY;
  * bcrypt on a bounded worker pool that answers 503 when full instead of queueing without end;
  * unknown e-mails compared against a dummy hash; HTTPS-only headers only over HTTPS.
  * Common practice, no source (OWASP-style sign-in hardening).
@@ -13,6 +14,7 @@ import { demo, DEMO_PASSWORD, makeTestApp, type TestContext } from './helpers.js
 import { loadConfig, defaultPasswordHashThreads, DEFAULT_PASSWORD_HASH_QUEUE } from '../../server/config/env.js';
 import { closePasswordHashing, configurePasswordHashing, DUMMY_HASH, hashPassword, verifyPassword } from '../../server/auth/password.js';
 import { PasswordPool } from '../../server/auth/passwordPool.js';
+import { signInRefusals } from '../../server/db/schema.js';
 
 const open: TestContext[] = [];
 async function app(overrides: Parameters<typeof makeTestApp>[0] = {}) {
@@ -55,14 +57,48 @@ describe('limit per client address, whatever the e-mail', () => {
   });
 });
 
-describe('limit per account, whatever the client address', () => {
-  it('refuses an account guessed from many addresses, and leaves other accounts alone', async () => {
+describe('per account: one client is refused, many clients are slowed, the owner still signs in', () => {
+  it('refuses one client guessing one account after the limit, and leaves the account to its owner elsewhere', async () => {
     const ctx = await app({ trustProxy: ['loopback'], loginAttemptsPer15Min: 3, loginAttemptsPerAddressPer15Min: 100 });
-    for (let i = 1; i <= 3; i++) expect((await login(ctx, demo.trainee, 'wrong-password', `10.0.0.${i}`)).status).toBe(401);
-    const limited = await login(ctx, demo.trainee, DEMO_PASSWORD, '10.0.0.99');
+    for (let i = 0; i < 3; i++) expect((await login(ctx, demo.trainee, 'wrong-password', '10.0.0.1')).status).toBe(401);
+    const limited = await login(ctx, demo.trainee, DEMO_PASSWORD, '10.0.0.1');
     expectLimited(limited);
-    expect(limited.body.error.message).toMatch(/for this account/);
-    expect((await login(ctx, demo.designer, DEMO_PASSWORD, '10.0.0.99')).status).toBe(200);
+    expect(limited.body.error.message).toMatch(/for this account from this address/);
+    expect((await login(ctx, demo.trainee, DEMO_PASSWORD, '10.0.0.2')).status).toBe(200);
+  });
+
+  it('slows guessing of one account from many addresses with growing waits, never a refusal', async () => {
+    const ctx = await app({ trustProxy: ['loopback'], loginAttemptsPer15Min: 2, loginAttemptsPerAddressPer15Min: 100 });
+    const timed = async (password: string, address: string) => {
+      const t0 = performance.now();
+      const res = await login(ctx, demo.trainee, password, address);
+      return { status: res.status, ms: performance.now() - t0 };
+    };
+    for (let i = 1; i <= 2; i++) expect((await timed('wrong-password', `10.0.1.${i}`)).status).toBe(401);
+    // past the limit: each further attempt waits at least 0.5 s, then 1 s (lower bounds of a timer: cannot flake)
+    const third = await timed('wrong-password', '10.0.1.3');
+    expect(third.status).toBe(401);
+    expect(third.ms).toBeGreaterThanOrEqual(490);
+    // the owner, from a clean address, with the right password: slowed, and signed in
+    const owner = await timed(DEMO_PASSWORD, '10.0.1.99');
+    expect(owner.status).toBe(200);
+    expect(owner.ms).toBeGreaterThanOrEqual(990);
+    // another account is not slowed at all
+    expect((await login(ctx, demo.designer, DEMO_PASSWORD, '10.0.1.3')).status).toBe(200);
+  });
+
+  it('records the first refusal of each key in its window, with the account’s firm, and no more', async () => {
+    // 5 attempts from 10.0.2.1 stay under its address limit of 6; 6 e-mails sprayed from 10.0.2.7 reach it
+    const ctx = await app({ trustProxy: ['loopback'], loginAttemptsPer15Min: 2, loginAttemptsPerAddressPer15Min: 6 });
+    for (let i = 0; i < 2; i++) await login(ctx, demo.reviewer, 'wrong-password', '10.0.2.1');
+    for (let i = 0; i < 3; i++) expectLimited(await login(ctx, demo.reviewer, 'wrong-password', '10.0.2.1'));
+    for (let i = 0; i < 6; i++) await login(ctx, `sprayed-${i}@example.com`, 'x', '10.0.2.7');
+    for (let i = 0; i < 3; i++) expectLimited(await login(ctx, `sprayed-more-${i}@example.com`, 'x', '10.0.2.7'));
+    const rows = ctx.db.select().from(signInRefusals).all();
+    expect(rows.map((r) => [r.limit, r.email, r.address, r.firmId !== null])).toEqual([
+      ['account-address', demo.reviewer, '10.0.2.1', true],
+      ['address', null, '10.0.2.7', false],
+    ]);
   });
 });
 

@@ -15,6 +15,7 @@ import { hashPassword } from '../../server/auth/password.js';
 import { createSmtpMailer, type Mailer } from '../../server/mail/mailer.js';
 import { startLocalSmtp, type LocalSmtp } from '../../server/mail/localSmtp.js';
 import { DEMO_PASSWORD, signIn, type Agent } from './helpers.js';
+import { refinedPoolFor, type RefinedPool } from '../../server/compute/refinedPool.js';
 
 export interface WorkflowContext {
   app: Express;
@@ -24,6 +25,8 @@ export interface WorkflowContext {
   attachmentsDir: string;
   mailer: Mailer;
   smtp: LocalSmtp;
+  /** The app's refined-analysis worker pool. */
+  refinedPool: RefinedPool;
   close(): Promise<void>;
 }
 
@@ -36,7 +39,8 @@ export async function makeWorkflowApp(overrides: Partial<Config> = {}): Promise<
   const lines: string[] = [];
   const mailer = createSmtpMailer({ host: smtp.host, port: smtp.port, auth: smtp.auth, from: 'Deckshare <no-reply@deckshare.test>', tagMessages: true, log: (l) => lines.push(l) });
   const attachmentsDir = join(dir, 'files');
-  const app = createApp({ db, config, log: (l) => lines.push(l), mailer, attachmentsDir });
+  const refinedPool = refinedPoolFor(config);
+  const app = createApp({ db, config, log: (l) => lines.push(l), mailer, attachmentsDir, refinedPool });
   return {
     app,
     db,
@@ -45,7 +49,9 @@ export async function makeWorkflowApp(overrides: Partial<Config> = {}): Promise<
     attachmentsDir,
     mailer,
     smtp,
+    refinedPool,
     async close() {
+      await refinedPool.close();
       await mailer.idle();
       mailer.close();
       await smtp.close();

@@ -4,20 +4,21 @@
  * (the shared solver's `RefinedResult`, whose `rows` are factor rows of method 'grillage' with
  * the girder number; a bare list of rows or `{ factors: FactorRow[] }` is read too). When none
  * is stored yet they are computed once with the shared solver (computeRefinedFactors, AASHTO
- * LRFD Art. 4.6.3.3) and stored with the version under method 'grillage' and the solver
+ * LRFD Art. 4.6.3.3) on the refined-analysis pool's worker threads (server/compute), never on
+ * the request thread, and stored with the version under method 'grillage' and the solver
  * version (an append-only row, like the code result written at save time). A deck the
- * grillage cannot model is stored as `{ error }`, so the reason is kept too.
+ * grillage cannot model is stored as `{ error }`, so the reason is kept too; a deck above the
+ * server's model-size limit is not run (and nothing is stored: the limit is the server's).
+ * A full pool, a job over its time limit or out of memory throw the pool's 503 ApiError.
  * Units: dimensionless factors (lanes per girder).
  */
 import type { Db } from '../../db/client.js';
 import type { DeckVersionRow } from '../../db/schema.js';
 import type { FactorRow } from '../../../shared/lrfd/index.js';
 import { deckOf, storedResult } from './versionResults.js';
-import { DeckInputError } from '../../../shared/deck/schema.js';
-import { GrillageMechanismError } from '../../../shared/grillage/errors.js';
-import { computeRefinedFactors } from '../../../shared/grillage/refinedFactors.js';
+import { RefinedModelTooLargeError, type RefinedPool } from '../../compute/refinedPool.js';
 import { SOLVER_VERSION } from '../../../shared/version.js';
-import { insertResultOnce } from '../../storage/storedResults.js';
+import { insertEncodedResultOnce } from '../../storage/storedResults.js';
 
 export interface RefinedFactor {
   /** Girder number, 1 = left exterior. */
@@ -52,16 +53,12 @@ function rowsOf(data: unknown): FactorRow[] | null {
 }
 
 /** Computes the version's grillage result and stores it (once per version and solver version). */
-function computeAndStore(db: Db, v: DeckVersionRow): unknown {
-  let data: unknown;
-  try {
-    data = computeRefinedFactors(deckOf(v));
-  } catch (e) {
-    if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
-    data = { error: e.message };
-  }
-  // When another request stored it first (same version, method and solver version), theirs is kept.
-  insertResultOnce(db, { versionId: v.id, method: 'grillage', solverVersion: SOLVER_VERSION, data });
+async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow): Promise<unknown> {
+  const answer = await pool.run(`${v.id}|${SOLVER_VERSION}`, deckOf(v), v.deckJson);
+  const data = answer.error !== undefined ? { error: answer.error } : { rows: answer.rows };
+  // When another request stored it first (same version, method and solver version), theirs
+  // is kept; a result too large to store (encoded null) serves this request only.
+  if (answer.encoded) insertEncodedResultOnce(db, v.id, answer.encoded);
   return data;
 }
 
@@ -83,9 +80,15 @@ function governingPerGirder(rows: FactorRow[]): RefinedFactor[] {
  * The governing refined factor of each girder, effect and location (the largest over the
  * lane cases), or null with the reason when there is none.
  */
-export function refinedResultsOf(db: Db, v: DeckVersionRow): RefinedResults {
+export async function refinedResultsOf(db: Db, pool: RefinedPool, v: DeckVersionRow): Promise<RefinedResults> {
   const stored = storedResult(db, v.id, 'grillage');
-  const data = stored ? stored.data : computeAndStore(db, v);
+  let data: unknown;
+  try {
+    data = stored ? stored.data : await computeAndStore(db, pool, v);
+  } catch (e) {
+    if (!(e instanceof RefinedModelTooLargeError)) throw e;
+    return { factors: null, rows: null, source: 'grillage not run (model-size limit of this server)', note: e.message };
+  }
   const source = `grillage stored with the version, solver ${stored ? stored.solverVersion : SOLVER_VERSION}`;
   const error = typeof data === 'object' && data !== null && typeof (data as { error?: unknown }).error === 'string' ? (data as { error: string }).error : undefined;
   if (error !== undefined) return { factors: null, rows: null, source, note: `The grillage could not be built for this version: ${error}` };

@@ -18,7 +18,8 @@ import type { DeckVersionRow } from '../../db/schema.js';
 import type { Finding } from '../../../shared/lrfd/findings.js';
 import type { CodeFactorResult, FactorEffect, FactorRow, GirderKind } from '../../../shared/lrfd/index.js';
 import { codeResultsOf, deckOf } from './versionResults.js';
-import { refinedResultsOf, type RefinedFactor } from './refinedResults.js';
+import { refinedResultsOf, type RefinedFactor, type RefinedResults } from './refinedResults.js';
+import type { RefinedPool } from '../../compute/refinedPool.js';
 import { perLaneMaxMoment } from '../../reports/envelopes.js';
 
 export const CAUTION = 'Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
@@ -119,7 +120,8 @@ function skewWords(skews: number[]): string {
   return `Skew ${list}. The moment reduction of Table 4.6.2.2.2e-1 and the shear correction of Table 4.6.2.2.3c-1 both apply${largest > 60 ? '; θ above 60° is taken as 60° for the moment reduction' : ''}.`;
 }
 
-export function refinedSummaryOf(db: Db, v: DeckVersionRow): RefinedSummary {
+/** The summary of version `v`; `refined` when the caller already has the version's refined results. */
+export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersionRow, refinedKnown?: RefinedResults): Promise<RefinedSummary> {
   const { result: code, solverVersion, source } = codeResultsOf(db, v);
   const deck = deckOf(v);
   const count = code.derived.girderCount;
@@ -142,7 +144,7 @@ export function refinedSummaryOf(db: Db, v: DeckVersionRow): RefinedSummary {
     });
   }
 
-  const refined = refinedResultsOf(db, v);
+  const refined = refinedKnown ?? (await refinedResultsOf(db, pool, v));
   const ratios: RatioRow[] = [];
   const reductions: MomentReduction[] = [];
   if (refined.factors) {

@@ -20,8 +20,9 @@ import { commentBody, decisionBody, listQuery, refinedBody, statusQuery, submitB
 import { addComment, decide, deckReviewStatus, findRound, getReview, listReviewers, listReviews, recordRefinedDecision, submitForReview, withdrawReview, type ReviewDeps } from './reviewService.js';
 import { refinedSummaryOf } from './refinedSummary.js';
 import { findVersion } from './reviewService.js';
+import type { RefinedPool } from '../../compute/refinedPool.js';
 
-export function reviewRouter(db: Db, config: Config, mailer: Mailer): Router {
+export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: RefinedPool): Router {
   const r = Router();
   const deps: ReviewDeps = { db, mailer, publicUrl: config.publicUrl };
   const reviewId = validate({ params: idParams('reviewId') });
@@ -38,10 +39,10 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer): Router {
   r.post('/', allow('review:submit'), validate({ body: submitBody }), (req, res) => {
     res.status(201).json({ review: submitForReview(deps, req.user!, res.locals.body) });
   });
-  r.get('/:reviewId', allow('review:read'), reviewId, (req, res) => {
+  r.get('/:reviewId', allow('review:read'), reviewId, async (req, res) => {
     const review = getReview(db, req.user!, res.locals.params.reviewId);
     const round = findRound(db, req.user!.firmId, review.id);
-    res.json({ review, summary: refinedSummaryOf(db, findVersion(db, req.user!.firmId, round.versionId).v) });
+    res.json({ review, summary: await refinedSummaryOf(db, pool, findVersion(db, req.user!.firmId, round.versionId).v) });
   });
   r.post('/:reviewId/comments', allow('review:comment'), validate({ params: idParams('reviewId'), body: commentBody }), (req, res) => {
     res.status(201).json({ comment: addComment(deps, req.user!, res.locals.params.reviewId, res.locals.body) });

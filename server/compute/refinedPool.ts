@@ -1,0 +1,267 @@
+/**
+ * The refined-analysis pool: runs the grillage (server/compute/refinedWorker.ts) on worker
+ * threads (piscina) so that no request waits behind one, with limits that keep one request
+ * from exhausting the server:
+ * - model size: a deck whose grillage would exceed `maxNodeGirders` (nodes × girder lines,
+ *   server/compute/modelSize.ts) is refused before anything is queued (422);
+ * - queue: at most `threads + queue` distinct jobs at once; beyond that 503 with Retry-After;
+ * - time: a job running longer than `jobMs` is aborted (piscina terminates its worker and
+ *   starts another when needed) and its requests get 503 saying so;
+ * - memory: each worker's heap is capped (`workerMemoryMb`); a worker that runs out is
+ *   reported (503) and replaced;
+ * - de-duplication: concurrent requests for the same key (version and solver version) share
+ *   one job.
+ * Workers load TypeScript through tsx's loader (resolved from node_modules), so the pool runs
+ * the same under `tsx server/index.ts` and under vitest, whose transform does not reach
+ * worker threads.
+ */
+import { createRequire } from 'node:module';
+import { pathToFileURL } from 'node:url';
+import { Piscina } from 'piscina';
+import type { Deck } from '../../shared/deck/schema.js';
+import type { Config } from '../config/env.js';
+import { ApiError } from '../middleware/errors.js';
+import { modelSizeRefusal, refinedModelSize } from './modelSize.js';
+import type { RefinedAnswer, RefinedTask, StartedMessage } from './refinedWorker.js';
+
+export interface RefinedPoolOptions {
+  /** Worker threads (at least 1). */
+  threads: number;
+  /** Jobs that may wait for a thread beyond those running. */
+  queue: number;
+  /** Longest run of one job, ms (from the moment a worker starts it). */
+  jobMs: number;
+  /** Heap cap of each worker (V8 old generation), MB. */
+  workerMemoryMb: number;
+  /** Largest model accepted, nodes × girder lines. */
+  maxNodeGirders: number;
+  /** Where a worker's failure outside any job is reported (default: console.error). */
+  log?: (line: string) => void;
+}
+
+export interface RefinedPoolStats {
+  threads: number;
+  /** Workers alive now. */
+  workers: number;
+  running: number;
+  queued: number;
+  /** Jobs sent to the pool. */
+  jobs: number;
+  /** Requests that joined a job already running or queued for the same version. */
+  shared: number;
+  completed: number;
+  failed: number;
+  timedOut: number;
+  outOfMemory: number;
+  refusedBusy: number;
+  refusedTooLarge: number;
+}
+
+/** The refined run of a deck was refused before queueing: its model is above the limit. */
+export class RefinedModelTooLargeError extends ApiError {
+  constructor(message: string) {
+    super(422, 'refined_model_too_large', `The refined (grillage) analysis was not run: ${message}.`, [{ path: 'deck', message }]);
+    this.name = 'RefinedModelTooLargeError';
+  }
+}
+
+interface Job {
+  id: number;
+  key: string;
+  controller: AbortController;
+  startedAt: number | null;
+  timer: NodeJS.Timeout | null;
+  /** Ends a job no worker has started in time (a worker that cannot start). */
+  startTimer: NodeJS.Timeout;
+  timedOut: boolean;
+  notStarted: boolean;
+  promise: Promise<RefinedAnswer>;
+}
+
+/** Allowance for starting a worker (the tsx loader and the solver's modules), ms. */
+const WORKER_START_MS = 30_000;
+/** Scheduling priority of the workers below the request thread (nice increment, Linux). */
+const WORKER_NICE = 10;
+const LOADER = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
+const WORKER = new URL('./refinedWorker.ts', import.meta.url).href;
+
+function isStarted(m: unknown): m is StartedMessage {
+  return typeof m === 'object' && m !== null && (m as StartedMessage).kind === 'refined-started';
+}
+
+export class RefinedPool {
+  private readonly pool: Piscina<RefinedTask, RefinedAnswer>;
+  private readonly jobs = new Map<string, Job>();
+  private readonly byId = new Map<number, Job>();
+  private nextId = 1;
+  /** Mean run time of recent jobs, ms (for Retry-After). */
+  private meanMs = 5000;
+  private readonly counts = { jobs: 0, shared: 0, completed: 0, failed: 0, timedOut: 0, outOfMemory: 0, refusedBusy: 0, refusedTooLarge: 0 };
+
+  constructor(readonly options: RefinedPoolOptions) {
+    this.pool = new Piscina<RefinedTask, RefinedAnswer>({
+      filename: WORKER,
+      minThreads: 0,
+      maxThreads: options.threads,
+      maxQueue: options.queue + options.threads,
+      idleTimeout: 300_000,
+      execArgv: ['--import', LOADER],
+      // below the request thread in the scheduler's eyes (Linux; no effect elsewhere)
+      niceIncrement: WORKER_NICE,
+      resourceLimits: { maxOldGenerationSizeMb: options.workerMemoryMb },
+    });
+    this.pool.on('message', (m: unknown) => {
+      if (isStarted(m)) this.started(m.jobId);
+    });
+    // A worker lost with no task on it (e.g. at start-up) must not crash the server; jobs it
+    // leaves waiting are ended by their start deadline.
+    const log = options.log ?? ((line: string) => console.error(line));
+    this.pool.on('error', (e: unknown) => log(`refined-analysis worker failed: ${e instanceof Error ? e.message : String(e)}`));
+  }
+
+  /**
+   * The refined answer for `deck` (the version's stored deck text `deckJson`), shared by every
+   * concurrent caller with the same `key`. Throws RefinedModelTooLargeError before queueing,
+   * ApiError 503 when the pool is full, the job ran out of time or its worker out of memory.
+   */
+  run(key: string, deck: Deck, deckJson: string): Promise<RefinedAnswer> {
+    const existing = this.jobs.get(key);
+    if (existing) {
+      this.counts.shared++;
+      return existing.promise;
+    }
+    const refusal = modelSizeRefusal(refinedModelSize(deck), this.options.maxNodeGirders);
+    if (refusal) {
+      this.counts.refusedTooLarge++;
+      return Promise.reject(new RefinedModelTooLargeError(refusal));
+    }
+    if (this.jobs.size >= this.options.threads + this.options.queue) {
+      this.counts.refusedBusy++;
+      return Promise.reject(this.busyError());
+    }
+    return this.submit(key, deckJson).promise;
+  }
+
+  private submit(key: string, deckJson: string): Job {
+    const id = this.nextId++;
+    const controller = new AbortController();
+    // Every job ahead of this one ends within jobMs (plus a worker start), so it starts within this deadline.
+    const startMs = (this.options.jobMs + WORKER_START_MS) * Math.ceil((this.jobs.size + 1) / this.options.threads);
+    const startTimer = setTimeout(() => {
+      job.notStarted = true;
+      controller.abort();
+    }, startMs);
+    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never) };
+    this.counts.jobs++;
+    job.promise = this.pool
+      .run({ jobId: id, deckJson }, { signal: controller.signal })
+      .then(
+        (answer) => {
+          this.counts.completed++;
+          // structured cloning turns the worker's Buffer into a Uint8Array; the database binds Buffers
+          const blob = answer.encoded?.dataBlob as Uint8Array | null | undefined;
+          if (answer.encoded && blob && !Buffer.isBuffer(blob)) answer.encoded.dataBlob = Buffer.from(blob.buffer, blob.byteOffset, blob.byteLength);
+          if (job.startedAt !== null) this.meanMs = 0.7 * this.meanMs + 0.3 * (performance.now() - job.startedAt);
+          return answer;
+        },
+        (e: unknown) => {
+          throw this.failure(job, e);
+        },
+      )
+      .finally(() => this.settle(job));
+    this.jobs.set(key, job);
+    this.byId.set(id, job);
+    return job;
+  }
+
+  /** A worker began the job: its clock starts now. */
+  private started(jobId: number): void {
+    const job = this.byId.get(jobId);
+    if (!job || job.startedAt !== null) return;
+    clearTimeout(job.startTimer);
+    job.startedAt = performance.now();
+    job.timer = setTimeout(() => {
+      job.timedOut = true;
+      job.controller.abort();
+    }, this.options.jobMs);
+  }
+
+  private settle(job: Job): void {
+    clearTimeout(job.startTimer);
+    if (job.timer) clearTimeout(job.timer);
+    this.jobs.delete(job.key);
+    this.byId.delete(job.id);
+  }
+
+  private failure(job: Job, e: unknown): Error {
+    const seconds = (this.options.jobMs / 1000).toLocaleString('en-US');
+    if (job.timedOut) {
+      this.counts.timedOut++;
+      return new ApiError(
+        503,
+        'refined_time_limit',
+        `The refined (grillage) analysis of this version ran longer than this server's limit of ${seconds} s and was stopped. ` +
+          'The server may be busy: try again in a few minutes. If it stops again, the deck is too large for a refined run here: run the grillage in the workspace with a coarser mesh, ' +
+          'or ask an administrator to raise REFINED_JOB_SECONDS.',
+      );
+    }
+    if (job.notStarted) {
+      this.counts.failed++;
+      return new ApiError(
+        503,
+        'refined_unavailable',
+        'The refined (grillage) analysis of this version could not be started: no analysis worker became free in time. Try again in a few minutes; if it persists, an administrator should check the server log.',
+      );
+    }
+    if ((e as { code?: unknown }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
+      this.counts.outOfMemory++;
+      return new ApiError(
+        503,
+        'refined_out_of_memory',
+        `The refined (grillage) analysis of this version needed more than this server's memory allowance of ${this.options.workerMemoryMb} MB per analysis and was stopped. ` +
+          'Run the grillage in the workspace with a coarser mesh, or ask an administrator to raise REFINED_WORKER_MEMORY_MB.',
+      );
+    }
+    this.counts.failed++;
+    return e instanceof Error ? e : new Error(String(e));
+  }
+
+  private busyError(): ApiError {
+    const running = [...this.jobs.values()].filter((j) => j.startedAt !== null).length;
+    const waiting = this.jobs.size - running;
+    const estimate = Math.ceil(((waiting / this.options.threads + 1) * this.meanMs) / 1000);
+    const retryAfter = Math.min(Math.max(estimate, 1), Math.ceil(this.options.jobMs / 1000));
+    return new ApiError(
+      503,
+      'refined_busy',
+      `The server is running as many refined (grillage) analyses as it can (${running} running, ${waiting} waiting). Try again in ${retryAfter} s.`,
+      [{ path: 'Retry-After', message: `${retryAfter} seconds` }],
+      { 'Retry-After': String(retryAfter) },
+    );
+  }
+
+  stats(): RefinedPoolStats {
+    const running = [...this.jobs.values()].filter((j) => j.startedAt !== null).length;
+    return { threads: this.options.threads, workers: this.pool.threads.length, running, queued: this.jobs.size - running, ...this.counts };
+  }
+
+  /** Stops every worker (jobs still running fail); for shutdown and tests. */
+  async close(): Promise<void> {
+    for (const job of this.jobs.values()) {
+      clearTimeout(job.startTimer);
+      if (job.timer) clearTimeout(job.timer);
+    }
+    await this.pool.destroy();
+  }
+}
+
+/** The pool the configuration describes. */
+export function refinedPoolFor(config: Pick<Config, 'refinedThreads' | 'refinedQueue' | 'refinedJobMs' | 'refinedWorkerMemoryMb' | 'refinedMaxNodeGirders'>): RefinedPool {
+  return new RefinedPool({
+    threads: config.refinedThreads,
+    queue: config.refinedQueue,
+    jobMs: config.refinedJobMs,
+    workerMemoryMb: config.refinedWorkerMemoryMb,
+    maxNodeGirders: config.refinedMaxNodeGirders,
+  });
+}

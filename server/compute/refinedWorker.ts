@@ -1,0 +1,64 @@
+/**
+ * The worker-thread side of the refined-analysis pool (server/compute/refinedPool.ts): one
+ * task is one version's grillage run with the shared solver (computeRefinedFactors, AASHTO
+ * LRFD Art. 4.6.3.3), done here so that the request thread never waits for it.
+ *
+ * The task says it has started (a message to the pool, which then starts the job's clock),
+ * runs the solver and encodes the stored row here too (JSON and brotli,
+ * server/storage/resultEncoding.ts), so the request thread receives the row to insert and only
+ * the factor rows it needs. A deck the grillage cannot model
+ * (DeckInputError, GrillageMechanismError) is an answer, not a failure: `{ error }`, stored
+ * like a result so the reason is kept. Anything else is thrown to the pool.
+ * Units: dimensionless factors (lanes per girder); the result as the solver returns it.
+ */
+import { parentPort } from 'node:worker_threads';
+import { assertDeck, DeckInputError } from '../../shared/deck/schema.js';
+import { GrillageMechanismError } from '../../shared/grillage/errors.js';
+import { computeRefinedFactors } from '../../shared/grillage/refinedFactors.js';
+import type { FactorRow } from '../../shared/lrfd/index.js';
+import { SOLVER_VERSION } from '../../shared/version.js';
+import { encodeResultRow, ResultTooLargeError, type EncodedResult } from '../storage/resultEncoding.js';
+
+export interface RefinedTask {
+  jobId: number;
+  /** The version's deck, as stored (JSON text). */
+  deckJson: string;
+}
+
+export interface RefinedAnswer {
+  /** The row to store under method 'grillage' (the solver's result or `{ error }`, encoded), or null when it is too large to store. */
+  encoded: EncodedResult | null;
+  /** The result's factor rows (method 'grillage'), or null with `error`. */
+  rows: FactorRow[] | null;
+  error?: string;
+}
+
+export interface StartedMessage {
+  kind: 'refined-started';
+  jobId: number;
+}
+
+function solve(deckJson: string): { data: unknown; rows: FactorRow[] | null; error?: string } {
+  try {
+    const result = computeRefinedFactors(assertDeck(JSON.parse(deckJson)));
+    return { data: result, rows: result.rows };
+  } catch (e) {
+    if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
+    return { data: { error: e.message }, rows: null, error: e.message };
+  }
+}
+
+function encode(data: unknown): EncodedResult | null {
+  try {
+    return encodeResultRow({ method: 'grillage', solverVersion: SOLVER_VERSION, data });
+  } catch (e) {
+    if (e instanceof ResultTooLargeError) return null;
+    throw e;
+  }
+}
+
+export default function refinedTask(task: RefinedTask): RefinedAnswer {
+  parentPort?.postMessage({ kind: 'refined-started', jobId: task.jobId } satisfies StartedMessage);
+  const { data, rows, error } = solve(task.deckJson);
+  return { encoded: encode(data), rows, ...(error !== undefined ? { error } : {}) };
+}
