@@ -121,13 +121,15 @@ export const requirePasswordChanged: RequestHandler = (req, _res, next) => {
   next();
 };
 
-/** Declares who may call a route: the user's roles must allow `action`. */
-export function allow(action: Action): RequestHandler {
-  return (req, _res, next) => {
+/** Declares who may call a route: the user's roles must allow `action` (kept on the handler as `.action`). */
+export function allow(action: Action): RequestHandler & { action: Action } {
+  const handler: RequestHandler = (req, _res, next) => {
     if (!req.user) return next(ApiError.unauthenticated());
     if (!mayPerform(req.user.roles, action)) {
       return next(ApiError.forbidden(`your roles (${req.user.roles.join(', ') || 'none'}) do not allow ${action}`));
     }
     next();
   };
+  // The action stays readable on the handler, so tests can list every route with its action.
+  return Object.assign(handler, { action });
 }

@@ -32,11 +32,25 @@ export function validate(schemas: Schemas): RequestHandler {
   };
 }
 
+/**
+ * A positive whole-number id sent as text (path parameter, query or form field): digits only,
+ * so " 1", "0x10", "1e3" or "1.0" are refused rather than read as some other id.
+ */
+export function idText(name: string) {
+  return z
+    .string({ error: `${name} must be a number` })
+    .superRefine((s, ctx) => {
+      if (/^\d{1,16}$/.test(s)) return;
+      const numeric = /^\s*[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?\s*$/i.test(s);
+      ctx.addIssue({ code: 'custom', message: numeric ? `${name} must be a positive whole number written in digits` : `${name} must be a number` });
+    })
+    .transform(Number)
+    .pipe(z.number().int(`${name} must be a whole number`).positive(`${name} must be a positive id`).max(Number.MAX_SAFE_INTEGER, `${name} is too large`));
+}
+
 /** Path parameters that are positive integer ids, e.g. `idParams('projectId')`. */
 export function idParams<K extends string>(...names: K[]) {
-  const shape = {} as Record<K, z.ZodType<number>>;
-  for (const n of names) {
-    shape[n] = z.coerce.number({ error: `${n} must be a number` }).int(`${n} must be a whole number`).positive(`${n} must be a positive id`);
-  }
+  const shape = {} as Record<K, ReturnType<typeof idText>>;
+  for (const n of names) shape[n] = idText(n);
   return z.object(shape);
 }

@@ -2,9 +2,10 @@
  * CSV exports of a deck version: the factor table (every code-method row, then the refined
  * rows of the grillage, stored with the version or computed) and the girder HL-93 LL+IM envelopes. Values are
  * written at full precision in the project's unit system (the header names each column's
- * unit); the last line carries the caution.
+ * unit); the last line carries the caution. Text cells that look like formulas are neutralised;
+ * numbers stay numbers.
  */
-import Papa from 'papaparse';
+import { toCsv, type CsvCell } from './csvText.js';
 import { toUs, unitSymbol, toDisplay, type QuantityKind, type UnitSystem } from '../../shared/units.js';
 import type { ReportData } from './reportData.js';
 import { factorArticle } from '../api/reviews/versionResults.js';
@@ -15,15 +16,16 @@ function unitTag(kind: QuantityKind, units: UnitSystem): string {
   return unitSymbol(kind, units).replace('·', '_').replace('/', '_per_').replace('²', '2').replace('³', '3').replace('⁴', '4');
 }
 
-function csv(rows: (string | number | boolean | null)[][]): string {
-  return Papa.unparse(rows.map((r) => r.map((c) => (c === null ? '' : typeof c === 'number' ? String(c) : String(c)))), { newline: '\r\n' }) + `\r\n${JSON.stringify(CSV_CAUTION)}\r\n`;
+/** The table with formula-like text neutralised (see csvText.ts), then the caution line. */
+function csv(rows: CsvCell[][]): string {
+  return toCsv(rows) + `\r\n${JSON.stringify(CSV_CAUTION)}\r\n`;
 }
 
 export function factorsCsv(data: ReportData): string {
   const u = data.units;
   const len = (m: number | undefined) => (m === undefined ? null : Number((u === 'US' ? toUs.ft(m) : m).toPrecision(12)));
   const header = ['row_id', 'girder', 'girder_number', 'effect', 'location', `span_length_${u === 'US' ? 'ft' : 'm'}`, 'lanes', 'loaded_lanes', 'method', 'value_before_skew', 'skew_factor', 'value', 'adopted', 'governing', 'article', 'findings'];
-  const rows: (string | number | boolean | null)[][] = [header];
+  const rows: CsvCell[][] = [header];
   for (const r of data.code.factors) {
     rows.push([
       r.id,
@@ -71,7 +73,7 @@ export function envelopesCsv(data: ReportData): string {
     'shear_factor',
     'governing_loading_moment_max',
   ];
-  const rows: (string | number | boolean | null)[][] = [header];
+  const rows: CsvCell[][] = [header];
   for (const g of data.envelopes) {
     for (const p of g.effects.points) {
       rows.push([

@@ -5,7 +5,7 @@
  * - GET /decks/:deckId/versions/:number/envelopes.csv
  * Each download is recorded in the project's audit trail ("export").
  */
-import { Router } from 'express';
+import { Router, type Response } from 'express';
 import type { Db } from '../db/client.js';
 import { allow } from '../auth/passport.js';
 import { validate } from '../middleware/validate.js';
@@ -14,6 +14,7 @@ import { recordAudit } from '../api/audit/auditService.js';
 import { reportData, type ReportData } from './reportData.js';
 import { calculationPackagePdf } from './calculationPackage.js';
 import { envelopesCsv, factorsCsv } from './csvExport.js';
+import { assertVersionResultsVisible } from '../api/training/withheldResults.js';
 import type { RefinedPool } from '../compute/refinedPool.js';
 
 function fileStem(data: ReportData): string {
@@ -24,11 +25,17 @@ function fileStem(data: ReportData): string {
 export function reportRouter(db: Db, pool: RefinedPool): Router {
   const r = Router();
   const params = validate({ params: versionParams });
+  /** The version's report data; refused first when its results are withheld from the reader (an open exercise). */
+  const reportOf = (req: Express.Request, res: Response) => {
+    const { deckId, number } = res.locals.params as { deckId: number; number: number };
+    assertVersionResultsVisible(db, req.user!, deckId, number);
+    return reportData(db, pool, req.user!.firmId, deckId, number);
+  };
   const audit = (req: Express.Request, data: ReportData, what: string) =>
     recordAudit(db, { firmId: req.user!.firmId, projectId: data.project.id, actorId: req.user!.id, action: 'export', entityType: 'deck', entityId: data.deck.id, summary: `exported ${what} of version ${data.version.number} of deck “${data.deck.name}”` });
 
   r.get('/decks/:deckId/versions/:number/package.pdf', allow('report:export'), params, async (req, res) => {
-    const data = await reportData(db, pool, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const data = await reportOf(req, res);
     const pdf = await calculationPackagePdf(data);
     audit(req, data, 'the calculation package (PDF)');
     res.attachment(`${fileStem(data)}-calculation-package.pdf`);
@@ -38,7 +45,7 @@ export function reportRouter(db: Db, pool: RefinedPool): Router {
   });
 
   r.get('/decks/:deckId/versions/:number/factors.csv', allow('report:export'), params, async (req, res) => {
-    const data = await reportData(db, pool, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const data = await reportOf(req, res);
     const text = factorsCsv(data);
     audit(req, data, 'the factor table (CSV)');
     res.attachment(`${fileStem(data)}-factors.csv`);
@@ -48,7 +55,7 @@ export function reportRouter(db: Db, pool: RefinedPool): Router {
   });
 
   r.get('/decks/:deckId/versions/:number/envelopes.csv', allow('report:export'), params, async (req, res) => {
-    const data = await reportData(db, pool, req.user!.firmId, res.locals.params.deckId, res.locals.params.number);
+    const data = await reportOf(req, res);
     const text = envelopesCsv(data);
     audit(req, data, 'the girder envelopes (CSV)');
     res.attachment(`${fileStem(data)}-envelopes.csv`);

@@ -90,10 +90,19 @@ export interface StoredResult {
   createdAt: string;
 }
 
+/** Why a version's results are hidden from the reader (a trainee's open exercise on it). */
+export interface ResultsWithheld {
+  reason: 'open-exercise';
+  message: string;
+  exercises: { id: number; title: string }[];
+}
+
 export interface DeckVersion extends VersionSummary {
   deck: DeckInput;
   placements: unknown | null;
   results: StoredResult[];
+  /** Set when the results are hidden from this reader until they submit their exercise. */
+  resultsWithheld?: ResultsWithheld | null;
 }
 
 export interface AdminUser {

@@ -161,7 +161,8 @@ export const useDeckStore = defineStore('deck', () => {
     const cached = versionCache.get(key);
     if (cached) return cached;
     const v = await decksApi.getVersion(forDeck, number);
-    versionCache.set(key, v);
+    // Withheld results are shown once the trainee submits: ask again next time.
+    if (!v.resultsWithheld) versionCache.set(key, v);
     return v;
   }
 

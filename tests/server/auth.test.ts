@@ -154,7 +154,7 @@ describe('rate limiting', () => {
       expect(limited.status).toBe(429);
       expect(limited.body.error.code).toBe('too_many_requests');
     } finally {
-      local.close();
+      await local.close();
     }
   });
 });

@@ -42,8 +42,9 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
       await refinedPool.close();
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
-      // Worker threads stop; the next hash in this file starts them again.
-      void closePasswordHashing().catch(() => {});
+      // Worker threads stop (awaited, so the next app of this file starts a fresh pool); the
+      // next hash starts them again.
+      await closePasswordHashing();
     },
   };
 }

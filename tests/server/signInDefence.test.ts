@@ -22,9 +22,9 @@ async function app(overrides: Parameters<typeof makeTestApp>[0] = {}) {
   open.push(ctx);
   return ctx;
 }
-afterEach(() => {
+afterEach(async () => {
   vi.restoreAllMocks();
-  for (const ctx of open.splice(0)) ctx.close();
+  for (const ctx of open.splice(0)) await ctx.close();
 });
 afterAll(() => closePasswordHashing());
 

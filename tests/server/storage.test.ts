@@ -184,7 +184,7 @@ describe('firm storage quota', () => {
       expect(small.db.select().from(auditLog).all().length).toBe(audit);
       expect(small.db.select().from(firmStorage).all()[0].bytes).toBe(used);
     } finally {
-      small.close();
+      await small.close();
     }
   });
 
@@ -199,7 +199,7 @@ describe('firm storage quota', () => {
       expect((await post(a, `/api/projects/${pid}/decks`, { deck: quarryCreekDeck(), message: 'sized' })).status).toBe(201);
       need = probe.db.select().from(firmStorage).all()[0].bytes - used;
     } finally {
-      probe.close();
+      await probe.close();
     }
     for (const [quota, status] of [
       [used + need, 201],
@@ -211,7 +211,7 @@ describe('firm storage quota', () => {
         const pid = (await a.get('/api/projects')).body.projects[0].id;
         expect((await post(a, `/api/projects/${pid}/decks`, { deck: quarryCreekDeck(), message: 'sized' })).status).toBe(status);
       } finally {
-        c.close();
+        await c.close();
       }
     }
   });

@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { deckSchema } from '../../../shared/deck/schema.js';
 import { personText } from '../../../shared/text.js';
+import { idText } from '../../middleware/validate.js';
 import { placementsSchema } from './placementsModel.js';
 
 const message = personText('message', 500, { multiline: true, min: 1, minMessage: 'a save message is required' });
@@ -24,6 +25,6 @@ export const versionCreateBody = z.strictObject({
 });
 
 export const versionParams = z.object({
-  deckId: z.coerce.number().int('deckId must be a whole number').positive('deckId must be a positive id'),
-  number: z.coerce.number().int('version number must be a whole number').positive('version number must be positive'),
+  deckId: idText('deckId'),
+  number: idText('version number'),
 });

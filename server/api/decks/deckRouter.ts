@@ -35,7 +35,7 @@ export function deckRouter(db: Db, config: StorageConfig): Router {
     res.status(201).json({ version: saveVersion(db, req.user!, res.locals.params.deckId, res.locals.body, policyOf(config)) });
   });
   r.get('/:deckId/versions/:number', allow('project:read'), validate({ params: versionParams }), (req, res) => {
-    res.json({ version: getVersion(db, req.user!.firmId, res.locals.params.deckId, res.locals.params.number) });
+    res.json({ version: getVersion(db, req.user!, res.locals.params.deckId, res.locals.params.number) });
   });
   return r;
 }

@@ -18,6 +18,7 @@ import { readStoredPlacements, type SavedPlacements } from './placementsModel.js
 import { encodeResultRow, encodedBytes, insertEncodedResult, MAX_RESULT_JSON_BYTES, ResultTooLargeError, resultsOfVersion } from '../../storage/storedResults.js';
 import { assertWithinQuota } from '../../storage/firmQuota.js';
 import { DEFAULT_FIRM_STORAGE_QUOTA_BYTES } from '../../config/env.js';
+import { withheldResults, type WithheldResults } from '../training/withheldResults.js';
 
 interface Actor {
   id: number;
@@ -57,12 +58,15 @@ function deckSummary(db: Db, d: DeckRow) {
   };
 }
 
-function fullVersion(db: Db, v: DeckVersionRow) {
+/** The version with its stored results, unless they are withheld from the reader (then none). */
+function fullVersion(db: Db, v: DeckVersionRow, withheld: WithheldResults | null = null) {
   return {
     ...versionSummary(db, v),
     deck: JSON.parse(v.deckJson) as Deck,
     placements: readStoredPlacements(v.placementsJson),
-    results: resultsOfVersion(db, v.id),
+    results: withheld ? [] : resultsOfVersion(db, v.id),
+    /** Set when the results are hidden from this reader (a trainee's open exercise on this version). */
+    resultsWithheld: withheld,
   };
 }
 
@@ -106,11 +110,11 @@ export function getDeck(db: Db, firmId: number, deckId: number, req?: PageReques
   return { deck: deckSummary(db, deck), versions, page };
 }
 
-export function getVersion(db: Db, firmId: number, deckId: number, number: number) {
-  findDeck(db, firmId, deckId);
+export function getVersion(db: Db, reader: Actor, deckId: number, number: number) {
+  findDeck(db, reader.firmId, deckId);
   const v = db.select().from(deckVersions).where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number))).get();
   if (!v) throw ApiError.notFound(`version ${number} of deck ${deckId}`);
-  return fullVersion(db, v);
+  return fullVersion(db, v, withheldResults(db, reader, v.id));
 }
 
 interface SaveInput {

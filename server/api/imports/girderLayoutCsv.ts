@@ -23,6 +23,7 @@
  * Output values are internal SI (m, m², m⁴).
  */
 import Papa from 'papaparse';
+import { toCsv } from '../../reports/csvText.js';
 import { fromUs } from '../../../shared/units.js';
 import type { SectionProperties } from '../../../shared/deck/schema.js';
 import { formatBound, PHYSICAL_LIMITS, type PhysicalRange } from '../../../shared/deck/limits.js';
@@ -225,5 +226,5 @@ export function girderLayoutTemplate(units: 'US' | 'SI'): string {
   const spacing = units === 'US' ? '9.6667' : '2.9464';
   const rows = [header, first];
   for (let g = 2; g <= 6; g++) rows.push([String(g), spacing, '', '', '', '']);
-  return Papa.unparse(rows, { newline: '\r\n' }) + '\r\n';
+  return toCsv(rows) + '\r\n';
 }

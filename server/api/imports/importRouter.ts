@@ -11,7 +11,7 @@ import { personText } from '../../../shared/text.js';
 import type { Db } from '../../db/client.js';
 import type { Config } from '../../config/env.js';
 import { allow } from '../../auth/passport.js';
-import { validate } from '../../middleware/validate.js';
+import { idText, validate } from '../../middleware/validate.js';
 import { ApiError } from '../../middleware/errors.js';
 import { receiveOneFile } from '../../uploads/receiveFile.js';
 import { girderLayoutTemplate } from './girderLayoutCsv.js';
@@ -21,7 +21,7 @@ export const MAX_CSV_BYTES = 256 * 1024;
 
 const templateQuery = z.strictObject({ units: z.enum(['US', 'SI'], { error: 'units must be "US" or "SI"' }).default('US') });
 const importFields = z.strictObject({
-  deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id'),
+  deckId: idText('deckId'),
   message: personText('message', 500, { multiline: true }).optional(),
   dryRun: z.enum(['true', 'false'], { error: 'dryRun must be "true" or "false"' }).default('false'),
 });

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { personText } from '../../../shared/text.js';
 import { pageFields } from '../pagination.js';
 import { REVIEW_STATES } from '../../db/schema.js';
+import { idText } from '../../middleware/validate.js';
 
 /** Effects and methods a comment may be anchored to (the factor table's own names). */
 export const ANCHOR_EFFECTS = ['moment', 'negative-moment', 'shear', 'reaction', 'fatigue-moment', 'fatigue-shear', 'deflection'] as const;
@@ -56,12 +57,12 @@ export const listQuery = z.strictObject({
   /** 'assigned': rounds I review; 'submitted': rounds I submitted; 'all': the firm's. */
   view: z.enum(['assigned', 'submitted', 'all'], { error: 'view must be assigned, submitted or all' }).default('all'),
   state: z.enum(REVIEW_STATES, { error: `state must be one of ${REVIEW_STATES.join(', ')}` }).optional(),
-  deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id').optional(),
+  deckId: idText('deckId').optional(),
   ...pageFields,
 });
 
 export const statusQuery = z.strictObject({
-  deckId: z.coerce.number({ error: 'deckId must be a number' }).int('deckId must be a whole number').positive('deckId must be a positive id'),
+  deckId: idText('deckId'),
   ...pageFields,
 });
 

@@ -20,6 +20,7 @@ import { commentBody, decisionBody, listQuery, refinedBody, statusQuery, submitB
 import { addComment, decide, deckReviewStatus, findRound, getReview, listReviewers, listReviews, recordRefinedDecision, submitForReview, withdrawReview, type ReviewDeps } from './reviewService.js';
 import { refinedSummaryOf } from './refinedSummary.js';
 import { findVersion } from './reviewService.js';
+import { assertResultsVisible } from '../training/withheldResults.js';
 import type { RefinedPool } from '../../compute/refinedPool.js';
 
 export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: RefinedPool): Router {
@@ -40,8 +41,10 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: Refin
     res.status(201).json({ review: submitForReview(deps, req.user!, res.locals.body) });
   });
   r.get('/:reviewId', allow('review:read'), reviewId, async (req, res) => {
-    const review = getReview(db, req.user!, res.locals.params.reviewId);
-    const round = findRound(db, req.user!.firmId, review.id);
+    const round = findRound(db, req.user!.firmId, res.locals.params.reviewId);
+    // The round's comments and summary quote the version's results.
+    assertResultsVisible(db, req.user!, round.versionId);
+    const review = getReview(db, req.user!, round.id);
     res.json({ review, summary: await refinedSummaryOf(db, pool, findVersion(db, req.user!.firmId, round.versionId).v) });
   });
   r.post('/:reviewId/comments', allow('review:comment'), validate({ params: idParams('reviewId'), body: commentBody }), (req, res) => {

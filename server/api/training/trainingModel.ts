@@ -87,8 +87,9 @@ export const stepSchema = z.strictObject({
 });
 
 export const submissionBody = z.strictObject({
-  /** The trainee's value of the factor asked for (lanes per girder). */
-  value: finite('value'),
+  /** The trainee's value of the factor asked for (lanes per girder). Beyond ±1000 it is a typing
+   *  error (common practice, no source), and its difference from the answer would not be finite. */
+  value: finite('value').min(-1000, 'value must be between -1000 and 1000 lanes per girder').max(1000, 'value must be between -1000 and 1000 lanes per girder'),
   steps: z.array(stepSchema).max(40, 'at most 40 steps').default([]),
   placement: placementSchema.optional(),
 });

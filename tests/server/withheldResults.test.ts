@@ -1,0 +1,99 @@
+/** A trainee cannot read the results of a deck version while an exercise on it is open for
+ *  them: the version's stored results, the review round and its summary, the calculation
+ *  package and the CSV tables are withheld (the deck inputs stay readable) until they submit;
+ *  other readers and other versions are unaffected. */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { quarryCreekDeck } from '../fixtures/decks.js';
+import { demo, signIn, type Agent } from './helpers.js';
+import { addUser, makeWorkflowApp, send, userId, type WorkflowContext } from './workflowHelpers.js';
+
+let ctx: WorkflowContext;
+let designer: Agent;
+let instructor: Agent;
+let trainee: Agent;
+let otherTrainee: Agent;
+/** A trainee who also reviews, so the review and report routes are open to them by role. */
+let dual: Agent;
+let deckId: number;
+let reviewId: number;
+let exerciseId: number;
+let dualExerciseId: number;
+const due = () => new Date(Date.now() + 7 * 86400_000).toISOString();
+const question = { kind: 'factor', params: { girder: 'exterior', effect: 'moment', lanes: 'multiple', method: 'governing' }, tolerancePercent: 1 };
+
+beforeAll(async () => {
+  ctx = await makeWorkflowApp();
+  designer = await signIn(ctx.app, demo.designer);
+  instructor = await signIn(ctx.app, demo.instructor);
+  trainee = await signIn(ctx.app, demo.trainee);
+  otherTrainee = (await addUser(ctx, 'other-trainee@larchmont-ridge.example', ['trainee'])).agent;
+  const dualUser = await addUser(ctx, 'trainee-reviewer@larchmont-ridge.example', ['trainee', 'reviewer']);
+  dual = dualUser.agent;
+  const projectId = (await designer.get('/api/projects')).body.projects[0].id;
+  const created = await send.post(designer, `/api/projects/${projectId}/decks`, { deck: quarryCreekDeck(), message: 'exercise deck' });
+  deckId = created.body.deck.id;
+  const versionId = created.body.version.id;
+  reviewId = (await send.post(designer, '/api/reviews', { versionId, reviewerId: userId(ctx, demo.reviewer) })).body.review.id;
+  await send.post(designer, `/api/decks/${deckId}/versions`, { deck: { ...quarryCreekDeck(), overhangLeft: 1.2 }, message: 'a later layout' });
+  const make = async (traineeIds: number[]) => {
+    const res = await send.post(instructor, '/api/training/assignments', { ...question, versionId, dueAt: due(), traineeIds });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    return res.body.assignment.id as number;
+  };
+  exerciseId = await make([userId(ctx, demo.trainee)]);
+  dualExerciseId = await make([dualUser.id]);
+});
+afterAll(() => ctx.close());
+
+const version1 = (a: Agent) => a.get(`/api/decks/${deckId}/versions/1`);
+const reports = () => ['package.pdf', 'factors.csv', 'envelopes.csv'].map((f) => `/api/reports/decks/${deckId}/versions/1/${f}`);
+
+describe('results withheld during an open exercise', () => {
+  it('the trainee reads the deck of the version but not its results, and is told why', async () => {
+    const res = await version1(trainee);
+    expect(res.status).toBe(200);
+    expect(res.body.version.deck.name).toBe(quarryCreekDeck().name);
+    expect(res.body.version.results).toEqual([]);
+    expect(res.body.version.resultsWithheld).toMatchObject({ reason: 'open-exercise', exercises: [{ id: exerciseId }] });
+    expect(res.body.version.resultsWithheld.message).toMatch(/hidden until you submit/);
+    expect(JSON.stringify(res.body)).not.toMatch(/"factors"|"governing"/);
+  });
+
+  it('other versions, other trainees and the designer still see the results', async () => {
+    const later = await trainee.get(`/api/decks/${deckId}/versions/2`);
+    expect(later.body.version.resultsWithheld).toBeNull();
+    expect(later.body.version.results.map((r: { method: string }) => r.method)).toContain('code');
+    for (const a of [otherTrainee, designer]) {
+      const res = await version1(a);
+      expect(res.body.version.resultsWithheld).toBeNull();
+      expect(res.body.version.results.find((r: { method: string }) => r.method === 'code').data.factors.length).toBeGreaterThan(0);
+    }
+  });
+
+  it('a trainee who also reviews gets 403 results_withheld from the review round and every report of that version', async () => {
+    const review = await dual.get(`/api/reviews/${reviewId}`);
+    expect(review.status).toBe(403);
+    expect(review.body.error).toMatchObject({ code: 'results_withheld', details: [] });
+    expect(review.body.error.message).toMatch(/hidden until you submit/);
+    const reviewer = await signIn(ctx.app, demo.reviewer);
+    expect((await reviewer.get(`/api/reviews/${reviewId}`)).status).toBe(200);
+    for (const url of reports()) {
+      const res = await dual.get(url);
+      expect(res.status, url).toBe(403);
+      expect(res.body.error.code, url).toBe('results_withheld');
+      expect((await reviewer.get(url)).status, url).toBe(200);
+    }
+  });
+
+  it('after submitting, the trainee sees the results everywhere', async () => {
+    const sub = await send.post(trainee, `/api/training/mine/${exerciseId}/submissions`, { value: 0.7 });
+    expect(sub.status).toBe(201);
+    const res = await version1(trainee);
+    expect(res.body.version.resultsWithheld).toBeNull();
+    expect(res.body.version.results.map((r: { method: string }) => r.method)).toContain('code');
+
+    expect((await send.post(dual, `/api/training/mine/${dualExerciseId}/submissions`, { value: 0.7 })).status).toBe(201);
+    expect((await dual.get(`/api/reviews/${reviewId}`)).status).toBe(200);
+    for (const url of reports()) expect((await dual.get(url)).status, url).toBe(200);
+  });
+});
