@@ -1,8 +1,9 @@
 /** Starts the server: reads the environment, sizes the password-hashing pool, opens (and
  *  migrates) the database, prepares an empty one as configured (server/db/bootstrap.ts: the
  *  demo firm only with `--demo` or SEED_DEMO=true outside production, or a first
- *  administrator), starts the refined-analysis pool, listens, and shuts down cleanly on
- *  SIGINT/SIGTERM (connections, mail, hashing threads, refined-analysis threads, database). */
+ *  administrator), starts the refined-analysis pool and, when configured, periodic backups,
+ *  listens, and shuts down cleanly on SIGINT/SIGTERM (connections, a backup in progress, mail,
+ *  hashing threads, refined-analysis threads, database). */
 import { loadConfig } from './config/env.js';
 import { openDatabase } from './db/client.js';
 import { bootstrapDatabase } from './db/bootstrap.js';
@@ -10,6 +11,7 @@ import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
 import { closePasswordHashing, configurePasswordHashing } from './auth/password.js';
 import { refinedPoolFor } from './compute/refinedPool.js';
+import { startPeriodicBackup } from './backup/periodic.js';
 
 async function main() {
   const config = loadConfig();
@@ -28,13 +30,15 @@ async function main() {
     }
     console.log(`Deckshare is serving on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${config.port} (database ${config.databaseUrl})`);
   });
+  const backups = config.backup ? startPeriodicBackup({ databaseUrl: config.databaseUrl, ...config.backup, log: (line) => console.log(line) }) : null;
+  if (config.backup) console.log(`Backups: every ${config.backup.everyMinutes} min into ${config.backup.dir}, newest ${config.backup.keep} kept`);
   let stopping = false;
   const stop = (signal: string) => {
     if (stopping) return;
     stopping = true;
     console.log(`${signal}: closing connections…`);
     server.close(() => {
-      void Promise.allSettled([mail.close(), closePasswordHashing(), refinedPool.close()]).then(() => {
+      void Promise.allSettled([backups?.stop(), mail.close(), closePasswordHashing(), refinedPool.close()]).then(() => {
         db.$client.close();
         console.log('Deckshare stopped.');
         process.exit(0);

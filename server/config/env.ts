@@ -87,6 +87,12 @@ const envSchema = z.object({
   CLIENT_DIST: z.string().default('./dist'),
   /** Public address of the product, used in e-mailed links. */
   PUBLIC_URL: z.string().url().optional(),
+  /** Folder for periodic backups; unset = no periodic backups. */
+  BACKUP_DIR: z.string().trim().min(1, 'BACKUP_DIR must name a folder').optional(),
+  /** Minutes between periodic backups (with BACKUP_DIR). */
+  BACKUP_EVERY_MINUTES: z.coerce.number().int('BACKUP_EVERY_MINUTES must be a whole number').min(1).max(7 * 24 * 60).default(60),
+  /** Periodic backups kept (the newest); older ones are deleted. */
+  BACKUP_KEEP: z.coerce.number().int('BACKUP_KEEP must be a whole number').min(1).max(1000).default(7),
   /** Stored deck data (versions and their results) allowed per firm, MB. */
   FIRM_STORAGE_QUOTA_MB: z.coerce.number().int('FIRM_STORAGE_QUOTA_MB must be a whole number').min(1).max(1024 * 1024).default(DEFAULT_FIRM_STORAGE_QUOTA_MB),
   /** Worker threads of the refined-analysis pool (default: cores − 1, at least 1). */
@@ -125,6 +131,8 @@ export interface Config {
   publicUrl: string;
   /** Served over HTTPS (production): cookies marked Secure, HSTS and upgrade-insecure-requests sent. */
   secureCookies: boolean;
+  /** Periodic backups (server/backup/periodic.ts); null when BACKUP_DIR is unset. */
+  backup: { dir: string; everyMinutes: number; keep: number } | null;
   /** Stored deck data allowed per firm, bytes (FIRM_STORAGE_QUOTA_MB). */
   firmStorageQuotaBytes: number;
   /** The refined-analysis pool (server/compute/refinedPool.ts). */
@@ -175,6 +183,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     clientDist: e.CLIENT_DIST,
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     secureCookies: e.NODE_ENV === 'production',
+    backup: e.BACKUP_DIR ? { dir: e.BACKUP_DIR, everyMinutes: e.BACKUP_EVERY_MINUTES, keep: e.BACKUP_KEEP } : null,
     firmStorageQuotaBytes: e.FIRM_STORAGE_QUOTA_MB * 1024 * 1024,
     refinedThreads: e.REFINED_THREADS ?? Math.max(1, availableParallelism() - 1),
     refinedJobMs: e.REFINED_JOB_SECONDS * 1000,

@@ -18,11 +18,17 @@ import * as schema from './schema.js';
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
-const MIGRATIONS = resolve(dirname(fileURLToPath(import.meta.url)), 'migrations');
+/** The committed migrations (also read by server/backup to recognise a Deckshare database). */
+export const MIGRATIONS = resolve(dirname(fileURLToPath(import.meta.url)), 'migrations');
+
+/** The file path of a DATABASE_URL: a path, optionally prefixed "file:", or ":memory:". */
+export function databaseFilePath(url: string): string {
+  return url.startsWith('file:') ? url.slice(5) : url;
+}
 
 /** `url`: a file path (optionally prefixed "file:") or ":memory:". */
 export function openDatabase(url: string): Db {
-  const path = url.startsWith('file:') ? url.slice(5) : url;
+  const path = databaseFilePath(url);
   if (path !== ':memory:') mkdirSync(dirname(resolve(path)), { recursive: true });
   const sqlite = new Database(path);
   sqlite.pragma('journal_mode = WAL');
