@@ -138,3 +138,14 @@ describe('drawings', () => {
     expect(audit.summary).toContain(`(${name}, application/pdf`);
   });
 });
+
+describe('file names', () => {
+  it('a file name keeps its letters but loses bidirectional overrides and control characters (stored NFC)', async () => {
+    // "plan\u202Efdp.exe" would read as "planexe.pdf" on screen; "Pont de l’Aube\u0301" is NFD
+    const spoof = await upload(designer, PDF, 'plan\u202Efdp.exe.pdf', 'application/pdf');
+    expect(spoof.status).toBe(201);
+    expect(spoof.body.attachment.originalName).toBe('planfdp.exe.pdf');
+    const nfd = await upload(designer, PDF, 'Pont de l’Aube\u0301\u0085.pdf', 'application/pdf');
+    expect(nfd.body.attachment.originalName).toBe('Pont de l’Aubé.pdf');
+  });
+});

@@ -54,11 +54,17 @@ export function findAttachment(db: Db, firmId: number, attachmentId: number): At
   return row.a;
 }
 
-/** A file name safe to show and to send back in Content-Disposition. */
+/**
+ * A file name safe to show and to send back in Content-Disposition: the last path part, in
+ * Unicode NFC, without control characters (C0, DEL, C1), quotes, or the bidirectional
+ * embedding, override and isolate controls that make a name read differently from what it holds
+ * ("plan\u202Efdp.exe" would show as "planexe.pdf"); the same characters shared/text.ts refuses
+ * in typed names, removed here because nobody typed them.
+ */
 function cleanName(name: string): string {
-  const base = name.split(/[\\/]/).pop() ?? '';
+  const base = name.normalize('NFC').split(/[\\/]/).pop() ?? '';
   // eslint-disable-next-line no-control-regex
-  const cleaned = base.replace(/[\u0000-\u001f\u007f"]/g, '').trim().slice(0, 200);
+  const cleaned = base.replace(/[\u0000-\u001f\u007f-\u009f"\u202a-\u202e\u2066-\u2069]/g, '').trim().slice(0, 200);
   return cleaned || 'drawing';
 }
 
