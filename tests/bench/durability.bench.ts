@@ -39,6 +39,7 @@ async function run(mode: 'FULL' | 'NORMAL') {
   return { saveMs, commitMs };
 }
 
+await run('NORMAL'); // warm-up: the solver's first runs are slower (JIT), whichever mode goes first
 const full = await run('FULL');
 const normal = await run('NORMAL');
 const line = (label: string, r: { saveMs: number; commitMs: number }) =>
