@@ -148,4 +148,17 @@ describe('file names', () => {
     const nfd = await upload(designer, PDF, 'Pont de l’Aube\u0301\u0085.pdf', 'application/pdf');
     expect(nfd.body.attachment.originalName).toBe('Pont de l’Aubé.pdf');
   });
+
+  it('a polyglot (a PDF header with HTML after it) is kept as a PDF and only ever downloaded, never rendered', async () => {
+    const polyglot = Buffer.concat([Buffer.from('%PDF-1.4\n'), Buffer.from('<html><script>alert(document.cookie)</script></html>\n%%EOF\n')]);
+    const up = await upload(designer, polyglot, 'sheet.html', 'text/html');
+    expect(up.status).toBe(201);
+    expect(up.body.attachment.contentType).toBe('application/pdf');
+    const dl = await designer.get(`/api/attachments/${up.body.attachment.id}/download`);
+    expect(dl.status).toBe(200);
+    expect(dl.headers['content-type']).toBe('application/pdf');
+    expect(dl.headers['content-disposition']).toMatch(/^attachment;/);
+    expect(dl.headers['x-content-type-options']).toBe('nosniff');
+    expect(dl.headers['content-security-policy']).toMatch(/script-src 'self'/);
+  });
 });
