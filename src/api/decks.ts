@@ -33,7 +33,8 @@ export async function saveVersion(
   return version;
 }
 
-export async function getVersion(deckId: number, number: number): Promise<DeckVersion> {
-  const { version } = await http.get<{ version: DeckVersion }>(`/api/decks/${deckId}/versions/${number}`);
+/** A saved version; `withResults` adds its stored results' data (otherwise only their headings). */
+export async function getVersion(deckId: number, number: number, withResults = false): Promise<DeckVersion> {
+  const { version } = await http.get<{ version: DeckVersion }>(`/api/decks/${deckId}/versions/${number}`, withResults ? { include: 'results' } : undefined);
   return version;
 }

@@ -86,7 +86,8 @@ export interface DeckSummary {
 export interface StoredResult {
   method: string;
   solverVersion: string;
-  data: unknown;
+  /** Present when the version was fetched with its results (`?include=results`). */
+  data?: unknown;
   createdAt: string;
 }
 

@@ -156,11 +156,12 @@ export const useDeckStore = defineStore('deck', () => {
     return project.value;
   }
 
-  async function fetchVersion(forDeck: number, number: number): Promise<DeckVersion> {
-    const key = `${forDeck}:${number}`;
+  /** A saved version (cached); `withResults` also brings its stored results' data. */
+  async function fetchVersion(forDeck: number, number: number, withResults = false): Promise<DeckVersion> {
+    const key = `${forDeck}:${number}${withResults ? ':results' : ''}`;
     const cached = versionCache.get(key);
     if (cached) return cached;
-    const v = await decksApi.getVersion(forDeck, number);
+    const v = await decksApi.getVersion(forDeck, number, withResults);
     // Withheld results are shown once the trainee submits: ask again next time.
     if (!v.resultsWithheld) versionCache.set(key, v);
     return v;

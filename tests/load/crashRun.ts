@@ -132,7 +132,7 @@ const packagePath = (deckId: number, n: number) => `/api/reports/decks/${deckId}
 /** After the restart: the killed version reads back (its stored results decode) and exports whole. */
 async function afterExportRestart(server: RunningServer, deckId: number, n: number) {
   const session = await signIn(server.url, DEMO.designer);
-  const v = await getJson<{ version?: { results?: { method: string }[] } }>(server.url, session, `/api/decks/${deckId}/versions/${n}`);
+  const v = await getJson<{ version?: { results?: { method: string }[] } }>(server.url, session, `/api/decks/${deckId}/versions/${n}?include=results`);
   const again = await fetchPdf(`${server.url}${packagePath(deckId, n)}`, session);
   return {
     version: { status: v.status, methods: (v.body.version?.results ?? []).map((r) => r.method) },

@@ -103,8 +103,16 @@ describe('decks and versions', () => {
     expect(first.status).toBe(201);
     const deckId = first.body.deck.id;
     expect(first.body.version.number).toBe(1);
-    // The stored code-method result is the solver's own answer for the saved deck.
-    const stored = first.body.version.results.find((r: { method: string }) => r.method === 'code');
+    // The save answers with the headings of its stored results; their data is fetched with
+    // ?include=results. The stored code-method result is the solver's own answer for the saved deck.
+    expect(first.body.version.results).toEqual([{ method: 'code', solverVersion: SOLVER_VERSION, createdAt: expect.any(String) }]);
+    const light = await designer.get(`/api/decks/${deckId}/versions/1`);
+    const full = await designer.get(`/api/decks/${deckId}/versions/1?include=results`);
+    // the version's page stays small; the big part (every factor row and its trace) comes on request
+    expect(light.text.length).toBeLessThan(10_000);
+    expect(full.text.length).toBeGreaterThan(5 * light.text.length);
+    expect((await designer.get(`/api/decks/${deckId}/versions/1?include=everything`)).body.error.details).toEqual([{ path: 'query.include', message: 'include must be "results"' }]);
+    const stored = full.body.version.results.find((r: { method: string }) => r.method === 'code');
     expect(stored.solverVersion).toBe(SOLVER_VERSION);
     const expected = computeCodeFactors(assertDeck(deck));
     expect(stored.data.governing).toEqual(JSON.parse(JSON.stringify(expected.governing)));

@@ -53,7 +53,7 @@ beforeAll(async () => {
   await send.put(reviewer, `/api/reviews/${round.body.review.id}/refined-analysis`, { justified: false, reason: 'Every formula within its range; skew below 30°.' });
   await send.post(reviewer, `/api/reviews/${round.body.review.id}/decision`, { outcome: 'approve', note: '' });
   reviewId = round.body.review.id;
-  const code = (await designer.get(`/api/decks/${deckId}/versions/1`)).body.version.results.find((r: { method: string }) => r.method === 'code').data;
+  const code = (await designer.get(`/api/decks/${deckId}/versions/1?include=results`)).body.version.results.find((r: { method: string }) => r.method === 'code').data;
   codeRows = code.factors;
   governing = code.governing;
 });

@@ -126,7 +126,7 @@ describe('stored results', () => {
     expect(row.encoding).toBe('brotli-json');
     expect(row.dataJson).toBe('');
     expect(row.dataBlob!.length).toBeLessThan(json.length / 5);
-    const got = await designer.get(`/api/decks/${created.body.deck.id}/versions/1`);
+    const got = await designer.get(`/api/decks/${created.body.deck.id}/versions/1?include=results`);
     expect(got.body.version.results.find((r: { method: string }) => r.method === 'code').data).toEqual(JSON.parse(json));
   });
 
@@ -136,7 +136,7 @@ describe('stored results', () => {
     const v1 = ctx.db.select().from(deckVersions).where(eq(deckVersions.id, created.body.version.id)).get()!;
     const v2 = ctx.db.insert(deckVersions).values({ deckId, number: 2, deckJson: v1.deckJson, message: 'older release', createdBy: v1.createdBy }).returning().get();
     ctx.db.insert(analysisResults).values({ versionId: v2.id, method: 'code', solverVersion: 'older', dataJson: JSON.stringify({ marker: 'plain json' }) }).run();
-    const got = await designer.get(`/api/decks/${deckId}/versions/2`);
+    const got = await designer.get(`/api/decks/${deckId}/versions/2?include=results`);
     expect(got.status).toBe(200);
     expect(got.body.version.results).toEqual([expect.objectContaining({ method: 'code', solverVersion: 'older', data: { marker: 'plain json' } })]);
   });

@@ -28,7 +28,7 @@ beforeAll(async () => {
   const projectId = (await designer.get('/api/projects')).body.projects[0].id;
   const created = await send.post(designer, `/api/projects/${projectId}/decks`, { deck: quarryCreekDeck(), message: 'for training' });
   versionId = created.body.version.id;
-  const v = await designer.get(`/api/decks/${created.body.deck.id}/versions/1`);
+  const v = await designer.get(`/api/decks/${created.body.deck.id}/versions/1?include=results`);
   codeRows = v.body.version.results.find((r: { method: string }) => r.method === 'code').data.factors;
 });
 afterAll(() => ctx.close());

@@ -45,7 +45,7 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-const version1 = (a: Agent) => a.get(`/api/decks/${deckId}/versions/1`);
+const version1 = (a: Agent) => a.get(`/api/decks/${deckId}/versions/1?include=results`);
 const reports = () => ['package.pdf', 'factors.csv', 'envelopes.csv'].map((f) => `/api/reports/decks/${deckId}/versions/1/${f}`);
 
 describe('results withheld during an open exercise', () => {

@@ -28,3 +28,8 @@ export const versionParams = z.object({
   deckId: idText('deckId'),
   number: idText('version number'),
 });
+
+/** `?include=results` adds the stored results' data (every factor row with its trace) to a version. */
+export const versionQuery = z.strictObject({
+  include: z.enum(['results'], { error: 'include must be "results"' }).optional(),
+});

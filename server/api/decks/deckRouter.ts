@@ -4,7 +4,7 @@ import type { Db } from '../../db/client.js';
 import type { Config } from '../../config/env.js';
 import { allow } from '../../auth/passport.js';
 import { idParams, validate } from '../../middleware/validate.js';
-import { deckCreateBody, versionCreateBody, versionParams } from './deckModel.js';
+import { deckCreateBody, versionCreateBody, versionParams, versionQuery } from './deckModel.js';
 import { createDeck, getDeck, getVersion, listDecks, listVersions, saveVersion, type StoragePolicy } from './deckService.js';
 import { pageQuery } from '../pagination.js';
 
@@ -34,8 +34,8 @@ export function deckRouter(db: Db, config: StorageConfig): Router {
   r.post('/:deckId/versions', allow('deck:save'), validate({ params: idParams('deckId'), body: versionCreateBody }), (req, res) => {
     res.status(201).json({ version: saveVersion(db, req.user!, res.locals.params.deckId, res.locals.body, policyOf(config)) });
   });
-  r.get('/:deckId/versions/:number', allow('project:read'), validate({ params: versionParams }), (req, res) => {
-    res.json({ version: getVersion(db, req.user!, res.locals.params.deckId, res.locals.params.number) });
+  r.get('/:deckId/versions/:number', allow('project:read'), validate({ params: versionParams, query: versionQuery }), (req, res) => {
+    res.json({ version: getVersion(db, req.user!, res.locals.params.deckId, res.locals.params.number, res.locals.query.include === 'results') });
   });
   return r;
 }

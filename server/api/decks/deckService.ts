@@ -5,9 +5,9 @@
  * Results are stored compressed (server/storage/storedResults.ts); a save that would take the
  * firm past its storage quota is refused before anything is written (server/storage/firmQuota.ts).
  */
-import { and, count, desc, eq, lt, max } from 'drizzle-orm';
+import { and, asc, count, desc, eq, lt, max } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
-import { decks, deckVersions, projects, users, type DeckRow, type DeckVersionRow } from '../../db/schema.js';
+import { analysisResults, decks, deckVersions, projects, users, type DeckRow, type DeckVersionRow } from '../../db/schema.js';
 import type { Deck } from '../../../shared/deck/schema.js';
 import { ApiError } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
@@ -59,12 +59,27 @@ function deckSummary(db: Db, d: DeckRow) {
 }
 
 /** The version with its stored results, unless they are withheld from the reader (then none). */
-function fullVersion(db: Db, v: DeckVersionRow, withheld: WithheldResults | null = null) {
+/** Which stored results a version's answer holds (method, solver version, time), without their data. */
+function resultHeadings(db: Db, versionId: number) {
+  return db
+    .select({ method: analysisResults.method, solverVersion: analysisResults.solverVersion, createdAt: analysisResults.createdAt })
+    .from(analysisResults)
+    .where(eq(analysisResults.versionId, versionId))
+    .orderBy(asc(analysisResults.id))
+    .all();
+}
+
+/**
+ * A version as the API answers it: its deck, placements and the headings of its stored
+ * results. The results' data (the big part: every factor row with its trace, up to about 8 MB
+ * of JSON on the widest decks) comes only with `withResults` (`?include=results`).
+ */
+function fullVersion(db: Db, v: DeckVersionRow, withheld: WithheldResults | null = null, withResults = false) {
   return {
     ...versionSummary(db, v),
     deck: JSON.parse(v.deckJson) as Deck,
     placements: readStoredPlacements(v.placementsJson),
-    results: withheld ? [] : resultsOfVersion(db, v.id),
+    results: withheld ? [] : withResults ? resultsOfVersion(db, v.id) : resultHeadings(db, v.id),
     /** Set when the results are hidden from this reader (a trainee's open exercise on this version). */
     resultsWithheld: withheld,
   };
@@ -110,11 +125,12 @@ export function getDeck(db: Db, firmId: number, deckId: number, req?: PageReques
   return { deck: deckSummary(db, deck), versions, page };
 }
 
-export function getVersion(db: Db, reader: Actor, deckId: number, number: number) {
+/** A version of the deck; `withResults`: with its stored results' data too. */
+export function getVersion(db: Db, reader: Actor, deckId: number, number: number, withResults = false) {
   findDeck(db, reader.firmId, deckId);
   const v = db.select().from(deckVersions).where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number))).get();
   if (!v) throw ApiError.notFound(`version ${number} of deck ${deckId}`);
-  return fullVersion(db, v, withheldResults(db, reader, v.id));
+  return fullVersion(db, v, withheldResults(db, reader, v.id), withResults);
 }
 
 interface SaveInput {

@@ -93,7 +93,7 @@ export async function readBack(baseUrl: string, session: Session, targets: SaveT
     while (next < acks.length) {
       const ack = acks[next++];
       const target = byDeck.get(ack.deckId)!;
-      const res = await getJson<VersionBody>(baseUrl, session, `/api/decks/${target.deckId}/versions/${ack.number}`);
+      const res = await getJson<VersionBody>(baseUrl, session, `/api/decks/${target.deckId}/versions/${ack.number}?include=results`);
       const problem = compare(target, run, ack, res.status, res.body);
       if (problem) problems.push(problem);
     }
