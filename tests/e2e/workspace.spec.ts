@@ -261,6 +261,10 @@ describe('deck workspace in the browser', () => {
     const { page } = h;
     await page.keyboard.press('Escape');
     await page.locator('[data-test="history-drawer"]').waitFor({ state: 'hidden' }).catch(() => undefined);
+    // Start from an idle workspace: starting from version 1 changed the deck, which runs the
+    // solver after the editor's 450 ms pause; that run must not start after the cancel below.
+    await page.waitForTimeout(600);
+    await page.locator('[data-test="solver-progress"]').waitFor({ state: 'detached', timeout: 100_000 });
     await page.locator('[data-test="results-tabs"] .ant-tabs-tab', { hasText: 'Findings and model' }).click();
     await page.locator('[data-test="mesh-density"]').click();
     await page.locator('.ant-select-item-option', { hasText: '80 segments per span' }).click();
