@@ -21,25 +21,33 @@ export interface ForbiddenCharacter {
 
 const hex = (cp: number) => `U+${cp.toString(16).toUpperCase().padStart(4, '0')}`;
 
+/** Why the rule refuses one code point, or null when it is allowed. */
+function refusal(cp: number, multiline: boolean): string | null {
+  if (cp >= 0xd800 && cp <= 0xdfff) return 'a broken character (lone surrogate)';
+  if ((cp < 0x20 || (cp >= 0x7f && cp <= 0x9f)) && !(multiline && (cp === 0x0a || cp === 0x09))) return 'a control character';
+  if ((cp >= 0x202a && cp <= 0x202e) || (cp >= 0x2066 && cp <= 0x2069)) {
+    return 'a bidirectional control character (it makes the text read differently from what it holds)';
+  }
+  return null;
+}
+
 /** The first character the rule refuses, or null. */
 export function forbiddenCharacter(text: string, multiline: boolean): ForbiddenCharacter | null {
   let position = 0;
-  for (let i = 0; i < text.length; i++) {
+  for (const ch of text) {
     position++;
-    const cp = text.codePointAt(i)!;
-    if (cp > 0xffff) {
-      i++;
-      continue;
-    }
-    if (cp >= 0xd800 && cp <= 0xdfff) return { position, codePoint: cp, why: 'a broken character (lone surrogate)' };
-    if ((cp < 0x20 || (cp >= 0x7f && cp <= 0x9f)) && !(multiline && (cp === 0x0a || cp === 0x09))) {
-      return { position, codePoint: cp, why: 'a control character' };
-    }
-    if ((cp >= 0x202a && cp <= 0x202e) || (cp >= 0x2066 && cp <= 0x2069)) {
-      return { position, codePoint: cp, why: 'a bidirectional control character (it makes the text read differently from what it holds)' };
-    }
+    const cp = ch.codePointAt(0)!;
+    const why = refusal(cp, multiline);
+    if (why) return { position, codePoint: cp, why };
   }
   return null;
+}
+
+/** The text in NFC without the characters the rule refuses (for text nobody typed: file names). */
+export function withoutForbiddenCharacters(text: string): string {
+  let out = '';
+  for (const ch of text.normalize('NFC')) if (!refusal(ch.codePointAt(0)!, false)) out += ch;
+  return out;
 }
 
 /** The message for a refused character. */

@@ -78,6 +78,16 @@ export function resultsOfVersion(db: DbOrTx, versionId: number): StoredResultRow
     .map((r) => ({ method: r.method, solverVersion: r.solverVersion, data: decodeResult(r), createdAt: r.createdAt }));
 }
 
+/** The headings of a version's stored results (method, solver version, time): nothing decoded. */
+export function resultHeadingsOfVersion(db: DbOrTx, versionId: number): Omit<StoredResultRow, 'data'>[] {
+  return db
+    .select({ method: analysisResults.method, solverVersion: analysisResults.solverVersion, createdAt: analysisResults.createdAt })
+    .from(analysisResults)
+    .where(eq(analysisResults.versionId, versionId))
+    .orderBy(asc(analysisResults.id))
+    .all();
+}
+
 /** The newest stored result of a method for a version, or null. */
 export function newestResult(db: DbOrTx, versionId: number, method: string): StoredResultRow | null {
   const r = db

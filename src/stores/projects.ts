@@ -4,6 +4,7 @@ import { ref } from 'vue';
 import * as projectsApi from '@/api/projects';
 import * as decksApi from '@/api/decks';
 import * as auditApi from '@/api/audit';
+import { appendNextPage } from '@/composables/usePagedList';
 import type { ArchivedFilter, AuditEntry, DeckSummary, NewProject, Page, Project, ProjectChanges } from '@/api/types';
 
 export const useProjectsStore = defineStore('projects', () => {
@@ -89,11 +90,10 @@ export const useProjectsStore = defineStore('projects', () => {
 
   /** Appends the next (older) page of the audit trail. */
   async function fetchOlderAudit(projectId: number): Promise<void> {
-    const cursor = auditPage.value?.nextCursor;
-    if (!cursor) return;
-    const answer = await auditApi.listProjectAudit(projectId, cursor);
-    currentAudit.value = [...currentAudit.value, ...answer.entries];
-    auditPage.value = answer.page;
+    await appendNextPage(currentAudit, auditPage, async (cursor) => {
+      const answer = await auditApi.listProjectAudit(projectId, cursor);
+      return { rows: answer.entries, page: answer.page };
+    });
   }
 
   return {

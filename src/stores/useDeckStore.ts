@@ -10,6 +10,7 @@ import type { UnitSystem } from '@shared/units';
 import * as decksApi from '@/api/decks';
 import * as projectsApi from '@/api/projects';
 import type { DeckSummary, DeckVersion, Page, Project, VersionSummary } from '@/api/types';
+import { appendNextPage } from '@/composables/usePagedList';
 import { validateDeck } from '@/components/deck/deckValidation';
 import { deckTemplate, type DeckTemplateKey } from '@/components/deck/deckTemplates';
 import { getAt, pathKey, setAt, type FieldPath } from '@/components/deck/deckPaths';
@@ -177,11 +178,12 @@ export const useDeckStore = defineStore('deck', () => {
 
   /** Appends the next page of older versions to the history. */
   async function fetchOlderVersions(): Promise<void> {
-    const cursor = versionsPage.value?.nextCursor;
-    if (deckId.value === null || !cursor) return;
-    const answer = await decksApi.listVersions(deckId.value, cursor);
-    versions.value = [...versions.value, ...answer.versions];
-    versionsPage.value = answer.page;
+    const forDeck = deckId.value;
+    if (forDeck === null) return;
+    await appendNextPage(versions, versionsPage, async (cursor) => {
+      const answer = await decksApi.listVersions(forDeck, cursor);
+      return { rows: answer.versions, page: answer.page };
+    });
   }
 
   function applyVersion(v: DeckVersion, asMode: WorkspaceMode): void {

@@ -4,6 +4,7 @@ import { ref } from 'vue';
 import * as mailApi from '@/api/mail';
 import type { Invitation, MailKind, OutboxMessage } from '@/api/mail';
 import type { Page } from '@/api/types';
+import { appendNextPage } from '@/composables/usePagedList';
 
 export const useOutboxStore = defineStore('outbox', () => {
   const messages = ref<OutboxMessage[]>([]);
@@ -28,13 +29,12 @@ export const useOutboxStore = defineStore('outbox', () => {
 
   /** Appends the next (older) page. */
   async function fetchMore(): Promise<void> {
-    const cursor = page.value?.nextCursor;
-    if (!cursor) return;
     loading.value = true;
     try {
-      const answer = await mailApi.listOutbox({ ...(kind.value ? { kind: kind.value } : {}), cursor });
-      messages.value = [...messages.value, ...answer.messages];
-      page.value = answer.page;
+      await appendNextPage(messages, page, async (cursor) => {
+        const answer = await mailApi.listOutbox({ ...(kind.value ? { kind: kind.value } : {}), cursor });
+        return { rows: answer.messages, page: answer.page };
+      });
     } finally {
       loading.value = false;
     }

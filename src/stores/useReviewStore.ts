@@ -4,6 +4,7 @@ import { ref } from 'vue';
 import * as reviewsApi from '@/api/reviews';
 import type { CommentAnchor, RefinedSummary, ReviewDetail, ReviewState, ReviewSummary, ReviewView, Reviewer } from '@/api/reviews';
 import type { Page } from '@/api/types';
+import { appendNextPage } from '@/composables/usePagedList';
 
 export const useReviewStore = defineStore('reviews', () => {
   const list = ref<ReviewSummary[]>([]);
@@ -30,13 +31,12 @@ export const useReviewStore = defineStore('reviews', () => {
 
   /** Appends the next page of the list (rounds changed earlier). */
   async function fetchMore(): Promise<void> {
-    const cursor = listPage.value?.nextCursor;
-    if (!cursor) return;
     loadingList.value = true;
     try {
-      const answer = await reviewsApi.listReviews({ view: listView.value, state: listState.value, cursor });
-      list.value = [...list.value, ...answer.reviews];
-      listPage.value = answer.page;
+      await appendNextPage(list, listPage, async (cursor) => {
+        const answer = await reviewsApi.listReviews({ view: listView.value, state: listState.value, cursor });
+        return { rows: answer.reviews, page: answer.page };
+      });
     } finally {
       loadingList.value = false;
     }

@@ -3,6 +3,7 @@ import { createHash } from 'node:crypto';
 import { and, desc, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
 import { attachments, projects, users, type AttachmentRow } from '../../db/schema.js';
+import { withoutForbiddenCharacters } from '../../../shared/text.js';
 import { ApiError } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
 import { findProject } from '../projects/projectService.js';
@@ -56,15 +57,13 @@ export function findAttachment(db: Db, firmId: number, attachmentId: number): At
 
 /**
  * A file name safe to show and to send back in Content-Disposition: the last path part, in
- * Unicode NFC, without control characters (C0, DEL, C1), quotes, or the bidirectional
- * embedding, override and isolate controls that make a name read differently from what it holds
- * ("plan\u202Efdp.exe" would show as "planexe.pdf"); the same characters shared/text.ts refuses
- * in typed names, removed here because nobody typed them.
+ * Unicode NFC, without the characters typed names may not hold (shared/text.ts: controls and
+ * the bidirectional overrides that make "plan\u202Efdp.exe" show as "planexe.pdf") and quotes;
+ * removed here rather than refused, because nobody typed them.
  */
 function cleanName(name: string): string {
-  const base = name.normalize('NFC').split(/[\\/]/).pop() ?? '';
-  // eslint-disable-next-line no-control-regex
-  const cleaned = base.replace(/[\u0000-\u001f\u007f-\u009f"\u202a-\u202e\u2066-\u2069]/g, '').trim().slice(0, 200);
+  const base = name.split(/[\\/]/).pop() ?? '';
+  const cleaned = withoutForbiddenCharacters(base).replace(/"/g, '').trim().slice(0, 200);
   return cleaned || 'drawing';
 }
 

@@ -5,9 +5,9 @@
  * Results are stored compressed (server/storage/storedResults.ts); a save that would take the
  * firm past its storage quota is refused before anything is written (server/storage/firmQuota.ts).
  */
-import { and, asc, count, desc, eq, lt, max } from 'drizzle-orm';
+import { and, count, desc, eq, lt, max } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
-import { analysisResults, decks, deckVersions, projects, users, type DeckRow, type DeckVersionRow } from '../../db/schema.js';
+import { decks, deckVersions, projects, users, type DeckRow, type DeckVersionRow } from '../../db/schema.js';
 import type { Deck } from '../../../shared/deck/schema.js';
 import { ApiError } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
@@ -15,7 +15,7 @@ import { findProject } from '../projects/projectService.js';
 import { computeStoredResults } from './analysis.js';
 import { cutPage, decodeCursor, DEFAULT_PAGE, numberCursor, type PageRequest } from '../pagination.js';
 import { readStoredPlacements, type SavedPlacements } from './placementsModel.js';
-import { encodeResultRow, encodedBytes, insertEncodedResult, MAX_RESULT_JSON_BYTES, ResultTooLargeError, resultsOfVersion } from '../../storage/storedResults.js';
+import { encodeResultRow, encodedBytes, insertEncodedResult, MAX_RESULT_JSON_BYTES, ResultTooLargeError, resultHeadingsOfVersion, resultsOfVersion } from '../../storage/storedResults.js';
 import { assertWithinQuota } from '../../storage/firmQuota.js';
 import { DEFAULT_FIRM_STORAGE_QUOTA_BYTES } from '../../config/env.js';
 import { withheldResults, type WithheldResults } from '../training/withheldResults.js';
@@ -59,16 +59,6 @@ function deckSummary(db: Db, d: DeckRow) {
 }
 
 /** The version with its stored results, unless they are withheld from the reader (then none). */
-/** Which stored results a version's answer holds (method, solver version, time), without their data. */
-function resultHeadings(db: Db, versionId: number) {
-  return db
-    .select({ method: analysisResults.method, solverVersion: analysisResults.solverVersion, createdAt: analysisResults.createdAt })
-    .from(analysisResults)
-    .where(eq(analysisResults.versionId, versionId))
-    .orderBy(asc(analysisResults.id))
-    .all();
-}
-
 /**
  * A version as the API answers it: its deck, placements and the headings of its stored
  * results. The results' data (the big part: every factor row with its trace, up to about 8 MB
@@ -79,7 +69,7 @@ function fullVersion(db: Db, v: DeckVersionRow, withheld: WithheldResults | null
     ...versionSummary(db, v),
     deck: JSON.parse(v.deckJson) as Deck,
     placements: readStoredPlacements(v.placementsJson),
-    results: withheld ? [] : withResults ? resultsOfVersion(db, v.id) : resultHeadings(db, v.id),
+    results: withheld ? [] : withResults ? resultsOfVersion(db, v.id) : resultHeadingsOfVersion(db, v.id),
     /** Set when the results are hidden from this reader (a trainee's open exercise on this version). */
     resultsWithheld: withheld,
   };
