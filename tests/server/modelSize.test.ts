@@ -35,6 +35,8 @@ describe('refined model size', () => {
       const actual = buildGrillage(d, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN }).stats.nodes;
       const size = refinedModelSize(d);
       expect(size.nodes).toBeGreaterThanOrEqual(actual);
+      // the estimate counts every station line and no merging of near nodes, so it never
+      // undercounts; 10 % over is the margin the limit's documentation allows (server/compute/modelSize.ts)
       expect(size.nodes).toBeLessThanOrEqual(actual * 1.1);
       expect(size.nodeGirders).toBe(size.nodes * size.girders);
     });

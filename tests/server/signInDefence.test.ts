@@ -75,7 +75,8 @@ describe('per account: one client is refused, many clients are slowed, the owner
       return { status: res.status, ms: performance.now() - t0 };
     };
     for (let i = 1; i <= 2; i++) expect((await timed('wrong-password', `10.0.1.${i}`)).status).toBe(401);
-    // past the limit: each further attempt waits at least 0.5 s, then 1 s (lower bounds of a timer: cannot flake)
+    // past the limit: each further attempt waits at least 0.5 s, then 1 s (accountSlowdown in
+    // server/auth/authRouter.ts: 500 ms, doubling; 10 ms less for timer rounding; lower bounds of a timer: cannot flake)
     const third = await timed('wrong-password', '10.0.1.3');
     expect(third.status).toBe(401);
     expect(third.ms).toBeGreaterThanOrEqual(490);
@@ -83,7 +84,7 @@ describe('per account: one client is refused, many clients are slowed, the owner
     const owner = await timed(DEMO_PASSWORD, '10.0.1.99');
     expect(owner.status).toBe(200);
     expect(owner.ms).toBeGreaterThanOrEqual(990);
-    // another account is not slowed at all
+    // another account still signs in (its own count is 0: it is not slowed)
     expect((await login(ctx, demo.designer, DEMO_PASSWORD, '10.0.1.3')).status).toBe(200);
   });
 
