@@ -197,7 +197,17 @@ describe('review round trip in the browser', () => {
     // Creating the user e-mails the invitation; the admin reads it in the outbox.
     await designer.goto(h.url('/mail'));
     const subject = designer.locator('[data-test="outbox-table"] a', { hasText: 'You are invited to Deckshare' });
-    await subject.waitFor();
+    // The mail service receives the invitation a moment after the user is created: refresh until it is in.
+    await expect
+      .poll(
+        async () => {
+          await designer.locator('[data-test="outbox-refresh"]').click();
+          return subject.count();
+        },
+        { timeout: 20_000, interval: 500 },
+      )
+      .toBeGreaterThan(0);
+    await subject.first().waitFor();
     await subject.click();
     const link = await designer.locator('[data-test="message-body"] a').first().getAttribute('href');
     expect(link).toMatch(new RegExp(`^${h.baseUrl}/set-password/[A-Za-z0-9_-]{40,}$`));
