@@ -574,7 +574,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
       { align: ['left', 'left', 'left', 'right', 'right', 'right'] },
     );
     w.table(
-      ['Girder', 'Where', `Per-lane M (${unitSymbol('moment', u)})`, `Code M (${unitSymbol('moment', u)})`, `Refined M (${unitSymbol('moment', u)})`, 'Reduction'],
+      ['Girder', 'Where', `Per-lane M (${unitSymbol('moment', u)})`, `Code M (${unitSymbol('moment', u)})`, `Refined M (${unitSymbol('moment', u)})`, 'Reduction', 'Claimable'],
       s.refined.momentReductions.map((r) => [
         `${r.girder} (${r.girderKind})`,
         r.location,
@@ -582,9 +582,17 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
         num(toDisplay(r.codeMoment, 'moment', u), 1),
         num(toDisplay(r.refinedMoment, 'moment', u), 1),
         `${num(toDisplay(r.reduction, 'moment', u), 1)} (${r.reductionPercent.toFixed(1)} %)`,
+        r.claimable ? 'yes' : `no: girder ${r.designGirder} governs`,
       ]),
-      [0.16, 0.14, 0.17, 0.17, 0.17, 0.19],
-      { align: ['left', 'left', 'right', 'right', 'right', 'right'] },
+      [0.14, 0.13, 0.14, 0.14, 0.14, 0.16, 0.15],
+      { align: ['left', 'left', 'right', 'right', 'right', 'right', 'left'] },
+    );
+    const largest = s.refined.largestReduction;
+    w.text(
+      largest
+        ? `Largest claimable reduction (the largest of the rows marked “yes”): ${largest.reductionPercent.toFixed(1)} % (girder ${largest.girder}, ${largest.location}).`
+        : 'No reduction can be claimed.',
+      { weight: 'bold' },
     );
   }
   w.heading('Reviewer’s decision', 2);

@@ -19,18 +19,9 @@ import { deckOf, storedResult } from './versionResults.js';
 import { RefinedModelTooLargeError, type RefinedPool } from '../../compute/refinedPool.js';
 import { SOLVER_VERSION } from '../../../shared/version.js';
 import { insertEncodedResultOnce } from '../../storage/storedResults.js';
+import { governingPerGirder, type RefinedFactor } from '../../../shared/review/reductions.js';
 
-export interface RefinedFactor {
-  /** Girder number, 1 = left exterior. */
-  girder: number;
-  effect: FactorRow['effect'];
-  /** The code result's location key ("span1", "support2"). */
-  locationKey: string;
-  location: string;
-  span?: number;
-  lanes: FactorRow['lanes'];
-  value: number;
-}
+export type { RefinedFactor };
 
 export interface RefinedResults {
   /** The governing refined factor per girder, effect and location. */
@@ -60,20 +51,6 @@ async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow): Pr
   // is kept; a result too large to store (encoded null) serves this request only.
   if (answer.encoded) insertEncodedResultOnce(db, v.id, answer.encoded);
   return data;
-}
-
-function governingPerGirder(rows: FactorRow[]): RefinedFactor[] {
-  const best = new Map<string, RefinedFactor>();
-  for (const r of rows) {
-    const girder = typeof r.girder === 'number' ? r.girder : r.girderNumber;
-    if (girder === undefined) continue;
-    const key = `${girder}|${r.effect}|${r.location.key}`;
-    const prev = best.get(key);
-    if (!prev || r.value > prev.value) {
-      best.set(key, { girder, effect: r.effect, locationKey: r.location.key, location: r.location.description, ...(r.location.span !== undefined ? { span: r.location.span } : {}), lanes: r.lanes, value: r.value });
-    }
-  }
-  return [...best.values()].sort((a, b) => a.girder - b.girder || a.effect.localeCompare(b.effect));
 }
 
 /**

@@ -18,9 +18,12 @@ import type { DeckVersionRow } from '../../db/schema.js';
 import type { Finding } from '../../../shared/lrfd/findings.js';
 import type { CodeFactorResult, FactorEffect, FactorRow, GirderKind } from '../../../shared/lrfd/index.js';
 import { codeResultsOf, deckOf } from './versionResults.js';
-import { refinedResultsOf, type RefinedFactor, type RefinedResults } from './refinedResults.js';
+import { refinedResultsOf, type RefinedResults } from './refinedResults.js';
 import type { RefinedPool } from '../../compute/refinedPool.js';
 import { perLaneMaxMoment } from '../../reports/envelopes.js';
+import { codeFactorForGirder, largestClaimableReduction, momentReductionTable, type MomentReduction } from '../../../shared/review/reductions.js';
+
+export { codeFactorForGirder, type MomentReduction };
 
 export const CAUTION = 'Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
 
@@ -55,22 +58,6 @@ export interface RatioRow {
   ratio: number;
 }
 
-export interface MomentReduction {
-  girder: number;
-  girderKind: GirderKind;
-  location: string;
-  code: number;
-  refined: number;
-  /** Per-lane HL-93 LL+IM maximum positive moment of the span, N·m. */
-  perLaneMoment: number;
-  /** Girder LL+IM moment with the code factor and with the refined one, N·m. */
-  codeMoment: number;
-  refinedMoment: number;
-  /** codeMoment − refinedMoment, N·m (negative: the refined factor is larger). */
-  reduction: number;
-  reductionPercent: number;
-}
-
 export interface RefinedSummary {
   caution: string;
   solverVersion: string;
@@ -93,7 +80,7 @@ export interface RefinedSummary {
     source: string;
     ratios: RatioRow[];
     momentReductions: MomentReduction[];
-    /** The largest reduction among the girders' governing moments, or null. */
+    /** The largest reduction among the claimable rows of momentReductions (reductions.ts), or null. */
     largestReduction: MomentReduction | null;
   };
   /** A short reading of the figures for the reviewer (not a decision). */
@@ -103,13 +90,6 @@ export interface RefinedSummary {
 function governingRow(code: CodeFactorResult, girder: GirderKind, effect: FactorEffect, locationKey: string): FactorRow | undefined {
   const g = code.governing.find((x) => x.girder === girder && x.effect === effect && x.location.key === locationKey);
   return g ? code.factors.find((r) => r.id === g.rowId) : undefined;
-}
-
-/** The code's governing factor for a girder number (1-based) of `count`. */
-export function codeFactorForGirder(code: CodeFactorResult, girder: number, count: number, effect: FactorEffect, locationKey: string): { value: number; kind: GirderKind } | undefined {
-  const kind: GirderKind = girder === 1 || girder === count ? 'exterior' : 'interior';
-  const g = code.governing.find((x) => x.girder === kind && x.effect === effect && x.location.key === locationKey);
-  return g ? { value: g.value, kind } : undefined;
 }
 
 function skewWords(skews: number[]): string {
@@ -146,7 +126,6 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
 
   const refined = refinedKnown ?? (await refinedResultsOf(db, pool, v));
   const ratios: RatioRow[] = [];
-  const reductions: MomentReduction[] = [];
   if (refined.factors) {
     for (const f of refined.factors) {
       if (f.effect !== 'moment' && f.effect !== 'shear') continue;
@@ -154,36 +133,9 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
       if (!c || c.value <= 0) continue;
       ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value });
     }
-    for (const f of refined.factors.filter((x: RefinedFactor) => x.effect === 'moment')) {
-      const c = codeFactorForGirder(code, f.girder, count, 'moment', f.locationKey);
-      const span = f.span ?? 0;
-      if (!c) continue;
-      const perLane = perLaneMaxMoment(deck, span);
-      const codeMoment = c.value * perLane;
-      const refinedMoment = f.value * perLane;
-      reductions.push({
-        girder: f.girder,
-        girderKind: c.kind,
-        location: f.location,
-        code: c.value,
-        refined: f.value,
-        perLaneMoment: perLane,
-        codeMoment,
-        refinedMoment,
-        reduction: codeMoment - refinedMoment,
-        reductionPercent: ((c.value - f.value) / c.value) * 100,
-      });
-    }
   }
-  // The design girder of each kind: the girder with the largest refined moment governs its
-  // kind, so the reduction that can be claimed is the one of that girder.
-  let largest: MomentReduction | null = null;
-  for (const kind of ['interior', 'exterior'] as const) {
-    const ofKind = reductions.filter((r) => r.girderKind === kind);
-    if (ofKind.length === 0) continue;
-    const design = ofKind.reduce((a, b) => (b.refinedMoment > a.refinedMoment ? b : a));
-    if (!largest || design.reductionPercent > largest.reductionPercent) largest = design;
-  }
+  const reductions: MomentReduction[] = refined.factors ? momentReductionTable(code, refined.factors, (span) => perLaneMaxMoment(deck, span)) : [];
+  const largest = largestClaimableReduction(reductions);
 
   const rangeFindings = code.findings.filter((f) => RANGE_CODES.has(f.code));
   const otherFindings = code.findings.filter((f) => !RANGE_CODES.has(f.code));

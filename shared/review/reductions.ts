@@ -1,0 +1,135 @@
+/**
+ * The possible reduction in girder live-load moment if the refined (grillage) factors were
+ * used instead of the code's, and which of those reductions can be claimed: one table and one
+ * answer, read by the review summary, its panel and the calculation package alike.
+ *
+ * For one span the girder LL+IM moment is g × the per-lane LL+IM moment (AASHTO LRFD
+ * Art. 4.6.2.2), so the reduction is (g_code − g_refined) / g_code of it, g_code the code's
+ * governing factor of the girder's kind (interior or exterior) at the place.
+ *
+ * Claimable. The girders of one kind are designed alike for a span (common practice, no
+ * source), so the reduction that can be claimed for a kind and a span is that of its design
+ * girder: the girder of the kind with the largest refined moment there. Every other row says
+ * which girder governs its kind instead. The largest claimable reduction is the largest
+ * reduction among the claimable rows, and nothing else.
+ *
+ * Units: factors dimensionless; moments N·m (internal SI); percentages of the code moment.
+ * Pure: used by the server's review summary and report and by the client's tests.
+ */
+import type { CodeFactorResult, FactorRow, GirderKind } from '../lrfd/index.js';
+
+/** The governing refined factor of one girder, effect and place (the largest over its lane cases). */
+export interface RefinedFactor {
+  /** Girder number, 1 = left exterior. */
+  girder: number;
+  effect: FactorRow['effect'];
+  /** The code result's location key ("span1", "support2"). */
+  locationKey: string;
+  location: string;
+  span?: number;
+  lanes: FactorRow['lanes'];
+  value: number;
+}
+
+/** The governing refined factor per girder, effect and place from rows of method 'grillage', sorted by girder and effect. */
+export function governingPerGirder(rows: readonly FactorRow[]): RefinedFactor[] {
+  const best = new Map<string, RefinedFactor>();
+  for (const r of rows) {
+    const girder = typeof r.girder === 'number' ? r.girder : r.girderNumber;
+    if (girder === undefined) continue;
+    const key = `${girder}|${r.effect}|${r.location.key}`;
+    const prev = best.get(key);
+    if (!prev || r.value > prev.value) {
+      best.set(key, { girder, effect: r.effect, locationKey: r.location.key, location: r.location.description, ...(r.location.span !== undefined ? { span: r.location.span } : {}), lanes: r.lanes, value: r.value });
+    }
+  }
+  return [...best.values()].sort((a, b) => a.girder - b.girder || a.effect.localeCompare(b.effect));
+}
+
+export interface MomentReduction {
+  girder: number;
+  girderKind: GirderKind;
+  /** The code result's location key ("span1") and its words. */
+  locationKey: string;
+  location: string;
+  code: number;
+  refined: number;
+  /** Per-lane HL-93 LL+IM maximum positive moment of the span, N·m. */
+  perLaneMoment: number;
+  /** Girder LL+IM moment with the code factor and with the refined one, N·m. */
+  codeMoment: number;
+  refinedMoment: number;
+  /** codeMoment − refinedMoment, N·m (negative: the refined factor is larger). */
+  reduction: number;
+  reductionPercent: number;
+  /** Whether this row's reduction may be claimed (it is its kind's design girder for the span). */
+  claimable: boolean;
+  /** Why the row may or may not be claimed, in words. */
+  claim: string;
+  /** The design girder of this row's kind and place (this row's girder when claimable). */
+  designGirder: number;
+}
+
+/** The code's governing factor for a girder number (1-based) of `count`. */
+export function codeFactorForGirder(code: CodeFactorResult, girder: number, count: number, effect: 'moment' | 'shear', locationKey: string): { value: number; kind: GirderKind } | undefined {
+  const kind: GirderKind = girder === 1 || girder === count ? 'exterior' : 'interior';
+  const g = code.governing.find((x) => x.girder === kind && x.effect === effect && x.location.key === locationKey);
+  return g ? { value: g.value, kind } : undefined;
+}
+
+/**
+ * The reduction table of the refined moment factors (one row per girder and span, in the order
+ * given) with each row's claim; `perLaneMoment(span)` is the span's per-lane LL+IM maximum
+ * positive moment, N·m.
+ */
+export function momentReductionTable(code: CodeFactorResult, refined: readonly RefinedFactor[], perLaneMoment: (span: number) => number): MomentReduction[] {
+  const count = code.derived.girderCount;
+  const rows: MomentReduction[] = [];
+  for (const f of refined) {
+    if (f.effect !== 'moment') continue;
+    const c = codeFactorForGirder(code, f.girder, count, 'moment', f.locationKey);
+    if (!c || !(c.value > 0)) continue;
+    const perLane = perLaneMoment(f.span ?? 0);
+    const codeMoment = c.value * perLane;
+    const refinedMoment = f.value * perLane;
+    rows.push({
+      girder: f.girder,
+      girderKind: c.kind,
+      locationKey: f.locationKey,
+      location: f.location,
+      code: c.value,
+      refined: f.value,
+      perLaneMoment: perLane,
+      codeMoment,
+      refinedMoment,
+      reduction: codeMoment - refinedMoment,
+      reductionPercent: ((c.value - f.value) / c.value) * 100,
+      claimable: false,
+      claim: '',
+      designGirder: f.girder,
+    });
+  }
+  // The design girder of each kind and place: the largest refined moment (ties: the lower number).
+  const design = new Map<string, MomentReduction>();
+  for (const r of rows) {
+    const key = `${r.girderKind}|${r.locationKey}`;
+    const d = design.get(key);
+    if (!d || r.refinedMoment > d.refinedMoment || (r.refinedMoment === d.refinedMoment && r.girder < d.girder)) design.set(key, r);
+  }
+  for (const r of rows) {
+    const d = design.get(`${r.girderKind}|${r.locationKey}`) as MomentReduction;
+    r.claimable = d === r;
+    r.designGirder = d.girder;
+    r.claim = r.claimable
+      ? `design ${r.girderKind} girder for ${r.location}`
+      : `girder ${d.girder} carries the largest ${r.girderKind} moment in ${r.location}; its reduction applies to the ${r.girderKind} girders there`;
+  }
+  return rows;
+}
+
+/** The largest reduction among the claimable rows of `table`, or null when none is claimable. */
+export function largestClaimableReduction(table: readonly MomentReduction[]): MomentReduction | null {
+  let best: MomentReduction | null = null;
+  for (const r of table) if (r.claimable && (!best || r.reductionPercent > best.reductionPercent)) best = r;
+  return best;
+}
