@@ -50,7 +50,7 @@ import { DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from '../loads/vehicles.js'
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
 import { placementRulesForDeck, type Placement, type PlacementRules } from '../placement/rules.js';
 import { checkPoints, sampledFromGrid } from '../placement/sampledSurface.js';
-import { governingSurfacePlacement, type ToleranceStatement } from '../placement/search.js';
+import { boundInLanes, governingSurfacePlacement, type ToleranceStatement } from '../placement/search.js';
 import type { Sense } from '../placement/evaluate.js';
 import { influenceSurfaces, type InfluenceSurface } from './influenceSurface.js';
 import { supportX } from './mesh.js';
@@ -151,7 +151,8 @@ export interface RefinedFactor {
   placement: Placement;
   lanes: RefinedLane[];
   byLaneCount: { loadedLanes: number; multiplePresence: number; factor: number; girderEffect: number; placement: Placement }[];
-  tolerance: ToleranceStatement & { factor: number };
+  /** The search's bound restated for the factor: `factor` in lanes, `percent` of the value, `text` in those words. */
+  tolerance: ToleranceStatement & { factor: number; percent: number };
   trace: TraceStep[];
 }
 
@@ -410,6 +411,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
       return out;
     });
     const value = search.value / B;
+    const bound = boundInLanes(search.tolerance, B, value);
     const article = fatigue ? FATIGUE_ARTICLE : REFINED_ARTICLE;
     const trace: TraceStep[] = [
       {
@@ -424,7 +426,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
         value: search.value,
         kind,
         article,
-        note: search.tolerance.text,
+        note: bound.text,
       },
       {
         label: `Beam line: one lane of the ${t.vehicle.name}, ${t.beamResponse.kind} at ${'x' in t.beamResponse ? t.beamResponse.x.toFixed(3) : ''} m along the girder`,
@@ -444,7 +446,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
         value,
         kind: 'none',
         article,
-        note: `governing with ${search.loadedLanes} loaded lane(s); tolerance ±${(search.tolerance.absolute / Math.abs(B)).toPrecision(2)} lanes`,
+        note: `governing with ${search.loadedLanes} loaded lane(s); ${bound.text}`,
       },
     ];
     return {
@@ -466,7 +468,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
       placement: search.placement,
       lanes,
       byLaneCount,
-      tolerance: { ...search.tolerance, factor: search.tolerance.absolute / Math.abs(B) },
+      tolerance: { ...search.tolerance, text: bound.text, factor: bound.lanes, percent: bound.percent },
       trace,
     };
   });

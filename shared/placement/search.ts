@@ -99,6 +99,29 @@ export interface ToleranceStatement {
   text: string;
 }
 
+/** A ratio as a percentage an engineer reads: 0.012 → "1.2 %", below 0.01 % "< 0.01 %". */
+function percent(ratio: number): string {
+  if (!Number.isFinite(ratio)) return 'an unknown part';
+  const p = ratio * 100;
+  return p < 0.01 ? '< 0.01 %' : `${p < 1 ? p.toFixed(2) : p.toFixed(1)} %`;
+}
+
+/**
+ * The bound of a governing placement restated for a distribution factor g = E / E_1: in lanes
+ * (absolute / |E_1|) and as a percentage of g, so a reader never meets the response's internal
+ * unit. `beamLineEffect` is E_1 (same unit as the effect), `factor` the reported g.
+ */
+export function boundInLanes(tolerance: ToleranceStatement, beamLineEffect: number, factor: number): { lanes: number; percent: number; text: string } {
+  const lanes = tolerance.absolute / Math.abs(beamLineEffect);
+  const share = factor !== 0 ? lanes / Math.abs(factor) : lanes === 0 ? 0 : Infinity;
+  const lanesText = lanes === 0 ? '0' : lanes < 1e-4 ? '< 0.0001' : lanes.toFixed(4);
+  const text =
+    tolerance.kind === 'exact' || tolerance.absolute === 0
+      ? `no legal placement exceeds this factor (${tolerance.text})`
+      : `no legal placement exceeds this factor by more than ${lanesText} lanes (${percent(share)} of ${factor.toFixed(3)}); ${tolerance.text}`;
+  return { lanes, percent: share * 100, text };
+}
+
 export interface LaneCountResult {
   loadedLanes: number;
   multiplePresence: number;
@@ -606,8 +629,8 @@ export function governingSurfacePlacement(
         ? 'exact: the surface equals its sampled representation at every point checked (bilinear on the station grid)'
         : 'exact for the sampled representation (bilinear on the station grid); the representation error was not measured'
       : method === 'raised'
-        ? `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (search of the sample raised by its measured error envelope)`
-        : `exact for the sampled representation; against the surface no legal placement exceeds this by more than ${bound.toPrecision(3)} (m·k·ΣW·ε plus the sample's excess at the placement found, ε = ${eps.toPrecision(3)} per unit force)`;
+        ? 'exact for the sampled representation; bounded against the surface by a search of the sample raised by its measured error envelope'
+        : `exact for the sampled representation; bounded against the surface by m·k·ΣW·ε plus the sample's excess at the placement found (ε, measured at cell and edge midpoints, is ${percent(eps / surface.maxOrdinate)} of the largest ordinate)`;
   return {
     ...g,
     sense,

@@ -24,6 +24,7 @@ import { assertDeck, DeckInputError, type Deck } from '../../shared/deck/schema'
 import { computeCodeFactors, governingFactor, type CodeFactorResult, type FactorEffect, type FactorRow, type GirderKind } from '../../shared/lrfd/factors';
 import { buildGrillage, influenceSurfaces, type GrillageModel, type GrillageResponse, type InfluenceSurface } from '../../shared/grillage/index';
 import {
+  boundInLanes,
   clampPlacement,
   evaluateSurface,
   governingSurfacePlacement,
@@ -446,7 +447,7 @@ export class SolverSession {
       loadedLanes: result.loadedLanes,
       lanes: result.placement.lanes,
       byLaneCount: result.byLaneCount.map((b) => ({ loadedLanes: b.loadedLanes, factor: b.value / E1, lanes: b.placement.lanes })),
-      tolerance: result.tolerance.text,
+      tolerance: boundInLanes(result.tolerance, E1, result.value / E1).text,
       toleranceFactor: result.tolerance.absolute / E1,
       elapsedMs: now() - t0,
     };
