@@ -21,6 +21,7 @@ import {
   computeRefinedFactors,
   deckFromDisplay,
   DeckInputError,
+  refinedEffectKind,
   toDisplay,
   unitSymbol,
   type CodeFactorResult,
@@ -97,7 +98,7 @@ function quantity(value: number | undefined, kind: QuantityKind, units: UnitSyst
 function placementJson(refined: RefinedResult, index: number, units: UnitSystem) {
   const src = refined.rowSources[index];
   const f = refined.factors[src.factorIndex];
-  const kind: QuantityKind = f.point.kind === 'moment' ? 'moment' : 'force';
+  const kind: QuantityKind = refinedEffectKind(f);
   const c = f.byLaneCount.find((b) => b.loadedLanes === src.loadedLanes)!;
   return {
     response: f.label,
@@ -233,7 +234,7 @@ function refinedText(refined: RefinedResult, units: UnitSystem): string[] {
   const len = (v: number) => disp(v, 'length', units, 2);
   out.push(
     table(
-      ['girder', 'effect', 'location', 'lanes', 'factor', 'bound', 'lane edges', 'wheel lines', 'front axle, travel, rear spacing'],
+      ['girder', 'effect', 'location', 'lanes', 'factor', 'bound', 'vehicle', 'lane edges', 'wheel lines', 'front axle, travel, rear spacing'],
       refined.rows.map((r, i) => {
         const src = refined.rowSources[i];
         const f = refined.factors[src.factorIndex];
@@ -245,6 +246,7 @@ function refinedText(refined: RefinedResult, units: UnitSystem): string[] {
           `${r.lanes} (${c.loadedLanes})`,
           c.factor.toFixed(3),
           `±${f.tolerance.factor.toFixed(3)}`,
+          f.vehicle,
           c.placement.lanes.map((l) => `${len(l.left)}–${len(l.left + refined.designLaneWidth)}`).join('; '),
           c.placement.lanes.map((l) => `${len(l.left + l.wheelOffset)}, ${len(l.left + l.wheelOffset + WHEEL_GAUGE)}`).join('; '),
           c.placement.lanes

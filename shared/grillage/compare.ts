@@ -8,7 +8,7 @@
  * Matching rule: the code gives interior rows for every interior girder and exterior rows
  * for the exterior girder they name (girder 1, or Nb when the deck is not symmetric; on a
  * symmetric deck girder Nb takes girder 1's rows). Rows are matched on effect, location key
- * ("span1", …) and lane case ('one' / 'multiple'). The code value is the one the engine
+ * ("span1", …, or "support2" for negative moment and reactions) and lane case ('one' / 'multiple'). The code value is the one the engine
  * adopted for that lane case (its own rules: formula, lever rule, rigid-section check,
  * policies). Findings of the rows used, and the refined run's findings for the effect, are
  * passed through unchanged.
@@ -51,7 +51,7 @@ export interface FactorComparison {
   caution: string;
 }
 
-const COMPARED: FactorEffect[] = ['moment', 'shear', 'fatigue-moment', 'fatigue-shear'];
+const COMPARED: FactorEffect[] = ['moment', 'shear', 'negative-moment', 'reaction', 'fatigue-moment', 'fatigue-shear'];
 
 function codeRowsFor(code: CodeFactorResult, girderNumber: number, kind: GirderKind, Nb: number): FactorRow[] {
   const own = code.factors.filter((r) => r.girderKind === kind && (kind === 'interior' || r.girderNumber === girderNumber));

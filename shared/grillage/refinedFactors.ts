@@ -45,12 +45,13 @@
  */
 import { assertDeck, DeckInputError, type Deck } from '../deck/schema.js';
 import type { TraceStep } from '../trace.js';
+import { effectLocations, type EffectLocation } from '../lrfd/spanLengths.js';
 import { buildFactorRow, RESULT_CAUTION, type FactorEffect, type FactorRow, type GirderKind } from '../lrfd/factors.js';
 import { DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from '../loads/vehicles.js';
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
 import { placementRulesForDeck, type Placement, type PlacementRules } from '../placement/rules.js';
-import { checkPoints, sampledFromGrid } from '../placement/sampledSurface.js';
-import { boundInLanes, governingSurfacePlacement, type ToleranceStatement } from '../placement/search.js';
+import { checkPoints, sampledFromGrid, type SampledSurface } from '../placement/sampledSurface.js';
+import { boundInLanes, governingSurfacePlacement, type GoverningPlacement, type ToleranceStatement } from '../placement/search.js';
 import type { Sense } from '../placement/evaluate.js';
 import { influenceSurfaces, type InfluenceSurface } from './influenceSurface.js';
 import { supportX } from './mesh.js';
@@ -58,8 +59,19 @@ import { buildGrillage, type GrillageModel, type GrillageOptions } from './model
 import type { GrillageFinding } from './quality.js';
 import { responseLabel, type GrillageResponse } from './responses.js';
 
-export type RefinedEffect = 'moment' | 'shear' | 'fatigue-moment' | 'fatigue-shear';
-export const REFINED_EFFECTS: readonly RefinedEffect[] = ['moment', 'shear', 'fatigue-moment', 'fatigue-shear'];
+export type RefinedEffect = 'moment' | 'shear' | 'negative-moment' | 'reaction' | 'fatigue-moment' | 'fatigue-shear';
+export const REFINED_EFFECTS: readonly RefinedEffect[] = ['moment', 'shear', 'negative-moment', 'reaction', 'fatigue-moment', 'fatigue-shear'];
+
+/**
+ * Where on the girder a refined factor is read: a positive-moment point (fraction of the span),
+ * a shear at a support side, the moment at an interior support line (negative moment), or the
+ * bearing reaction on a support line. x is the girder line's x there, m.
+ */
+export type RefinedPoint =
+  | { kind: 'moment'; fraction: number; x: number }
+  | { kind: 'shear'; support: number; side: 'left' | 'right'; x: number }
+  | { kind: 'support-moment'; support: number; x: number }
+  | { kind: 'reaction'; support: number; x: number };
 
 /** Step either side of a support crossing where a shear surface jumps, m. */
 export const JUMP_STEP = 1e-6;
@@ -132,10 +144,10 @@ export interface RefinedFactor {
   girderNumber: number;
   girderKind: GirderKind;
   effect: RefinedEffect;
-  /** 0-based span the factor belongs to. */
+  /** 0-based span the factor belongs to (for a support row: the span ending there, or the first span). */
   span: number;
-  /** Where on the girder: a moment point (fraction of the span) or a shear at a support side. */
-  point: { kind: 'moment'; fraction: number; x: number } | { kind: 'shear'; support: number; side: 'left' | 'right'; x: number };
+  /** Where on the girder the factor is read. */
+  point: RefinedPoint;
   response: GrillageResponse;
   label: string;
   sense: Sense;
@@ -146,8 +158,10 @@ export interface RefinedFactor {
   multiplePresence: number;
   /** Girder effect of the governing placement, m included (N·m or N, signed). */
   girderEffect: number;
-  /** One lane's beam-line effect of the same vehicle (signed as girderEffect). */
+  /** One lane's beam-line effect of the same vehicle (signed as girderEffect); with several loads, the largest. */
   beamLineEffect: number;
+  /** Every load searched for this factor (one, or the design truck and 90 % of two trucks), with its effects. */
+  loads: { vehicle: string; girderEffect: number; beamLineEffect: number; loadedLanes: number }[];
   placement: Placement;
   lanes: RefinedLane[];
   byLaneCount: { loadedLanes: number; multiplePresence: number; factor: number; girderEffect: number; placement: Placement }[];
@@ -234,14 +248,27 @@ export function grillageStations(
   return { xs: Float64Array.from(xs), ys: Float64Array.from(ys) };
 }
 
+/** The quantity kind of a refined factor's effects: moment (N·m) or force (N). */
+export function refinedEffectKind(f: Pick<RefinedFactor, 'point'>): 'moment' | 'force' {
+  return f.point.kind === 'moment' || f.point.kind === 'support-moment' ? 'moment' : 'force';
+}
+
+/** One load a target is searched under: its vehicle in every loaded lane. */
+interface TargetLoad {
+  vehicle: Vehicle;
+  /** Why this load belongs to the target (trace). */
+  reason: string;
+}
+
 interface Target {
   girder: number;
   effect: RefinedEffect;
   span: number;
-  point: RefinedFactor['point'];
+  point: RefinedPoint;
   response: GrillageResponse;
   sense: Sense;
-  vehicle: Vehicle;
+  /** The loads searched; the row takes the largest girder effect over the largest beam-line effect. */
+  loads: TargetLoad[];
   /** Index of the surface. */
   surface: number;
   beam: BeamModel;
@@ -251,230 +278,264 @@ interface Target {
 const FATIGUE_ARTICLE = 'AASHTO LRFD Art. 3.6.1.4.1 (fatigue truck) and 3.6.1.4.3b (no multiple presence)';
 const REFINED_ARTICLE = 'AASHTO LRFD Art. 4.6.3.3 (refined methods); Art. 3.6.1.3.1 (placement); Table 3.6.1.1.2-1 (m)';
 
-/**
- * Refined (grillage) distribution factors of a deck. Throws DeckInputError for an invalid
- * deck or option, GrillageInputError / GrillageMechanismError from the grillage.
- */
-export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions = {}): RefinedResult {
-  const deck = assertDeck(deckInput);
-  const effects = options.effects ?? [...REFINED_EFFECTS];
-  effects.forEach((e, i) => {
-    if (!REFINED_EFFECTS.includes(e)) throw new DeckInputError(['refined', 'effects', i], `effect must be one of ${REFINED_EFFECTS.join(', ')}, not ${String(e)}`);
-  });
-  const model = options.model ?? buildGrillage(deck, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN, ...options.grillage });
-  const rules = placementRulesForDeck(deck);
-  const mesh = model.mesh;
-  const Nb = model.girderCount;
-  const N = model.spanCount;
-  const wantMoment = effects.includes('moment') || effects.includes('fatigue-moment');
-  const wantShear = effects.includes('shear') || effects.includes('fatigue-shear');
+interface GirderBeam {
+  beam: BeamModel;
+  /** Start of each span along the beam line, m. */
+  starts: number[];
+  /** Governing tenth point of each span for positive moment. */
+  fractions: number[];
+  /** The girder line's y and its crossings of the support lines, m. */
+  y: number;
+  xsup: number[];
+}
 
-  // Each girder's spans, beam model and governing tenth points.
-  const beamCache = new Map<string, { beam: BeamModel; starts: number[]; fractions: number[] }>();
-  const girderBeam = (g: number) => {
+/** Step 1. Each girder's beam line (its own spans), with the tenth point where one lane's truck moment is largest. */
+function girderBeams(model: GrillageModel, continuous: boolean): GirderBeam[] {
+  const mesh = model.mesh;
+  const N = model.spanCount;
+  const cache = new Map<string, Omit<GirderBeam, 'y' | 'xsup'>>();
+  return Array.from({ length: model.girderCount }, (_, g) => {
     const y = mesh.lines[mesh.girderLine[g]].y;
     const xsup = Array.from({ length: N + 1 }, (_, j) => supportX(mesh, j, y));
     const spans = xsup.slice(1).map((x, j) => x - xsup[j]);
     const key = spans.map((s) => s.toFixed(9)).join(',');
-    let entry = beamCache.get(key);
+    let entry = cache.get(key);
     if (!entry) {
-      const beam: BeamModel = { spans, continuous: deck.continuous };
+      const beam: BeamModel = { spans, continuous };
       const starts = spans.map((_, j) => spans.slice(0, j).reduce((a, b) => a + b, 0));
-      const fractions = spans.map((L, s) => {
-        const tenth = Array.from({ length: 9 }, (_, k) => (k + 1) / 10);
-        const v = tenth.map((f) => maxVehicleEffect(influenceLine(beam, { kind: 'moment', x: starts[s] + f * L }), DESIGN_TRUCK, 'positive').value);
-        const top = Math.max(...v);
-        // the largest; ties (within 1e-9) go to the point nearest midspan, then the first
-        let bestF = 0.5;
-        let bestD = Infinity;
-        tenth.forEach((f, k) => {
-          if (v[k] >= top * (1 - 1e-9) && Math.abs(f - 0.5) < bestD - 1e-12) {
-            bestD = Math.abs(f - 0.5);
-            bestF = f;
-          }
-        });
-        return bestF;
-      });
-      entry = { beam, starts, fractions };
-      beamCache.set(key, entry);
+      entry = { beam, starts, fractions: spans.map((L, s) => governingTenthPoint(beam, starts[s], L)) };
+      cache.set(key, entry);
     }
     return { ...entry, y, xsup };
-  };
+  });
+}
 
+/** The tenth point of a span with the largest one-lane truck moment; ties (1e-9) go to the point nearest midspan. */
+function governingTenthPoint(beam: BeamModel, start: number, L: number): number {
+  const tenth = Array.from({ length: 9 }, (_, k) => (k + 1) / 10);
+  const v = tenth.map((f) => maxVehicleEffect(influenceLine(beam, { kind: 'moment', x: start + f * L }), DESIGN_TRUCK, 'positive').value);
+  const top = Math.max(...v);
+  let bestF = 0.5;
+  let bestD = Infinity;
+  tenth.forEach((f, k) => {
+    if (v[k] >= top * (1 - 1e-9) && Math.abs(f - 0.5) < bestD - 1e-12) {
+      bestD = Math.abs(f - 0.5);
+      bestF = f;
+    }
+  });
+  return bestF;
+}
+
+/** Step 2. The responses to compute surfaces for, and the factors (targets) read from them. */
+function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly RefinedEffect[]): { responses: GrillageResponse[]; targets: Target[]; momentPoints: number[] } {
   const responses: GrillageResponse[] = [];
   const targets: Target[] = [];
   const momentPoints: number[] = [];
-  for (let g = 0; g < Nb; g++) {
-    const gb = girderBeam(g);
-    if (wantMoment) {
-      for (let s = 0; s < N; s++) {
-        const f = gb.fractions[s];
-        const r: GrillageResponse = { kind: 'girder-moment', girder: g, span: s, fraction: f };
-        const k = responses.push(r) - 1;
-        const x = gb.xsup[s] + f * (gb.xsup[s + 1] - gb.xsup[s]);
-        momentPoints.push(x);
-        const beamResponse: BeamResponse = { kind: 'moment', x: gb.starts[s] + f * gb.beam.spans[s] };
-        for (const effect of ['moment', 'fatigue-moment'] as const) {
-          if (!effects.includes(effect)) continue;
-          targets.push({
-            girder: g,
-            effect,
-            span: s,
-            point: { kind: 'moment', fraction: f, x },
-            response: r,
-            sense: 'positive',
-            vehicle: effect === 'moment' ? DESIGN_TRUCK : FATIGUE_TRUCK,
-            surface: k,
-            beam: gb.beam,
-            beamResponse,
-          });
-        }
-      }
+  const N = deck.spans.length;
+  const truck: TargetLoad = { vehicle: DESIGN_TRUCK, reason: 'one design truck per loaded lane' };
+  const fatigue: TargetLoad = { vehicle: FATIGUE_TRUCK, reason: 'one fatigue truck' };
+  const overPier: TargetLoad = {
+    vehicle: DESIGN_TRUCK,
+    reason: 'one design truck per loaded lane; the 90 % two-truck load of Art. 3.6.1.3.1 is not placed on the grillage, the one-truck ratio stands for it',
+  };
+  const wants = (e: RefinedEffect) => effects.includes(e);
+  const add = (r: GrillageResponse, list: Omit<Target, 'response' | 'surface'>[]) => {
+    const chosen = list.filter((t) => wants(t.effect));
+    if (!chosen.length) return;
+    const surface = responses.push(r) - 1;
+    for (const t of chosen) targets.push({ ...t, response: r, surface });
+  };
+  beams.forEach((gb, g) => {
+    for (let s = 0; s < N && (wants('moment') || wants('fatigue-moment')); s++) {
+      const f = gb.fractions[s];
+      const x = gb.xsup[s] + f * (gb.xsup[s + 1] - gb.xsup[s]);
+      momentPoints.push(x);
+      const common = { girder: g, span: s, point: { kind: 'moment' as const, fraction: f, x }, sense: 'positive' as const, beam: gb.beam, beamResponse: { kind: 'moment' as const, x: gb.starts[s] + f * gb.beam.spans[s] } };
+      add({ kind: 'girder-moment', girder: g, span: s, fraction: f }, [
+        { ...common, effect: 'moment', loads: [truck] },
+        { ...common, effect: 'fatigue-moment', loads: [fatigue] },
+      ]);
     }
-    if (wantShear) {
-      for (let j = 0; j <= N; j++) {
-        const sides: ('left' | 'right')[] = j === 0 ? ['right'] : j === N ? ['left'] : ['left', 'right'];
-        for (const side of sides) {
-          const r: GrillageResponse = { kind: 'girder-shear', girder: g, support: j, side };
-          const k = responses.push(r) - 1;
-          const span = side === 'right' ? j : j - 1;
-          const xBeam = j === 0 ? 0 : gb.starts[j - 1] + gb.beam.spans[j - 1];
-          for (const effect of ['shear', 'fatigue-shear'] as const) {
-            if (!effects.includes(effect)) continue;
-            targets.push({
-              girder: g,
-              effect,
-              span,
-              point: { kind: 'shear', support: j, side, x: gb.xsup[j] },
-              response: r,
-              sense: side === 'right' ? 'positive' : 'negative',
-              vehicle: effect === 'shear' ? DESIGN_TRUCK : FATIGUE_TRUCK,
-              surface: k,
-              beam: gb.beam,
-              beamResponse: { kind: 'shear', x: xBeam, side },
-            });
-          }
-        }
+    for (let j = 0; j <= N; j++) {
+      const sides: ('left' | 'right')[] = j === 0 ? ['right'] : j === N ? ['left'] : ['left', 'right'];
+      const xBeam = j === 0 ? 0 : gb.starts[j - 1] + gb.beam.spans[j - 1];
+      for (const side of sides) {
+        const common = { girder: g, span: side === 'right' ? j : j - 1, point: { kind: 'shear' as const, support: j, side, x: gb.xsup[j] }, sense: side === 'right' ? ('positive' as const) : ('negative' as const), beam: gb.beam, beamResponse: { kind: 'shear' as const, x: xBeam, side } };
+        add({ kind: 'girder-shear', girder: g, support: j, side }, [
+          { ...common, effect: 'shear', loads: [truck] },
+          { ...common, effect: 'fatigue-shear', loads: [fatigue] },
+        ]);
       }
+      const interiorPier = deck.continuous && j > 0 && j < N;
+      if (interiorPier) {
+        // negative moment at the girder's node on the support line (the end of span j and the start of span j+1)
+        add({ kind: 'girder-moment', girder: g, span: j - 1, fraction: 1 }, [
+          { girder: g, span: j - 1, effect: 'negative-moment', point: { kind: 'support-moment', support: j, x: gb.xsup[j] }, sense: 'negative', loads: [overPier], beam: gb.beam, beamResponse: { kind: 'moment', x: xBeam } },
+        ]);
+      }
+      add({ kind: 'reaction', girder: g, support: j }, [
+        { girder: g, span: j === N ? j - 1 : j, effect: 'reaction', point: { kind: 'reaction', support: j, x: gb.xsup[j] }, sense: 'positive', loads: [interiorPier ? overPier : truck], beam: gb.beam, beamResponse: { kind: 'reaction', support: j } },
+      ]);
     }
-  }
+  });
+  return { responses, targets, momentPoints };
+}
 
-  const surfaces: InfluenceSurface[] = influenceSurfaces(model, responses);
+/** Step 3. Every surface sampled on one station grid, with its check points. */
+function sampleSurfaces(model: GrillageModel, surfaces: InfluenceSurface[], rules: PlacementRules, options: StationOptions, momentPoints: number[]) {
   const st = grillageStations(model, rules, options, momentPoints);
   const table = model.transfer.tabulateGrid(st.xs, st.ys);
   const points = checkPoints(st.xs, st.ys);
   const checkTable = model.transfer.tabulate(points.x, points.y);
   const sampled = surfaces.map((s) => sampledFromGrid(s, st.xs, st.ys, s.evaluate(table), { points, values: s.evaluate(checkTable) }));
+  return { stations: st, sampled };
+}
 
-  const beamCacheEffect = new Map<string, number>();
-  const factors: RefinedFactor[] = targets.map((t) => {
-    const fatigue = t.effect.startsWith('fatigue');
-    const search = governingSurfacePlacement(sampled[t.surface], rules, t.vehicle, {
+/** One load's search on a target's surface and its one-lane beam-line effect. */
+interface LoadOutcome {
+  load: TargetLoad;
+  search: GoverningPlacement;
+  beamLineEffect: number;
+}
+
+/** Step 4. The governing placement of each of a target's loads, and their beam-line effects (memoised). */
+function searchTarget(t: Target, sampled: SampledSurface, source: InfluenceSurface, rules: PlacementRules, beamEffects: Map<string, number>): LoadOutcome[] {
+  const fatigue = t.effect.startsWith('fatigue');
+  return t.loads.map((load) => {
+    const search = governingSurfacePlacement(sampled, rules, load.vehicle, {
       sense: t.sense,
       laneCounts: fatigue ? [1] : undefined,
       multiplePresence: !fatigue,
-      source: surfaces[t.surface],
+      source,
     });
-    const bKey = `${JSON.stringify(t.beam.spans)}|${JSON.stringify(t.beamResponse)}|${t.vehicle.name}|${t.sense}`;
-    let B = beamCacheEffect.get(bKey);
+    const key = `${JSON.stringify(t.beam.spans)}|${JSON.stringify(t.beamResponse)}|${load.vehicle.name}|${t.sense}`;
+    let B = beamEffects.get(key);
     if (B === undefined) {
-      B = maxVehicleEffect(influenceLine(t.beam, t.beamResponse), t.vehicle, t.sense).value;
-      beamCacheEffect.set(bKey, B);
+      B = maxVehicleEffect(influenceLine(t.beam, t.beamResponse), load.vehicle, t.sense).value;
+      beamEffects.set(key, B);
     }
     const sgn = t.sense === 'positive' ? 1 : -1;
     if (!(sgn * B > 0)) {
-      throw new DeckInputError(['spans'], `the beam-line ${t.effect} of one lane at ${responseLabel(t.response)} is zero; a refined factor cannot be formed`);
+      throw new DeckInputError(['spans'], `the beam-line ${t.effect} of one lane of the ${load.vehicle.name} at ${responseLabel(t.response)} is zero; a refined factor cannot be formed`);
     }
-    const byLaneCount = search.byLaneCount.map((r) => ({
-      loadedLanes: r.loadedLanes,
-      multiplePresence: r.multiplePresence,
-      factor: r.value / B,
-      girderEffect: r.value,
-      placement: r.placement,
-    }));
-    const kind = t.point.kind === 'moment' ? ('moment' as const) : ('force' as const);
-    const label = responseLabel(t.response);
-    const lanes: RefinedLane[] = search.effect.lanes.map((l, i) => {
-      const p = search.placement.lanes[i];
-      const out: RefinedLane = {
-        lane: i,
-        left: l.left,
-        right: l.right,
-        wheelOffset: p.wheelOffset,
-        wheelLines: l.wheelLines,
-        frontAxleAt: p.frontAxleAt as number,
-        direction: p.direction as 1 | -1,
-        axles: l.axles ?? [],
-        effect: l.vehicleValue,
-      };
-      if (p.axleSpacing !== undefined) out.axleSpacing = p.axleSpacing;
-      return out;
-    });
-    const value = search.value / B;
-    const bound = boundInLanes(search.tolerance, B, value);
-    const article = fatigue ? FATIGUE_ARTICLE : REFINED_ARTICLE;
-    const trace: TraceStep[] = [
-      {
-        label: `Grillage: ${label}, governing placement of ${search.loadedLanes} ${t.vehicle.name}${search.loadedLanes > 1 ? 's' : ''}`,
-        formula: fatigue
-          ? 'E_g = max over legal placements of Σ_axles ½·W·(η(x, y_L) + η(x, y_R)), one lane, no m'
-          : 'E_g = max over k and legal placements of m(k)·Σ_lanes Σ_axles ½·W·(η(x, y_L) + η(x, y_R))',
-        inputs: [
-          { symbol: 'k', description: 'loaded lanes', value: search.loadedLanes, kind: 'none' },
-          { symbol: 'm', description: 'multiple presence factor', value: search.multiplePresence, kind: 'none' },
-        ],
-        value: search.value,
-        kind,
-        article,
-        note: bound.text,
-      },
-      {
-        label: `Beam line: one lane of the ${t.vehicle.name}, ${t.beamResponse.kind} at ${'x' in t.beamResponse ? t.beamResponse.x.toFixed(3) : ''} m along the girder`,
-        formula: 'E_1 = max over positions and directions of Σ W·η_beam(x) (axles that do not contribute neglected)',
-        inputs: t.beam.spans.map((L, i) => ({ symbol: `L${i + 1}`, description: 'span length along the girder', value: L, kind: 'length' as const })),
-        value: B,
-        kind,
-        article: 'AASHTO LRFD Art. 3.6.1.2 and 3.6.1.3.1; influence line by the stiffness method',
-      },
-      {
-        label: `Refined distribution factor, girder ${t.girder + 1}, ${t.effect}`,
-        formula: 'g = E_g / E_1',
-        inputs: [
-          { symbol: 'E_g', description: 'girder effect, m included', value: search.value, kind },
-          { symbol: 'E_1', description: 'one lane on the beam line', value: B, kind },
-        ],
-        value,
-        kind: 'none',
-        article,
-        note: `governing with ${search.loadedLanes} loaded lane(s); ${bound.text}`,
-      },
-    ];
-    return {
-      girder: t.girder,
-      girderNumber: t.girder + 1,
-      girderKind: t.girder === 0 || t.girder === Nb - 1 ? 'exterior' : 'interior',
-      effect: t.effect,
-      span: t.span,
-      point: t.point,
-      response: t.response,
-      label,
-      sense: t.sense,
-      vehicle: t.vehicle.name,
-      value,
-      loadedLanes: search.loadedLanes,
-      multiplePresence: search.multiplePresence,
-      girderEffect: search.value,
-      beamLineEffect: B,
-      placement: search.placement,
-      lanes,
-      byLaneCount,
-      tolerance: { ...search.tolerance, text: bound.text, factor: bound.lanes, percent: bound.percent },
-      trace,
-    };
+    return { load, search, beamLineEffect: B };
   });
+}
 
-  const { rows, sources: rowSources } = refinedRows(deck, factors, rules.laneCount);
-  // One finding per effect whose stated bounds are loose, naming the worst.
+/**
+ * Step 5. The factor of a target from its loads' outcomes: the largest girder effect over the
+ * largest one-lane beam-line effect, so g × (the governing beam-line effect) is the girder's
+ * governing effect (the code applies one factor to the governing beam-line effect). With one
+ * load this is E_g / E_1 of that load. The bound: what any load's legal placement could add
+ * beyond the governing girder effect, in lanes of the same denominator.
+ */
+function factorOfTarget(t: Target, outcomes: LoadOutcome[], girderCount: number): RefinedFactor {
+  const sgn = t.sense === 'positive' ? 1 : -1;
+  const gov = outcomes.reduce((a, b) => (sgn * b.search.value > sgn * a.search.value ? b : a));
+  const beamGov = outcomes.reduce((a, b) => (sgn * b.beamLineEffect > sgn * a.beamLineEffect ? b : a));
+  const B = beamGov.beamLineEffect;
+  const search = gov.search;
+  const value = search.value / B;
+  const excess = Math.max(...outcomes.map((o) => sgn * o.search.value + o.search.tolerance.absolute)) - sgn * search.value;
+  const tolerance: ToleranceStatement = { ...search.tolerance, absolute: Math.max(0, excess) };
+  const bound = boundInLanes(tolerance, B, value);
+  const byLaneCount = search.byLaneCount.map((_, i) => {
+    const best = outcomes.map((o) => o.search.byLaneCount[i]).reduce((a, b) => (sgn * b.value > sgn * a.value ? b : a));
+    return { loadedLanes: best.loadedLanes, multiplePresence: best.multiplePresence, factor: best.value / B, girderEffect: best.value, placement: best.placement };
+  });
+  const lanes: RefinedLane[] = search.effect.lanes.map((l, i) => {
+    const p = search.placement.lanes[i];
+    const out: RefinedLane = {
+      lane: i,
+      left: l.left,
+      right: l.right,
+      wheelOffset: p.wheelOffset,
+      wheelLines: l.wheelLines,
+      frontAxleAt: p.frontAxleAt as number,
+      direction: p.direction as 1 | -1,
+      axles: l.axles ?? [],
+      effect: l.vehicleValue,
+    };
+    if (p.axleSpacing !== undefined) out.axleSpacing = p.axleSpacing;
+    return out;
+  });
+  return {
+    girder: t.girder,
+    girderNumber: t.girder + 1,
+    girderKind: t.girder === 0 || t.girder === girderCount - 1 ? 'exterior' : 'interior',
+    effect: t.effect,
+    span: t.span,
+    point: t.point,
+    response: t.response,
+    label: responseLabel(t.response),
+    sense: t.sense,
+    vehicle: gov.load.vehicle.name,
+    value,
+    loadedLanes: search.loadedLanes,
+    multiplePresence: search.multiplePresence,
+    girderEffect: search.value,
+    beamLineEffect: B,
+    loads: outcomes.map((o) => ({ vehicle: o.load.vehicle.name, girderEffect: o.search.value, beamLineEffect: o.beamLineEffect, loadedLanes: o.search.loadedLanes })),
+    placement: search.placement,
+    lanes,
+    byLaneCount,
+    tolerance: { ...tolerance, text: bound.text, factor: bound.lanes, percent: bound.percent },
+    trace: factorTrace(t, outcomes, gov, beamGov, value, bound.text),
+  };
+}
+
+/** The trace of one refined factor: each load's girder effect, the beam line, the ratio. */
+function factorTrace(t: Target, outcomes: LoadOutcome[], gov: LoadOutcome, beamGov: LoadOutcome, value: number, boundText: string): TraceStep[] {
+  const fatigue = t.effect.startsWith('fatigue');
+  const kind = refinedEffectKind(t);
+  const article = fatigue ? FATIGUE_ARTICLE : REFINED_ARTICLE;
+  const label = responseLabel(t.response);
+  const where = 'x' in t.beamResponse ? `at ${t.beamResponse.x.toFixed(3)} m along the girder` : `at support ${t.beamResponse.support + 1}`;
+  const steps: TraceStep[] = [];
+  for (const o of outcomes) {
+    const s = o.search;
+    steps.push({
+      label: `Grillage: ${label}, governing placement of ${s.loadedLanes} loaded lane${s.loadedLanes > 1 ? 's' : ''} (${o.load.reason})`,
+      formula: fatigue
+        ? 'E_g = max over legal placements of Σ_axles ½·W·(η(x, y_L) + η(x, y_R)), one lane, no m'
+        : 'E_g = max over k and legal placements of m(k)·Σ_lanes Σ_axles ½·W·(η(x, y_L) + η(x, y_R))',
+      inputs: [
+        { symbol: 'k', description: 'loaded lanes', value: s.loadedLanes, kind: 'none' },
+        { symbol: 'm', description: 'multiple presence factor', value: s.multiplePresence, kind: 'none' },
+      ],
+      value: s.value,
+      kind,
+      article,
+      note: o === gov && outcomes.length > 1 ? 'governs the girder effect' : undefined,
+    });
+    steps.push({
+      label: `Beam line: one lane (${o.load.reason}), ${t.beamResponse.kind} ${where}`,
+      formula: 'E_1 = max over positions and directions of Σ W·η_beam(x) (axles that do not contribute neglected)',
+      inputs: t.beam.spans.map((L, i) => ({ symbol: `L${i + 1}`, description: 'span length along the girder', value: L, kind: 'length' as const })),
+      value: o.beamLineEffect,
+      kind,
+      article: 'AASHTO LRFD Art. 3.6.1.2 and 3.6.1.3.1; influence line by the stiffness method',
+      note: o === beamGov && outcomes.length > 1 ? 'governs the beam-line effect' : undefined,
+    });
+  }
+  steps.push({
+    label: `Refined distribution factor, girder ${t.girder + 1}, ${t.effect}`,
+    formula: outcomes.length > 1 ? 'g = max over the loads of E_g ÷ max over the loads of E_1' : 'g = E_g / E_1',
+    inputs: [
+      { symbol: 'E_g', description: 'girder effect, m included', value: gov.search.value, kind },
+      { symbol: 'E_1', description: 'one lane on the beam line', value: beamGov.beamLineEffect, kind },
+    ],
+    value,
+    kind: 'none',
+    article,
+    note: `governing with ${gov.search.loadedLanes} loaded lane(s); ${boundText}`,
+  });
+  for (const s of steps) if (s.note === undefined) delete s.note;
+  return steps;
+}
+
+/** Step 6. One finding per effect whose stated bounds are loose, naming the worst. */
+function boundFindings(deck: Deck, factors: RefinedFactor[], effects: readonly RefinedEffect[]): RefinedFinding[] {
   const own: RefinedFinding[] = [];
   for (const effect of effects) {
     const loose = factors.filter((f) => f.effect === effect && f.tolerance.factor > LOOSE_BOUND_LANES);
@@ -493,43 +554,85 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
       values: { bound: worst.tolerance.factor, factor: worst.value },
     });
   }
-  const trace: TraceStep[] = [
-    ...model.trace,
-    {
-      label: 'Vehicles of the refined factors',
-      formula: 'design truck alone (strength); fatigue truck, one lane, no m (fatigue)',
-      inputs: [{ symbol: 'NL', description: 'design lanes', value: rules.laneCount, kind: 'none' }],
-      value: rules.laneCount,
-      kind: 'none',
-      article: 'AASHTO LRFD Art. 3.6.1.2.2, 3.6.1.4.1; ratio as Art. 4.6.2.2 defines its factors',
-      note: 'the empirical factors were calibrated as girder-to-beam ratios under truck loads, so the truck alone gives the comparable ratio',
-    },
-  ];
+  return own;
+}
+
+/** The run's own trace step: which loads the refined factors use, and why. */
+function loadsTrace(laneCount: number, continuous: boolean): TraceStep {
+  return {
+    label: 'Vehicles of the refined factors',
+    formula: 'design truck alone (strength); fatigue truck, one lane, no m (fatigue)',
+    inputs: [{ symbol: 'NL', description: 'design lanes', value: laneCount, kind: 'none' }],
+    value: laneCount,
+    kind: 'none',
+    article: 'AASHTO LRFD Art. 3.6.1.2.2, 3.6.1.3.1, 3.6.1.4.1; ratio as Art. 4.6.2.2 defines its factors',
+    note:
+      'the empirical factors were calibrated as girder-to-beam ratios under truck loads, so the truck alone gives the comparable ratio' +
+      (continuous
+        ? '; over interior supports (negative moment, reactions) the factor is the one-truck ratio: the 90 % two-truck load of Art. 3.6.1.3.1 governs the beam line there but is not placed on the grillage, so the factor applied to it assumes the two trucks share out as one does'
+        : ''),
+  };
+}
+
+/**
+ * Refined (grillage) distribution factors of a deck. Throws DeckInputError for an invalid
+ * deck or option, GrillageInputError / GrillageMechanismError from the grillage.
+ */
+export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions = {}): RefinedResult {
+  const deck = assertDeck(deckInput);
+  const effects = options.effects ?? [...REFINED_EFFECTS];
+  effects.forEach((e, i) => {
+    if (!REFINED_EFFECTS.includes(e)) throw new DeckInputError(['refined', 'effects', i], `effect must be one of ${REFINED_EFFECTS.join(', ')}, not ${String(e)}`);
+  });
+  const model = options.model ?? buildGrillage(deck, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN, ...options.grillage });
+  const rules = placementRulesForDeck(deck);
+  const beams = girderBeams(model, deck.continuous);
+  const { responses, targets, momentPoints } = refinedTargets(deck, beams, effects);
+  const surfaces = influenceSurfaces(model, responses);
+  const { stations, sampled } = sampleSurfaces(model, surfaces, rules, options, momentPoints);
+  const beamEffects = new Map<string, number>();
+  const factors = targets.map((t) => factorOfTarget(t, searchTarget(t, sampled[t.surface], surfaces[t.surface], rules, beamEffects), model.girderCount));
+  const { rows, sources: rowSources } = refinedRows(deck, factors, rules.laneCount);
   return {
     deckName: deck.name,
-    girderCount: Nb,
+    girderCount: model.girderCount,
     designLanes: rules.laneCount,
     designLaneWidth: rules.laneWidth,
     layout: model.layout,
-    segmentsPerSpan: mesh.segmentsPerSpan,
+    segmentsPerSpan: model.mesh.segmentsPerSpan,
     mesh: model.stats,
-    stations: { longitudinal: st.xs.length, transverse: st.ys.length },
+    stations: { longitudinal: stations.xs.length, transverse: stations.ys.length },
     factors,
     rows,
     rowSources,
-    findings: [...model.findings, ...own],
-    trace,
+    findings: [...model.findings, ...boundFindings(deck, factors, effects)],
+    trace: [...model.trace, loadsTrace(rules.laneCount, deck.continuous)],
     caution: RESULT_CAUTION,
   };
 }
 
-/** One row of method "grillage" per girder number, effect, span and lane case, with where each came from. */
+/** The row location of a factor: its span for moment and shear, its support line (with the code's L) for negative moment and reactions. */
+function rowLocation(deck: Deck, locations: EffectLocation[], f: RefinedFactor, best: RefinedFactor): FactorRow['location'] {
+  if (f.point.kind === 'support-moment' || f.point.kind === 'reaction') {
+    const effect = f.point.kind === 'reaction' ? 'reaction' : 'negative-moment';
+    const support = f.point.support;
+    const code = locations.find((l) => l.effect === effect && l.support === support);
+    const description = code?.description ?? `support ${support + 1}`;
+    return { support, spanLength: code?.length ?? deck.spans[f.span].length, description, key: `support${support + 1}` };
+  }
+  const where = best.point.kind === 'moment' ? `${best.point.fraction.toFixed(1)} of the span` : best.point.kind === 'shear' ? `support ${best.point.support + 1}, ${best.point.side} side` : '';
+  return { span: f.span, spanLength: deck.spans[f.span].length, description: `span ${f.span + 1} (${where})`, key: `span${f.span + 1}` };
+}
+
+/** One row of method "grillage" per girder number, effect, location (span or support line) and lane case, with where each came from. */
 function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): { rows: FactorRow[]; sources: RefinedResult['rowSources'] } {
   const rows: FactorRow[] = [];
   const sources: RefinedResult['rowSources'] = [];
+  const locations = effectLocations(deck);
   const groups = new Map<string, number[]>();
   factors.forEach((f, i) => {
-    const k = `${f.girder}|${f.effect}|${f.span}`;
+    const place = f.point.kind === 'support-moment' || f.point.kind === 'reaction' ? `support${f.point.support}` : `span${f.span}`;
+    const k = `${f.girder}|${f.effect}|${place}`;
     const g = groups.get(k);
     if (g) g.push(i);
     else groups.set(k, [i]);
@@ -547,7 +650,6 @@ function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): {
       }
       if (!best) continue;
       const bf = factors[best.i];
-      const where = bf.point.kind === 'moment' ? `${bf.point.fraction.toFixed(1)} of the span` : `support ${bf.point.support + 1}, ${bf.point.side} side`;
       const row = buildFactorRow({
         girderKind: f0.girderKind,
         girderNumber: f0.girderNumber,
@@ -557,7 +659,7 @@ function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): {
         loadedLanes: best.c.loadedLanes,
         method: 'grillage',
         baseValue: best.c.factor,
-        location: { span: f0.span, spanLength: deck.spans[f0.span].length, description: `span ${f0.span + 1} (${where})`, key: `span${f0.span + 1}` },
+        location: rowLocation(deck, locations, f0, bf),
         trace: bf.trace,
       });
       if (!row.id.endsWith(`/g${f0.girderNumber}`)) row.id = `${row.id}/g${f0.girderNumber}`;

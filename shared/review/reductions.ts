@@ -70,8 +70,13 @@ export interface MomentReduction {
   designGirder: number;
 }
 
+/** The effects a refined factor is set beside the code's governing value for. */
+export const RATIO_EFFECTS = ['moment', 'shear', 'negative-moment', 'reaction'] as const;
+export type RatioEffect = (typeof RATIO_EFFECTS)[number];
+export const isRatioEffect = (e: string): e is RatioEffect => (RATIO_EFFECTS as readonly string[]).includes(e);
+
 /** The code's governing factor for a girder number (1-based) of `count`. */
-export function codeFactorForGirder(code: CodeFactorResult, girder: number, count: number, effect: 'moment' | 'shear', locationKey: string): { value: number; kind: GirderKind } | undefined {
+export function codeFactorForGirder(code: CodeFactorResult, girder: number, count: number, effect: RatioEffect, locationKey: string): { value: number; kind: GirderKind } | undefined {
   const kind: GirderKind = girder === 1 || girder === count ? 'exterior' : 'interior';
   const g = code.governing.find((x) => x.girder === kind && x.effect === effect && x.location.key === locationKey);
   return g ? { value: g.value, kind } : undefined;

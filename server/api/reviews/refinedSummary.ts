@@ -21,7 +21,7 @@ import { codeResultsOf, deckOf } from './versionResults.js';
 import { refinedResultsOf, type RefinedResults } from './refinedResults.js';
 import type { RefinedPool } from '../../compute/refinedPool.js';
 import { perLaneMaxMoment } from '../../reports/envelopes.js';
-import { codeFactorForGirder, largestClaimableReduction, momentReductionTable, type MomentReduction } from '../../../shared/review/reductions.js';
+import { codeFactorForGirder, isRatioEffect, largestClaimableReduction, momentReductionTable, type MomentReduction, type RatioEffect } from '../../../shared/review/reductions.js';
 
 export { codeFactorForGirder, type MomentReduction };
 
@@ -48,8 +48,8 @@ export interface RatioRow {
   /** Girder number, 1 = left exterior. */
   girder: number;
   girderKind: GirderKind;
-  effect: 'moment' | 'shear';
-  /** Location key of the code result ("span1"). */
+  effect: RatioEffect;
+  /** Location key of the code result ("span1", "support2"). */
   locationKey: string;
   location: string;
   refined: number;
@@ -128,7 +128,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
   const ratios: RatioRow[] = [];
   if (refined.factors) {
     for (const f of refined.factors) {
-      if (f.effect !== 'moment' && f.effect !== 'shear') continue;
+      if (!isRatioEffect(f.effect)) continue;
       const c = codeFactorForGirder(code, f.girder, count, f.effect, f.locationKey);
       if (!c || c.value <= 0) continue;
       ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value });

@@ -17,8 +17,8 @@ describe('compareFactors', () => {
   const cmp = compareFactors(code, refined);
 
   it('has a row per girder, effect, span and lane case, with both sides filled', () => {
-    // 6 girders × (moment one/multiple, shear one/multiple, fatigue moment, fatigue shear)
-    expect(cmp.rows.length).toBe(6 * 6);
+    // 6 girders × (moment one/multiple, shear one/multiple, fatigue moment, fatigue shear, reactions at 2 supports one/multiple)
+    expect(cmp.rows.length).toBe(6 * (6 + 2 * 2));
     for (const r of cmp.rows) {
       expect(r.grillage).toBeDefined();
       expect(r.code).toBeDefined();

@@ -42,8 +42,9 @@ describe('factors --refined', () => {
       expect(b.factors[i].value).toBe(r.value);
     });
     const grillage = b.factors.filter((r) => r.method === 'grillage');
-    // 6 girders × 2 spans × (moment one/multiple, shear one/multiple, fatigue moment, fatigue shear)
-    expect(grillage.length).toBe(6 * 2 * 6);
+    // 6 girders × (2 spans × (moment one/multiple, shear one/multiple, fatigue moment, fatigue shear)
+    // + negative moment at support 2 one/multiple + reactions at 3 supports one/multiple)
+    expect(grillage.length).toBe(6 * (2 * 6 + 2 + 3 * 2));
     expect(b.refined.method).toBe('grillage');
     expect(b.refined.caution).toMatch(/licensed engineer/);
     for (const r of grillage) {

@@ -134,7 +134,8 @@ describe('identities', () => {
         (g) =>
           g.girder === Nb - 1 - f.girder &&
           g.effect === f.effect &&
-          (f.point.kind === 'moment' ? g.point.kind === 'moment' : g.point.kind === 'shear' && g.point.support === f.point.support && g.point.side === f.point.side),
+          g.point.kind === f.point.kind &&
+          (g.point.kind === 'moment' || (g.point.support === (f.point as { support: number }).support && (g.point.kind !== 'shear' || g.point.side === (f.point as { side: string }).side))),
       )!;
       expect(mirror.value).toBeRelativelyClose(f.value, 1e-6);
     }
@@ -211,8 +212,8 @@ describe('identities', () => {
     const ids = new Set(refined.rows.map((r) => r.id));
     expect(ids.size).toBe(refined.rows.length);
     expect(refined.rows.every((r) => r.method === 'grillage' && typeof r.girder === 'number')).toBe(true);
-    // 6 girders × (moment, shear: one and multiple; fatigue moment, fatigue shear: one)
-    expect(refined.rows.length).toBe(6 * 6);
+    // 6 girders × (moment, shear: one and multiple; fatigue moment, fatigue shear: one; reactions at 2 supports: one and multiple)
+    expect(refined.rows.length).toBe(6 * (6 + 2 * 2));
     const interiorShear = refined.rows.find((r) => r.girderNumber === 3 && r.effect === 'shear' && r.lanes === 'multiple')!;
     const ends = find(refined, 2, 'shear').map((f) => Math.max(...f.byLaneCount.filter((c) => c.loadedLanes > 1).map((c) => c.factor)));
     expect(interiorShear.value).toBeRelativelyClose(Math.max(...ends), 1e-12);
