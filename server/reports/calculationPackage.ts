@@ -222,6 +222,7 @@ function deckInputs(deck: Deck, units: UnitSystem): [string, string][] {
     deck.policy.exteriorNotLessThanInterior && 'exterior girder not less than interior (Art. 2.5.2.7.1)',
     deck.policy.leverRuleWithoutMultiplePresence && 'lever rule for one lane without multiple presence',
     deck.policy.floorAtEqualShare && 'every factor at least m·NL/Nb',
+    deck.policy.rigidSectionAnyType && 'rigid-section check on every section type with diaphragms or cross-frames (not only a, e, k)',
   ].filter(Boolean);
   return [
     ['Deck', deck.name],
