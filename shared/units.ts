@@ -22,6 +22,7 @@ export type QuantityKind =
   | 'length' // layout lengths: spans, spacings, overhangs
   | 'dimension' // thicknesses and section dimensions
   | 'area'
+  | 'lengthSquared' // squares of layout lengths (Σx² of the rigid-section check): ft², m²
   | 'inertia' // second moment of area, torsion constant, Kg
   | 'stress' // moduli, f'c
   | 'unitWeight'
@@ -47,6 +48,7 @@ export const DISPLAY_UNITS: Record<UnitSystem, Record<QuantityKind, DisplayUnit>
     length: { symbol: 'ft', factor: M_PER_FT },
     dimension: { symbol: 'in', factor: M_PER_IN },
     area: { symbol: 'in²', factor: M_PER_IN ** 2 },
+    lengthSquared: { symbol: 'ft²', factor: M_PER_FT ** 2 },
     inertia: { symbol: 'in⁴', factor: M_PER_IN ** 4 },
     stress: { symbol: 'ksi', factor: PA_PER_KSI },
     unitWeight: { symbol: 'kcf', factor: KIP_PER_FT3 },
@@ -60,6 +62,7 @@ export const DISPLAY_UNITS: Record<UnitSystem, Record<QuantityKind, DisplayUnit>
     length: { symbol: 'm', factor: 1 },
     dimension: { symbol: 'mm', factor: 1e-3 },
     area: { symbol: 'mm²', factor: 1e-6 },
+    lengthSquared: { symbol: 'm²', factor: 1 },
     inertia: { symbol: 'mm⁴', factor: 1e-12 },
     stress: { symbol: 'MPa', factor: PA_PER_MPA },
     unitWeight: { symbol: 'kN/m³', factor: 1e3 },

@@ -12,7 +12,7 @@ import PDFDocument from 'pdfkit';
 import { SECTION_TYPE_DESCRIPTIONS, type Deck } from '../../shared/deck/schema.js';
 import { deckGeometry } from '../../shared/deck/geometry.js';
 import type { FactorRow } from '../../shared/lrfd/index.js';
-import type { TraceStep } from '../../shared/trace.js';
+import { stepForDisplay, zeroIfNegligible, type TraceStep } from '../../shared/trace.js';
 import { fromUs, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '../../shared/units.js';
 import { baseFont, fitLine, heightOf, registerFonts, write, type Weight } from './pdfFonts.js';
 import type { ReportData } from './reportData.js';
@@ -47,14 +47,31 @@ export function num(v: number, decimals: number): string {
   return v.toFixed(decimals);
 }
 
-const DECIMALS: Record<QuantityKind, number> = { length: 3, dimension: 2, area: 1, inertia: 0, stress: 1, unitWeight: 4, force: 1, moment: 1, lineLoad: 3, angle: 1, none: 4 };
+const DECIMALS: Record<QuantityKind, number> = { length: 3, dimension: 2, area: 1, lengthSquared: 1, inertia: 0, stress: 1, unitWeight: 4, force: 1, moment: 1, lineLoad: 3, angle: 1, none: 4 };
 
 /** An internal value in the display unit of its kind. */
-export function qty(value: number, kind: QuantityKind, units: UnitSystem): string {
+export function qty(value: number, kind: QuantityKind, units: UnitSystem, options: { zeroBelowPrecision?: boolean } = {}): string {
   const sym = unitSymbol(kind, units);
   const d = kind === 'dimension' && units === 'SI' ? 0 : kind === 'none' && Number.isInteger(value) ? 0 : DECIMALS[kind];
-  const shown = num(toDisplay(value, kind, units), d);
+  const raw = toDisplay(value, kind, units);
+  // In traces a value that rounds to zero at the decimals printed reads 0 (shared/trace.ts).
+  const shown = num(options.zeroBelowPrecision ? zeroIfNegligible(raw, 0, d) : raw, d);
   return sym ? (sym === '°' ? `${shown}°` : `${shown} ${sym}`) : shown;
+}
+
+/**
+ * A trace step's inputs on one line, "S = 8.000 ft;  Σx² = 640.0 ft²", each in the report's
+ * units with the formula's US value where that unit differs; residue prints as 0.
+ */
+export function traceInputsText(s: TraceStep, units: UnitSystem): string {
+  return s.inputs
+    .map((i) => {
+      const shown = qty(i.value, i.kind, units, { zeroBelowPrecision: true });
+      const fd = i.formulaUnit === 'in⁴' ? 0 : 3;
+      const formulaUnit = i.formulaUnit && i.formulaValue !== undefined && i.formulaUnit !== unitSymbol(i.kind, units) ? ` (${num(zeroIfNegligible(i.formulaValue, 0, fd), fd)} ${i.formulaUnit} in the formula)` : '';
+      return `${i.symbol} = ${shown}${formulaUnit}`;
+    })
+    .join(';  ');
 }
 
 function factor(v: number): string {
@@ -170,18 +187,13 @@ class Writer {
   }
 
   /** One trace step in two or three lines: "label: formula", the inputs, "= value [article]". */
-  traceStep(s: TraceStep, indent = 10): void {
-    const inputs = s.inputs
-      .map((i) => {
-        const shown = qty(i.value, i.kind, this.units);
-        const formulaUnit = i.formulaUnit && i.formulaValue !== undefined && i.formulaUnit !== unitSymbol(i.kind, this.units) ? ` (${num(i.formulaValue, i.formulaUnit === 'in⁴' ? 0 : 3)} ${i.formulaUnit} in the formula)` : '';
-        return `${i.symbol} = ${shown}${formulaUnit}`;
-      })
-      .join(';  ');
+  traceStep(step: TraceStep, indent = 10): void {
+    const s = stepForDisplay(step);
+    const inputs = traceInputsText(s, this.units);
     const lines: { text: string; weight: Weight; color: string }[] = [
       { text: `${s.label}:  ${s.formula}`, weight: 'regular', color: INK },
       ...(inputs ? [{ text: `with ${inputs}`, weight: 'regular' as Weight, color: MUTED }] : []),
-      { text: `= ${qty(s.value, s.kind, this.units)}   [${s.article}]${s.note ? `   ${s.note}` : ''}`, weight: 'bold', color: ACCENT },
+      { text: `= ${qty(s.value, s.kind, this.units, { zeroBelowPrecision: true })}   [${s.article}]${s.note ? `   ${s.note}` : ''}`, weight: 'bold', color: ACCENT },
     ];
     this.doc.fontSize(8);
     const w = CONTENT_W - indent - 6;
@@ -222,6 +234,7 @@ function deckInputs(deck: Deck, units: UnitSystem): [string, string][] {
     deck.policy.exteriorNotLessThanInterior && 'exterior girder not less than interior (Art. 2.5.2.7.1)',
     deck.policy.leverRuleWithoutMultiplePresence && 'lever rule for one lane without multiple presence',
     deck.policy.floorAtEqualShare && 'every factor at least m·NL/Nb',
+    deck.policy.rigidSectionAnyType && 'rigid-section check on every section type with diaphragms or cross-frames (not only a, e, k)',
   ].filter(Boolean);
   return [
     ['Deck', deck.name],

@@ -178,6 +178,9 @@ export const policySchema = z.strictObject({
   leverRuleWithoutMultiplePresence: z.boolean().default(false),
   /** Owner policy: every factor is at least m·NL/Nb (all lanes loaded, girders share equally). */
   floorAtEqualShare: z.boolean().default(false),
+  /** Owner policy: the rigid-section check (Art. 4.6.2.2.2d) on every section type with
+   *  diaphragms or cross-frames, not only types a, e, k. */
+  rigidSectionAnyType: z.boolean().default(false),
 });
 
 export const loadModifierSchema = z.strictObject({
@@ -228,7 +231,7 @@ export const deckSchema = z
     /** One entry per support line (spans + 1), from the first abutment. */
     supports: z.array(supportSchema).min(2, 'a deck needs at least two support lines'),
     diaphragms: diaphragmSchema,
-    policy: policySchema.default({ exteriorNotLessThanInterior: false, leverRuleWithoutMultiplePresence: false, floorAtEqualShare: false }),
+    policy: policySchema.default({ exteriorNotLessThanInterior: false, leverRuleWithoutMultiplePresence: false, floorAtEqualShare: false, rigidSectionAnyType: false }),
     loadModifiers: loadModifierSchema.default({ ductility: 1, redundancy: 1, importance: 1 }),
   })
   .superRefine((deck, ctx) => {

@@ -38,7 +38,7 @@ import { rigidSection, type RigidSectionResult, type RigidSectionWorksheet } fro
 import { exteriorShear, interiorShear } from './shear.js';
 import { momentSkewFactor, shearSkewFactor, type SkewFactor, type SkewInputs } from './skew.js';
 import { effectLocations, type EffectLocation } from './spanLengths.js';
-import { formulaFamily, rigidSectionApplies, SD_CONSTANT_K, type FormulaFamily } from './sectionTypes.js';
+import { formulaFamily, rigidSectionScope, SD_CONSTANT_K, type FormulaFamily, type RigidSectionScope } from './sectionTypes.js';
 
 export type GirderKind = 'interior' | 'exterior';
 export type FactorEffect = 'moment' | 'negative-moment' | 'shear' | 'reaction' | 'fatigue-moment' | 'fatigue-shear' | 'deflection';
@@ -303,7 +303,8 @@ interface Engine {
   Nb: number;
   interiorS?: { S: number; girder: number };
   symmetric: boolean;
-  rigid: boolean;
+  /** Whether the rigid-section check applies, and why (Art. 4.6.2.2.2d). */
+  rigid: RigidSectionScope;
   leverCache: Map<string, LeverRuleResult>;
   rigidCache: Map<string, RigidSectionResult>;
 }
@@ -376,7 +377,7 @@ function makeEngine(deck: Deck): Engine {
     Nb,
     interiorS,
     symmetric: isSymmetric(geom, deck),
-    rigid: rigidSectionApplies(deck),
+    rigid: rigidSectionScope(deck),
     leverCache: new Map(),
     rigidCache: new Map(),
   };
@@ -642,7 +643,7 @@ function locationInits(en: Engine, loc: EffectLocation): FactorRowInit[] {
         inits.push(init);
         if (o.lesserWithLeverRule) leverRow([], 'lesser-of');
       }
-      if (en.rigid) {
+      if (en.rigid.applies) {
         const rs = rigidFor(en, side);
         const cs = lanes === 'one' ? rs.one : rs.multiple;
         if (cs) {
@@ -651,8 +652,10 @@ function locationInits(en: Engine, loc: EffectLocation): FactorRowInit[] {
             method: 'rigid-section',
             loadedLanes: cs.loadedLanes,
             baseValue: cs.value,
-            findings: [],
-            trace: rs.trace.filter((_, i) => (lanes === 'one' ? i === 0 : i > 0)).map((st) => (momentLike ? st : { ...st, article: `${st.article}; applied to shear by Art. 4.6.2.2.3b` })),
+            findings: rigidScopeFindings(en.rigid, en.deck.sectionType),
+            trace: rs.trace
+              .filter((_, i) => (lanes === 'one' ? i === 0 : i > 0))
+              .map((st) => withScopeNote(momentLike ? st : { ...st, article: `${st.article}; applied to shear by Art. 4.6.2.2.3b` }, en.rigid)),
             rigidSection: rs.worksheet,
           };
           if (lanes === 'one') init.oneLaneMultiplePresence = 1.2;
@@ -681,6 +684,30 @@ function locationInits(en: Engine, loc: EffectLocation): FactorRowInit[] {
     }
   }
   return inits;
+}
+
+/** A rigid-section step with the reason the check applies appended to its note. */
+function withScopeNote(st: TraceStep, scope: RigidSectionScope): TraceStep {
+  return { ...st, note: st.note ? `${st.note}; ${scope.reason}` : scope.reason };
+}
+
+/** A rigid-section row applied by owner policy says so among its findings. */
+function rigidScopeFindings(scope: RigidSectionScope, sectionType: Deck['sectionType']): Finding[] {
+  if (scope.basis !== 'owner-policy') return [];
+  return [{ code: 'policy', message: `owner policy: rigid-section check on section type ${sectionType}, which is not one of types a, e, k`, article: scope.article }];
+}
+
+/** The step of the derived trace that records whether the rigid-section check applies, and why. */
+function rigidScopeStep(scope: RigidSectionScope, deck: Deck): TraceStep {
+  return {
+    label: `Rigid-section check for the exterior girders: ${scope.applies ? 'applies' : 'does not apply'}`,
+    formula: 'applies to section types a, e, k with diaphragms or cross-frames; to other types by owner policy',
+    inputs: [],
+    value: scope.applies ? 1 : 0,
+    kind: 'none',
+    article: scope.article,
+    note: `section type ${deck.sectionType}, ${deck.diaphragms.type === 'none' ? 'no diaphragms' : deck.diaphragms.type.replace(/-/g, ' ')}: ${scope.reason}`,
+  };
 }
 
 /** Skew angles a location's correction reads (for sharing rows between equal locations). */
@@ -805,6 +832,7 @@ function derivedTrace(en: Engine): TraceStep[] {
       article: 'AASHTO LRFD Art. 4.6.2.2.1 (notation de)',
     });
   }
+  steps.push(rigidScopeStep(en.rigid, deck));
   return steps;
 }
 
@@ -960,6 +988,9 @@ export function computeCodeFactors(deck: Deck): CodeFactorResult {
         article: 'AASHTO LRFD Art. 4.6.2.2.1 and 4.6.3 (engineering judgement)',
       });
     }
+  }
+  if (en.rigid.basis === 'type-not-covered') {
+    deckFindings.push({ code: 'not-applicable', message: `rigid-section check ${en.rigid.reason}`, article: en.rigid.article });
   }
   if (en.lanes.count === 1) {
     deckFindings.push({ code: 'not-applicable', message: 'the roadway holds one design lane: the formulas for two or more lanes do not apply', article: 'AASHTO LRFD Art. 3.6.1.1.1' });

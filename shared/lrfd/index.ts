@@ -4,7 +4,7 @@
  */
 export { DESIGN_LANE_WIDTH, designLanes, multiplePresenceFactor } from './lanes.js';
 export type { Finding, FindingCode } from './findings.js';
-export { formulaFamily, rigidSectionApplies, SD_CONSTANT_K, FAMILY_DESCRIPTIONS, type FormulaFamily } from './sectionTypes.js';
+export { formulaFamily, rigidSectionApplies, rigidSectionScope, RIGID_SECTION_TYPES, type RigidSectionScope, SD_CONSTANT_K, FAMILY_DESCRIPTIONS, type FormulaFamily } from './sectionTypes.js';
 export { leverRule, leverOrdinate, type LeverRuleResult, type LeverRuleWorksheet, type LeverRuleCase, type LeverRuleTruck, type LeverRuleWheel, type LeverRuleOptions } from './leverRule.js';
 export { rigidSection, type RigidSectionResult, type RigidSectionWorksheet, type RigidSectionCase } from './rigidSection.js';
 export { interiorMoment, exteriorMoment } from './moment.js';

@@ -103,7 +103,7 @@ export function rigidSection(
       { symbol: 'Nb', description: 'number of girders', value: nb, kind: 'none' },
       { symbol: 'X_ext', description: 'exterior girder from the centre of the girders', value: xExt, kind: 'length', formulaValue: toUs.ft(xExt), formulaUnit: 'ft' },
       { symbol: 'Σe', description: `sum of truck eccentricities (${cs.eccentricities.map((v) => toUs.ft(v).toFixed(2)).join(', ')} ft)`, value: cs.sumE, kind: 'length', formulaValue: toUs.ft(cs.sumE), formulaUnit: 'ft' },
-      { symbol: 'Σx²', description: 'sum of squared girder distances from the centre', value: sumX2, kind: 'area', formulaValue: toUs.ft(toUs.ft(sumX2)), formulaUnit: 'ft²' },
+      { symbol: 'Σx²', description: 'sum of squared girder distances from the centre', value: sumX2, kind: 'lengthSquared', formulaValue: toUs.ft(toUs.ft(sumX2)), formulaUnit: 'ft²' },
       { symbol: 'm', description: 'multiple presence factor', value: cs.multiplePresence, kind: 'none' },
     ],
     value: cs.value,

@@ -59,9 +59,77 @@ export function formulaFamily(deck: Pick<Deck, 'sectionType' | 'section'>): Form
   }
 }
 
-/** Beam-slab cross-sections to which the rigid-section check of Art. 4.6.2.2.2d applies. */
-export function rigidSectionApplies(deck: Pick<Deck, 'sectionType' | 'diaphragms'>): boolean {
-  return ['a', 'b', 'c', 'e', 'k'].includes(deck.sectionType) && deck.diaphragms.type !== 'none';
+/**
+ * Section types the rigid-section check covers without an owner policy. The commentary to
+ * AASHTO LRFD Art. 4.6.2.2.2d says the additional investigation is required because the
+ * distribution factors of multigirder cross-sections, types "a", "e" and "k" of
+ * Table 4.6.2.2.1-1, were derived without considering diaphragms or cross-frames (wording
+ * from memory; the text could not be checked against a copy of the code here). Types i and
+ * j acting as a unit use the same formulas but are not named there, so they, like every
+ * other type, take the check only when the owner's policy asks for it.
+ */
+export const RIGID_SECTION_TYPES: readonly SectionType[] = ['a', 'e', 'k'];
+
+export interface RigidSectionScope {
+  applies: boolean;
+  /** Why: the section type is one the commentary names, an owner policy asks for it, the
+   *  deck has no diaphragms or cross-frames, or the type is not named and no policy asks. */
+  basis: 'section-type' | 'owner-policy' | 'no-diaphragms' | 'type-not-covered';
+  /** Plain sentence for the trace and the findings. */
+  reason: string;
+  article: string;
+}
+
+const RIGID_ARTICLE = 'AASHTO LRFD Art. 4.6.2.2.2d and its commentary';
+const RIGID_POLICY_ARTICLE = 'owner policy (rigid-section check beyond types a, e, k of Table 4.6.2.2.1-1)';
+
+/**
+ * Whether the rigid-section check of Art. 4.6.2.2.2d applies to a deck's exterior girders,
+ * and why. The article's text speaks of beam-slab cross-sections with diaphragms or
+ * cross-frames (from memory), so the check never applies without them, policy or not.
+ */
+export function rigidSectionScope(deck: Pick<Deck, 'sectionType' | 'diaphragms' | 'policy'>): RigidSectionScope {
+  const t = deck.sectionType;
+  const named = RIGID_SECTION_TYPES.includes(t);
+  if (deck.diaphragms.type === 'none') {
+    return {
+      applies: false,
+      basis: 'no-diaphragms',
+      reason: `not applied: the deck has no diaphragms or cross-frames, which the rigid-section check presumes`,
+      article: RIGID_ARTICLE,
+    };
+  }
+  if (named) {
+    return {
+      applies: true,
+      basis: 'section-type',
+      reason: `applied: section type ${t} is one of types a, e, k named by the commentary, and the deck has ${diaphragmWords(deck)}`,
+      article: RIGID_ARTICLE,
+    };
+  }
+  if (deck.policy.rigidSectionAnyType) {
+    return {
+      applies: true,
+      basis: 'owner-policy',
+      reason: `applied by owner policy: section type ${t} is not one of types a, e, k, but the owner's policy asks for the check on every type with diaphragms or cross-frames`,
+      article: RIGID_POLICY_ARTICLE,
+    };
+  }
+  return {
+    applies: false,
+    basis: 'type-not-covered',
+    reason: `not applied: section type ${t} is not one of types a, e, k named by the commentary (an owner policy can ask for it)`,
+    article: RIGID_ARTICLE,
+  };
+}
+
+function diaphragmWords(deck: Pick<Deck, 'diaphragms'>): string {
+  return deck.diaphragms.type === 'steel-cross-frames' ? 'steel cross-frames' : 'concrete diaphragms';
+}
+
+/** Whether the rigid-section check of Art. 4.6.2.2.2d applies (see `rigidSectionScope` for why). */
+export function rigidSectionApplies(deck: Pick<Deck, 'sectionType' | 'diaphragms' | 'policy'>): boolean {
+  return rigidSectionScope(deck).applies;
 }
 
 /** Constant K of the S/D method (Table 4.6.2.2.2b-1, types h; g, i, j not acting as a unit). */

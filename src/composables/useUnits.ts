@@ -9,6 +9,7 @@
  */
 import { computed, type Ref } from 'vue';
 import { fromDisplay, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '@shared/units';
+import { zeroIfNegligible } from '@shared/trace';
 
 /** Significant digits kept in input boxes. */
 const INPUT_SIGNIFICANT_DIGITS = 7;
@@ -40,8 +41,8 @@ export function parseInput(text: string, kind: QuantityKind, system: UnitSystem)
 
 /** Decimals for reading, per kind and system (values shown in display units). */
 const READ_DECIMALS: Record<UnitSystem, Partial<Record<QuantityKind, number>>> = {
-  US: { length: 2, dimension: 2, area: 1, inertia: 0, stress: 0, unitWeight: 3, force: 1, moment: 1, lineLoad: 3, angle: 1, none: 3 },
-  SI: { length: 3, dimension: 1, area: 0, inertia: 0, stress: 0, unitWeight: 1, force: 1, moment: 1, lineLoad: 2, angle: 1, none: 3 },
+  US: { length: 2, dimension: 2, area: 1, lengthSquared: 1, inertia: 0, stress: 0, unitWeight: 3, force: 1, moment: 1, lineLoad: 3, angle: 1, none: 3 },
+  SI: { length: 3, dimension: 1, area: 0, lengthSquared: 3, inertia: 0, stress: 0, unitWeight: 1, force: 1, moment: 1, lineLoad: 2, angle: 1, none: 3 },
 };
 
 /** An internal value as text for reading, with its unit symbol unless `withUnit` is false. */
@@ -49,11 +50,13 @@ export function formatValue(
   value: number | undefined | null,
   kind: QuantityKind,
   system: UnitSystem,
-  options: { decimals?: number; withUnit?: boolean } = {},
+  options: { decimals?: number; withUnit?: boolean; zeroBelowPrecision?: boolean } = {},
 ): string {
   if (value === undefined || value === null || !Number.isFinite(value)) return '—';
-  const shown = toDisplay(value, kind, system);
   const decimals = options.decimals ?? READ_DECIMALS[system][kind] ?? 3;
+  const raw = toDisplay(value, kind, system);
+  // In traces, a value that rounds to zero at the decimals shown reads 0, not 3.6e-16.
+  const shown = options.zeroBelowPrecision ? zeroIfNegligible(raw, 0, decimals) : raw;
   const abs = Math.abs(shown);
   const text =
     abs !== 0 && (abs >= 1e9 || abs < 10 ** -decimals)

@@ -201,3 +201,21 @@ describe('plate calculator', () => {
     expect(store.valid).toBe(true);
   });
 });
+
+describe('owner-policy switches', () => {
+  it('each switch has a label tied to it; the rigid-section switch sets the deck policy', async () => {
+    await openPanel('policy');
+    for (const key of ['exteriorNotLessThanInterior', 'leverRuleWithoutMultiplePresence', 'floorAtEqualShare', 'rigidSectionAnyType']) {
+      const sw = wrapper.find(`[data-test="policy-${key}"]`);
+      const label = wrapper.find(`label[data-test="policy-label-${key}"]`);
+      expect(sw.exists() && label.exists(), key).toBe(true);
+      expect(label.attributes('for')).toBe(sw.attributes('id'));
+    }
+    // The commentary to AASHTO LRFD Art. 4.6.2.2.2d names types a, e, k; the label says so.
+    expect(wrapper.find('label[data-test="policy-label-rigidSectionAnyType"]').text()).toContain('not only types a, e, k');
+    expect(store.draft.policy?.rigidSectionAnyType ?? false).toBe(false);
+    await wrapper.find('[data-test="policy-rigidSectionAnyType"]').trigger('click');
+    await flushPromises();
+    expect(store.draft.policy?.rigidSectionAnyType).toBe(true);
+  });
+});

@@ -1,5 +1,6 @@
 /** Display helpers for the review and training screens: factors and forces in the project's units. */
 import { toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '@shared/units';
+import { zeroIfNegligible } from '@shared/trace';
 
 export function factorText(v: number): string {
   return Number.isFinite(v) ? v.toFixed(4) : '—';
@@ -7,8 +8,9 @@ export function factorText(v: number): string {
 
 /** An internal (SI) value shown in the project's unit system with its symbol. */
 export function quantityText(value: number, kind: QuantityKind, units: UnitSystem, decimals?: number): string {
-  const shown = toDisplay(value, kind, units);
   const d = decimals ?? (kind === 'moment' || kind === 'force' ? 1 : kind === 'none' ? 4 : 3);
+  // Round-off residue that rounds to zero at d decimals prints 0, never −0.000.
+  const shown = zeroIfNegligible(toDisplay(value, kind, units), 0, d);
   const sym = unitSymbol(kind, units);
   const text = Math.abs(shown) >= 10000 ? shown.toLocaleString('en-US', { maximumFractionDigits: 0 }) : shown.toFixed(d);
   return sym ? (sym === '°' ? `${text}°` : `${text} ${sym}`) : text;
