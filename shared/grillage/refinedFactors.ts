@@ -51,7 +51,7 @@ import { DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from '../loads/vehicles.js'
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
 import { placementRulesForDeck, type Placement, type PlacementRules } from '../placement/rules.js';
 import { checkPoints, sampledFromGrid, type SampledSurface } from '../placement/sampledSurface.js';
-import { boundInLanes, governingSurfacePlacement, type GoverningPlacement, type ToleranceStatement } from '../placement/search.js';
+import { BOUND_TARGET_LANES, BOUND_TARGET_PERCENT, boundInLanes, governingSurfacePlacement, type GoverningPlacement, type ToleranceStatement } from '../placement/search.js';
 import type { Sense } from '../placement/evaluate.js';
 import { influenceSurfaces, type InfluenceSurface } from './influenceSurface.js';
 import { supportX } from './mesh.js';
@@ -99,8 +99,8 @@ export interface StationOptions {
  */
 export const REFINED_SEGMENTS_PER_SPAN = 40;
 
-/** A factor whose stated bound exceeds this many lanes gets a finding. */
-export const LOOSE_BOUND_LANES = 0.01;
+/** The bound target (search.ts): a factor whose stated bound misses it gets a finding and `tolerance.meetsTarget` false. */
+export { BOUND_TARGET_LANES, BOUND_TARGET_PERCENT };
 
 export interface RefinedFinding {
   code: 'loose-bound';
@@ -165,8 +165,12 @@ export interface RefinedFactor {
   placement: Placement;
   lanes: RefinedLane[];
   byLaneCount: { loadedLanes: number; multiplePresence: number; factor: number; girderEffect: number; placement: Placement }[];
-  /** The search's bound restated for the factor: `factor` in lanes, `percent` of the value, `text` in those words. */
-  tolerance: ToleranceStatement & { factor: number; percent: number };
+  /**
+   * The search's bound restated for the factor: `factor` in lanes, `percent` of the value,
+   * `text` in those words; `meetsTarget` whether it is within BOUND_TARGET_LANES lanes and
+   * BOUND_TARGET_PERCENT % of the value (a factor that misses it must not back a reduction claim).
+   */
+  tolerance: ToleranceStatement & { factor: number; percent: number; meetsTarget: boolean };
   trace: TraceStep[];
 }
 
@@ -479,7 +483,7 @@ function factorOfTarget(t: Target, outcomes: LoadOutcome[], girderCount: number)
     placement: search.placement,
     lanes,
     byLaneCount,
-    tolerance: { ...tolerance, text: bound.text, factor: bound.lanes, percent: bound.percent },
+    tolerance: { ...tolerance, text: bound.text, factor: bound.lanes, percent: bound.percent, meetsTarget: bound.meetsTarget },
     trace: factorTrace(t, outcomes, gov, beamGov, value, bound.text),
   };
 }
@@ -534,20 +538,26 @@ function factorTrace(t: Target, outcomes: LoadOutcome[], gov: LoadOutcome, beamG
   return steps;
 }
 
-/** Step 6. One finding per effect whose stated bounds are loose, naming the worst. */
+/**
+ * Step 6. One finding per effect whose factors miss the bound target (BOUND_TARGET_LANES lanes
+ * and BOUND_TARGET_PERCENT % of the value), naming the worst by its share of the target.
+ */
 function boundFindings(deck: Deck, factors: RefinedFactor[], effects: readonly RefinedEffect[]): RefinedFinding[] {
   const own: RefinedFinding[] = [];
+  const excess = (f: RefinedFactor) => Math.max(f.tolerance.factor / BOUND_TARGET_LANES, f.tolerance.percent / BOUND_TARGET_PERCENT);
   for (const effect of effects) {
-    const loose = factors.filter((f) => f.effect === effect && f.tolerance.factor > LOOSE_BOUND_LANES);
+    const loose = factors.filter((f) => f.effect === effect && !f.tolerance.meetsTarget);
     if (!loose.length) continue;
-    const worst = loose.reduce((a, b) => (b.tolerance.factor > a.tolerance.factor ? b : a));
+    const worst = loose.reduce((a, b) => (excess(b) > excess(a) ? b : a));
     const skewShear = worst.point.kind === 'shear' && deck.supports.some((x) => x.skew !== 0);
     own.push({
       code: 'loose-bound',
       severity: 'warning',
       message:
-        `${effect}: ${loose.length} of the refined factors are bounded against the grillage's surface only to more than ${LOOSE_BOUND_LANES} lanes ` +
-        `(worst ${worst.tolerance.factor.toFixed(3)} lanes, ${worst.label}); each is exact on the sampled surface and is the true value of a legal placement` +
+        `${effect}: ${loose.length} of the refined factors are bounded against the grillage's surface only to more than the target ` +
+        `(${BOUND_TARGET_LANES} lanes and ${BOUND_TARGET_PERCENT} % of the value; worst ${worst.tolerance.factor.toFixed(4)} lanes, ` +
+        `${worst.tolerance.percent.toFixed(2)} %, ${worst.label}); each is exact on the sampled surface and is the true value of a legal placement, ` +
+        'but must not back a reduction claim' +
         (skewShear ? ' — the shear jumps along the skewed support line, which the sampled grid cannot follow' : ' — more stations (stationsPerSegment, rowsPerStrip) tighten the bound'),
       girderNumber: worst.girderNumber,
       effect,

@@ -44,6 +44,13 @@ export interface SampledSurface extends SurfaceLike {
    * bound what a placement could gain on the surface itself (search.ts).
    */
   errorEnvelope?: Float64Array;
+  /**
+   * Per cell (index j·(xs.length − 1) + i for [xs[i], xs[i+1]] × [ys[j], ys[j+1]]), as
+   * measured: `error` the largest |surface − representation| at the points checked in or on
+   * it, `lo`/`hi` the smallest/largest surface ordinate there (corners included). Absent
+   * when not measured. `raisedRows` builds the upper (or lower) sample from them.
+   */
+  cells?: { error: Float64Array; lo: Float64Array; hi: Float64Array };
 }
 
 function sortedUnique(values: ArrayLike<number>, lo: number, hi: number, what: string): Float64Array {
@@ -161,6 +168,82 @@ export function checkPoints(xs: Float64Array, ys: Float64Array): CheckPoints {
   return { x, y, column: Int32Array.from(col), inCell: Uint8Array.from(inc), cellX, cellY, tx, ty };
 }
 
+/** Per-cell statistics started from the grid values: no error yet, lo/hi over the four corners. */
+function cellCorners(rows: Float64Array[], nx: number, ny: number): NonNullable<SampledSurface['cells']> {
+  const n = (nx - 1) * (ny - 1);
+  const error = new Float64Array(n);
+  const lo = new Float64Array(n);
+  const hi = new Float64Array(n);
+  for (let j = 0; j + 1 < ny; j++) {
+    for (let i = 0; i + 1 < nx; i++) {
+      const a = rows[j][i];
+      const b = rows[j][i + 1];
+      const d = rows[j + 1][i];
+      const e = rows[j + 1][i + 1];
+      const c = j * (nx - 1) + i;
+      lo[c] = Math.min(a, b, d, e);
+      hi[c] = Math.max(a, b, d, e);
+    }
+  }
+  return { error, lo, hi };
+}
+
+/**
+ * Record check point k (error d, surface ordinate v) on every cell it lies in or on: a point
+ * on a row edge belongs to the cells above and below it, a point on a column to the cells
+ * left and right of it.
+ */
+function markCells(cells: NonNullable<SampledSurface['cells']>, nx: number, ny: number, p: CheckPoints, k: number, d: number, v: number): void {
+  const i = p.cellX[k];
+  const j = p.cellY[k];
+  const iList = p.inCell[k] ? [i] : [p.column[k] - 1, p.column[k]];
+  const jList = p.ty[k] === 0 ? [j - 1, j] : p.ty[k] === 1 ? [j, j + 1] : [j];
+  for (const a of iList) {
+    if (a < 0 || a >= nx - 1) continue;
+    for (const b of jList) {
+      if (b < 0 || b >= ny - 1) continue;
+      const c = b * (nx - 1) + a;
+      if (d > cells.error[c]) cells.error[c] = d;
+      if (v < cells.lo[c]) cells.lo[c] = v;
+      if (v > cells.hi[c]) cells.hi[c] = v;
+    }
+  }
+}
+
+/**
+ * The sample raised (sgn = 1) or lowered (sgn = −1) so that, bilinear between nodes, it is
+ * beyond the surface at every point checked: each cell asks of its four corners either
+ * "sample + the cell's error" or "at least the cell's largest ordinate" (sgn = −1: the
+ * mirror), whichever suits it (the second where the error is a large part of the cell's
+ * range, as where a jump crosses the cell), and each node takes the most any of its cells
+ * asks. A bilinear function is at least its smallest corner, so every cell's demand holds
+ * inside it. The upper search of search.ts runs on it. Null when the sample was not measured.
+ */
+export function raisedRows(surface: SampledSurface, sgn: 1 | -1): Float64Array[] | null {
+  const cells = surface.cells;
+  if (!cells) return null;
+  const { rows } = surface;
+  const nx = surface.xs.length;
+  const ny = surface.ys.length;
+  const out = rows.map((r) => Float64Array.from(r));
+  for (let j = 0; j + 1 < ny; j++) {
+    for (let i = 0; i + 1 < nx; i++) {
+      const c = j * (nx - 1) + i;
+      const e = cells.error[c];
+      if (e === 0) continue;
+      const top = sgn > 0 ? cells.hi[c] : cells.lo[c];
+      const byLevel = e > 0.25 * (cells.hi[c] - cells.lo[c]);
+      for (let q = 0; q < 4; q++) {
+        const b = j + (q >> 1);
+        const a = i + (q & 1);
+        const want = byLevel ? top : rows[b][a] + sgn * e;
+        if (sgn * (want - out[b][a]) > 0) out[b][a] = want;
+      }
+    }
+  }
+  return out;
+}
+
 /**
  * A sampled surface from ordinates already computed on the grid (values[i·ys.length + j] at
  * (xs[i], ys[j]), row-major by x), and, when given, the surface's ordinates at `check`
@@ -199,8 +282,10 @@ export function sampledFromGrid(
   };
   let err = 0;
   let envelope: Float64Array | undefined;
+  let cells: SampledSurface['cells'];
   if (check) {
     envelope = new Float64Array(nx);
+    cells = cellCorners(rows, nx, ny);
     const p = check.points;
     for (let k = 0; k < p.x.length; k++) {
       const i0 = p.cellX[k];
@@ -213,6 +298,7 @@ export function sampledFromGrid(
       const i = p.column[k];
       if (d > envelope[i]) envelope[i] = d;
       if (p.inCell[k] && d > envelope[i + 1]) envelope[i + 1] = d;
+      markCells(cells, nx, ny, p, k, d, check.values[k]);
     }
   }
   const out: SampledSurface = {
@@ -227,5 +313,6 @@ export function sampledFromGrid(
     source,
   };
   if (envelope) out.errorEnvelope = envelope;
+  if (cells) out.cells = cells;
   return out;
 }

@@ -18,7 +18,10 @@
  * (sampledSurface.ts) and that bound exceeds `tightenAbove` of the effect, it is tightened by
  * a second exact search on the sample raised by E: every axle's share on the surface is at
  * most its share on the raised sample (in the sense sought, and so is its positive part), so
- * that search's optimum bounds every legal placement on the surface. ε and E are measured at
+ * that search's optimum bounds every legal placement on the surface. When the sample carries
+ * per-cell measurements (`cells`), the raised sample is built cell by cell (`raisedRows`):
+ * each cell raises its own corners, by its error or to its largest ordinate, so a jump along
+ * a skewed line raises only the cells it crosses, not whole columns. ε and E are measured at
  * the midpoints of the grid's cells and edges (a bound for a surface smooth between stations;
  * a jump the grid does not follow, such as a shear's along a skewed support line, shows up as
  * a large ε and a loose bound). `tolerance.absolute` reports the bound.
@@ -85,7 +88,7 @@ import {
   type Placement,
   type PlacementRules,
 } from './rules.js';
-import { cellIndex, type SampledSurface, type SurfaceLike } from './sampledSurface.js';
+import { cellIndex, raisedRows, type SampledSurface, type SurfaceLike } from './sampledSurface.js';
 import { transverseAt, type TransverseLine } from './transverseLines.js';
 
 export interface ToleranceStatement {
@@ -99,6 +102,19 @@ export interface ToleranceStatement {
   text: string;
 }
 
+/**
+ * The bound a refined factor aims for: no legal placement exceeds the factor by more than
+ * BOUND_TARGET_LANES lanes AND by more than BOUND_TARGET_PERCENT % of the factor (common
+ * practice, no source: well below the rounding of a reported factor to two decimals).
+ */
+export const BOUND_TARGET_LANES = 0.005;
+export const BOUND_TARGET_PERCENT = 0.5;
+
+/** Whether a bound restated in lanes and percent (boundInLanes) meets both targets. */
+export function meetsBoundTarget(bound: { lanes: number; percent: number }): boolean {
+  return bound.lanes <= BOUND_TARGET_LANES && bound.percent <= BOUND_TARGET_PERCENT;
+}
+
 /** A ratio as a percentage an engineer reads: 0.012 → "1.2 %", below 0.01 % "< 0.01 %". */
 function percent(ratio: number): string {
   if (!Number.isFinite(ratio)) return 'an unknown part';
@@ -110,8 +126,10 @@ function percent(ratio: number): string {
  * The bound of a governing placement restated for a distribution factor g = E / E_1: in lanes
  * (absolute / |E_1|) and as a percentage of g, so a reader never meets the response's internal
  * unit. `beamLineEffect` is E_1 (same unit as the effect), `factor` the reported g.
+ * `meetsTarget`: within BOUND_TARGET_LANES lanes and BOUND_TARGET_PERCENT % of g (the text
+ * then says so when it is not).
  */
-export function boundInLanes(tolerance: ToleranceStatement, beamLineEffect: number, factor: number): { lanes: number; percent: number; text: string } {
+export function boundInLanes(tolerance: ToleranceStatement, beamLineEffect: number, factor: number): { lanes: number; percent: number; meetsTarget: boolean; text: string } {
   const lanes = tolerance.absolute / Math.abs(beamLineEffect);
   const share = factor !== 0 ? lanes / Math.abs(factor) : lanes === 0 ? 0 : Infinity;
   const lanesText = lanes === 0 ? '0' : lanes < 1e-4 ? '< 0.0001' : lanes.toFixed(4);
@@ -119,7 +137,9 @@ export function boundInLanes(tolerance: ToleranceStatement, beamLineEffect: numb
     tolerance.kind === 'exact' || tolerance.absolute === 0
       ? `no legal placement exceeds this factor (${tolerance.text})`
       : `no legal placement exceeds this factor by more than ${lanesText} lanes (${percent(share)} of ${factor.toFixed(3)}); ${tolerance.text}`;
-  return { lanes, percent: share * 100, text };
+  const meetsTarget = meetsBoundTarget({ lanes, percent: share * 100 });
+  const miss = meetsTarget ? '' : `; this bound misses the target (${BOUND_TARGET_LANES} lanes and ${BOUND_TARGET_PERCENT} % of the value), so the factor must not back a reduction claim`;
+  return { lanes, percent: share * 100, meetsTarget, text: text + miss };
 }
 
 export interface LaneCountResult {
@@ -607,7 +627,7 @@ export function governingSurfacePlacement(
   const env = surface.errorEnvelope;
   if (env && eps > 0 && Math.max(...gaps) > (options.tightenAbove ?? 0.005) * Math.abs(g.value)) {
     // Search the sample raised by the envelope: an upper bound of every placement on the surface.
-    const raised = rows.map((row) => row.map((v, i) => v + sgn * env[i]));
+    const raised = raisedRows(surface, sgn) ?? rows.map((row) => row.map((v, i) => v + sgn * env[i]));
     const upper = searchSample(xs, ys, raised, surface.extent, rules, shape, sgn, counts, directions);
     work.wheelLineEvaluations += upper.work.wheelLineEvaluations;
     work.exactLanes += upper.work.exactLanes;
