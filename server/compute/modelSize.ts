@@ -37,7 +37,7 @@ export function refinedModelSize(deck: Deck, segmentsPerSpan = REFINED_SEGMENTS_
   const lines = ys.length;
   const N = deck.spans.length;
   const m = segmentsPerSpan;
-  const diaphragms = deck.diaphragms.type === 'none' ? 0 : deck.diaphragms.intermediatePerSpan;
+  const diaphragms = deck.diaphragms.type === 'none' || deck.diaphragms.includeInGrillage === false ? 0 : deck.diaphragms.intermediatePerSpan;
   const maxSkew = Math.max(...deck.supports.map((s) => Math.abs(s.skew)));
   let nodes: number;
   if (maxSkew <= DEFAULT_SKEW_PARALLEL_LIMIT) {

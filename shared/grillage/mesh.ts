@@ -263,7 +263,7 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
     exterior: tribLeft(0) + tribRight(0),
   });
   findings.push(...stiff.findings);
-  const diaphragmsModelled = stiff.diaphragmEI > 0;
+  const diaphragmsModelled = stiff.diaphragmsModelled;
   const intermediate = diaphragmsModelled ? deck.diaphragms.intermediatePerSpan : 0;
   const supportDiaphragms = diaphragmsModelled && deck.diaphragms.atSupports;
 
@@ -289,7 +289,7 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
     members.push({
       i: a,
       j: b,
-      EI: sp.EI + (withDiaphragm ? stiff.diaphragmEI : 0),
+      EI: sp.EI + (withDiaphragm ? stiff.diaphragmEI(Math.abs(pb.y - pa.y)) : 0),
       GJ: sp.GJ,
       kind: withDiaphragm ? 'diaphragm' : 'slab',
       span,

@@ -18,7 +18,7 @@ export type GrillageFindingCode =
   | 'edge-line-skipped'
   | 'composite-section-unavailable'
   | 'girder-torsion-estimated'
-  | 'diaphragm-stiffness-missing'
+  | 'diaphragms-left-out'
   | 'panel-aspect-ratio'
   | 'few-nodes-per-span';
 
