@@ -19,6 +19,7 @@ export type GrillageFindingCode =
   | 'composite-section-unavailable'
   | 'girder-torsion-estimated'
   | 'diaphragms-left-out'
+  | 'diaphragms-modelled'
   | 'panel-aspect-ratio'
   | 'few-nodes-per-span';
 
