@@ -7,7 +7,7 @@
  * skew-parallel layout: segmentsPerSpan + intermediate diaphragms nodes (plus the support
  * nodes); perpendicular layout (any |skew| above 20°): the girder's span length over the
  * segment length + diaphragms + its two bearings. Diaphragms are counted whenever the deck
- * has them, so the count is at or a little above the mesh's (within 10 %, tested).
+ * has them in the grillage (diaphragms.includeInGrillage), so the count is at or a little above the mesh's (within 10 %, tested).
  *
  * The measure limited is nodes × girder lines: the run's time and memory grow with it (each
  * girder's influence surfaces span the whole mesh, and the banded stiffness holds about

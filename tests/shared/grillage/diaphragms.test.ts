@@ -2,7 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { assertDeck, DeckInputError, type DeckInput } from '../../../shared/deck/schema.js';
 import { analyseLoads, buildGrillage } from '../../../shared/grillage/index.js';
 import { diaphragmStiffness, STEEL_CROSS_FRAME_MODULUS } from '../../../shared/grillage/diaphragmStiffness.js';
+import { deckFromDisplay } from '../../../shared/deck/units.js';
+import { computeCodeFactors } from '../../../shared/lrfd/factors.js';
 import { fromUs } from '../../../shared/units.js';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { steelDeck } from './fixtures.js';
 
 describe('diaphragm stiffness from the deck geometry (hand computations)', () => {
@@ -66,6 +70,19 @@ describe('bad diaphragm input', () => {
     expect(() => steelDeck({ diaphragms: { type: 'steel-cross-frames', frameDepth: 9 } })).toThrow(/cross-frame depth must be at most 5000 mm \(196\.9 in\)/);
   });
 
+  it('an old stored deck with diaphragms but no sizes parses, keeps its code factors, and the grillage names the missing field', () => {
+    const file = JSON.parse(readFileSync(fileURLToPath(new URL('../../../public/examples/fhwa-psc-step-5-1.deck.json', import.meta.url)), 'utf8'));
+    delete file.deck.diaphragms.width;
+    delete file.deck.diaphragms.depth;
+    const deck = assertDeck(deckFromDisplay(file.deck, file.units));
+    expect(deck.diaphragms.includeInGrillage).toBe(true);
+    const code = computeCodeFactors(deck);
+    expect(code.factors.length).toBeGreaterThan(0);
+    expect(() => buildGrillage(deck)).toThrow(/diaphragms\.width: concrete diaphragms in the grillage need a moment of inertia or width, depth/);
+    const off = assertDeck(deckFromDisplay({ ...file.deck, diaphragms: { ...file.deck.diaphragms, includeInGrillage: false } }, file.units));
+    expect(buildGrillage(off).findings.some((f) => f.code === 'diaphragms-left-out')).toBe(true);
+  });
+
   it('an old deck without the new fields still parses (defaults: in the grillage, no geometry)', () => {
     const deck = steelDeck({ diaphragms: { type: 'none' } as DeckInput['diaphragms'] });
     expect(deck.diaphragms.includeInGrillage).toBe(true);
@@ -84,8 +101,9 @@ describe('stiff diaphragms on a right simple span', () => {
   // The rigid-section model neglects torsion (the section rotates as a rigid body, loads shared
   // by bending alone), so both grillages are run without torsion for this comparison.
   /** Girder shares of the mid-span moment (station 5 of the tenth points). */
-  const shares = (withFrames: boolean) => {
-    const model = buildGrillage(steelDeck({ ...spec, diaphragms: withFrames ? frames : { type: 'none' } }), { segmentsPerSpan: 20, torsionFactor: 0 });
+  const shares = (withFrames: boolean, switchedOff = false) => {
+    const diaphragms = withFrames ? { ...frames, includeInGrillage: !switchedOff } : { type: 'none' as const };
+    const model = buildGrillage(steelDeck({ ...spec, diaphragms }), { segmentsPerSpan: 20, torsionFactor: 0 });
     const res = analyseLoads(model, load);
     const m = res.girderMoments.map((g) => g[0][5]);
     const total = m.reduce((a, b) => a + b, 0);
@@ -112,6 +130,8 @@ describe('stiff diaphragms on a right simple span', () => {
     expect(softShares[0] - rigid[0]).toBeGreaterThan(0.05);
     expect(dist(stiffShares)).toBeLessThan(0.1 * dist(softShares));
     stiffShares.forEach((v, i) => expect(Math.abs(v - rigid[i])).toBeLessThan(0.01));
+    // the deck's switch leaves them out: the same shares as no diaphragms at all
+    shares(true, true).m.forEach((v, i) => expect(v).toBeRelativelyClose(soft.m[i], 1e-12));
     // the model summary names the members and their stiffness
     expect(stiff.model.trace.some((t) => t.label.startsWith('Diaphragm member (steel cross-frame'))).toBe(true);
     expect(stiff.model.mesh.members.filter((m) => m.kind === 'diaphragm')).toHaveLength(11 * 4);
