@@ -7,7 +7,7 @@
  * skew-parallel layout: segmentsPerSpan + intermediate diaphragms nodes (plus the support
  * nodes); perpendicular layout (any |skew| above 20°): the girder's span length over the
  * segment length + diaphragms + its two bearings. Diaphragms are counted whenever the deck
- * has them, so the count is at or a little above the mesh's (within 10 %, tested).
+ * has them in the grillage (diaphragms.includeInGrillage), so the count is at or a little above the mesh's (within 10 %, tested).
  *
  * The measure limited is nodes × girder lines: the run's time and memory grow with it (each
  * girder's influence surfaces span the whole mesh, and the banded stiffness holds about
@@ -37,7 +37,7 @@ export function refinedModelSize(deck: Deck, segmentsPerSpan = REFINED_SEGMENTS_
   const lines = ys.length;
   const N = deck.spans.length;
   const m = segmentsPerSpan;
-  const diaphragms = deck.diaphragms.type === 'none' ? 0 : deck.diaphragms.intermediatePerSpan;
+  const diaphragms = deck.diaphragms.type === 'none' || deck.diaphragms.includeInGrillage === false ? 0 : deck.diaphragms.intermediatePerSpan;
   const maxSkew = Math.max(...deck.supports.map((s) => Math.abs(s.skew)));
   let nodes: number;
   if (maxSkew <= DEFAULT_SKEW_PARALLEL_LIMIT) {

@@ -24,7 +24,7 @@ const quarryCreekUs = {
   spans: [{ length: 110 }],
   continuous: false,
   supports: [{ skew: 20 }, { skew: 20 }],
-  diaphragms: { type: 'concrete-diaphragms', atSupports: true, intermediatePerSpan: 1 },
+  diaphragms: { type: 'concrete-diaphragms', atSupports: true, intermediatePerSpan: 1, width: 10, depth: 54 }, // in
 };
 
 /** Ashgrove Street Viaduct: three continuous spans of steel plate girders, 35° skew (SI). */
@@ -45,7 +45,8 @@ const ashgroveSi = {
   spans: [{ length: 36 }, { length: 45 }, { length: 36 }],
   continuous: true,
   supports: [{ skew: 35 }, { skew: 35 }, { skew: 35 }, { skew: 35 }],
-  diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 3 },
+  // X cross-frames of equal-leg angles: chords ~L100×100×10 (1920 mm²), diagonals ~L90×90×8 (1390 mm²), 1100 mm deep
+  diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 3, topChordArea: 1920, bottomChordArea: 1920, diagonalArea: 1390, frameDepth: 1100 },
 };
 
 export function demoDecks(): { project: string; deck: Deck; message: string }[] {

@@ -94,6 +94,12 @@ export const PHYSICAL_LIMITS = {
   spanLength: { min: 1, max: 300, kind: 'length' },
   /** Diaphragm moment of inertia. */
   diaphragmInertia: { min: 1e-9, max: 10, kind: 'inertia' },
+  /** Concrete diaphragm web width and depth below the slab. */
+  diaphragmDimension: { min: 0.05, max: 5, kind: 'dimension' },
+  /** Cross-frame chord and diagonal areas (a small angle to a heavy built-up member). */
+  crossFrameArea: { min: 1e-4, max: 0.05, kind: 'area' },
+  /** Cross-frame depth, chord centroid to chord centroid. */
+  crossFrameDepth: { min: 0.2, max: 5, kind: 'dimension' },
   /** Load modifiers ηD, ηR, ηI: Art. 1.3.3–1.3.5 give values from 0.95 to 1.05. */
   loadModifier: { min: 0.95, max: 1.05, kind: 'none' },
 } as const satisfies Record<string, PhysicalRange>;

@@ -169,6 +169,20 @@ export const diaphragmSchema = z.strictObject({
   inertia: ranged('diaphragm moment of inertia', L.diaphragmInertia).optional(),
   /** Modulus of elasticity of the diaphragm, Pa (defaults to the girder's). */
   modulus: ranged('diaphragm modulus', L.modulus).optional(),
+  /** Concrete diaphragms: web width b_w, m (with depth: the default stiffness, grillage/diaphragmStiffness.ts). */
+  width: ranged('diaphragm width', L.diaphragmDimension).optional(),
+  /** Concrete diaphragms: depth below the slab soffit, m. */
+  depth: ranged('diaphragm depth', L.diaphragmDimension).optional(),
+  /** Steel cross-frames: top chord area, m². */
+  topChordArea: ranged('cross-frame top chord area', L.crossFrameArea).optional(),
+  /** Steel cross-frames: bottom chord area, m². */
+  bottomChordArea: ranged('cross-frame bottom chord area', L.crossFrameArea).optional(),
+  /** Steel cross-frames: area of one diagonal (X-frame, two per bay), m². */
+  diagonalArea: ranged('cross-frame diagonal area', L.crossFrameArea).optional(),
+  /** Steel cross-frames: depth between chord centroids, m. */
+  frameDepth: ranged('cross-frame depth', L.crossFrameDepth).optional(),
+  /** The grillage models the diaphragms (default true); false leaves them out (slab strips only). */
+  includeInGrillage: z.boolean().default(true),
 });
 
 export const policySchema = z.strictObject({

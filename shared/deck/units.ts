@@ -37,6 +37,12 @@ export const DECK_FIELD_KINDS: Record<string, QuantityKind> = {
   'supports.*.skew': 'angle',
   'diaphragms.inertia': 'inertia',
   'diaphragms.modulus': 'stress',
+  'diaphragms.width': 'dimension',
+  'diaphragms.depth': 'dimension',
+  'diaphragms.topChordArea': 'area',
+  'diaphragms.bottomChordArea': 'area',
+  'diaphragms.diagonalArea': 'area',
+  'diaphragms.frameDepth': 'dimension',
 };
 
 /** The quantity kind of a deck field, or undefined for a field without units. */

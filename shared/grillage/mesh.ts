@@ -165,14 +165,111 @@ interface PieceNode {
 
 const DEG = Math.PI / 180;
 
+/** Support lines x = A_j + B_j·y (see the module comment), the group centreline and span lengths. */
+interface SupportLines {
+  A: Float64Array;
+  B: Float64Array;
+  Xs: (j: number, y: number) => number;
+  yc: number;
+  spanLengths: number[];
+}
+
+/** Mutable state of a mesh under construction, shared by the building steps. */
+interface MeshBuild {
+  deck: Deck;
+  N: number;
+  m: number;
+  lineSpecs: LineSpec[];
+  sup: SupportLines;
+  stiff: DeckStiffness;
+  nodes: MeshNode[];
+  members: MeshMember[];
+  /** Node ids per line per span. */
+  linePieces: number[][][];
+  /** Node id of line l at support j ending span j − 1 (End) / starting span j (Start); the same node when continuous. */
+  supportNodeEnd: number[][];
+  supportNodeStart: number[][];
+  diaphragmFractions: number[];
+  supportDiaphragms: boolean;
+}
+
 export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
   const geom = deckGeometry(deck);
-  const Nb = geom.girderCount;
   const N = deck.spans.length;
   if (deck.supports.length !== N + 1) {
     throw new DeckInputError(['supports'], `a deck of ${N} span(s) needs ${N + 1} support lines, not ${deck.supports.length}`);
   }
-  const W = geom.offsets[Nb - 1];
+  const sup = supportLines(deck, geom);
+  const findings: GrillageFinding[] = [];
+  const { lineSpecs, edgeLeft, edgeRight } = longitudinalLineSpecs(deck, geom, opt, findings);
+  checkMemberLengths(deck, geom, sup.spanLengths);
+  checkSpansOpen(geom, lineSpecs, sup, N);
+  const { layout, maxSkew } = chooseLayout(deck, opt, findings);
+
+  const Nb = geom.girderCount;
+  const s0 = geom.spacings;
+  const tribLeft = (g: number) => (g === 0 ? (edgeLeft ? deck.overhangLeft / 2 : deck.overhangLeft) : s0[g - 1] / 2);
+  const tribRight = (g: number) => (g === Nb - 1 ? (edgeRight ? deck.overhangRight / 2 : deck.overhangRight) : s0[g] / 2);
+  const stiff = deckStiffness(deck, opt.stiffness, {
+    interior: Nb > 2 ? tribLeft(1) + tribRight(1) : undefined,
+    exterior: tribLeft(0) + tribRight(0),
+  });
+  findings.push(...stiff.findings);
+  const intermediate = stiff.diaphragmsModelled ? deck.diaphragms.intermediatePerSpan : 0;
+  const b: MeshBuild = {
+    deck,
+    N,
+    m: opt.segmentsPerSpan,
+    lineSpecs,
+    sup,
+    stiff,
+    nodes: [],
+    members: [],
+    linePieces: lineSpecs.map(() => Array.from({ length: N }, () => [] as number[])),
+    supportNodeEnd: lineSpecs.map(() => new Array<number>(N + 1).fill(-1)),
+    supportNodeStart: lineSpecs.map(() => new Array<number>(N + 1).fill(-1)),
+    diaphragmFractions: Array.from({ length: intermediate }, (_, k) => (k + 1) / (intermediate + 1)),
+    supportDiaphragms: stiff.diaphragmsModelled && deck.diaphragms.atSupports,
+  };
+  checkMeshSize(b, layout, opt.maxNodes);
+  if (layout === 'skew-parallel') buildSkewParallelMembers(b);
+  else buildPerpendicularMembers(b);
+  const lines = buildLongitudinalMembers(b, (g) => tribLeft(g) + tribRight(g), opt.edgeMembers);
+  const girderLine = new Int32Array(Nb);
+  lineSpecs.forEach((spec, l) => {
+    if (spec.kind === 'girder') girderLine[spec.girder] = l;
+  });
+  const bearings = placeBearings(b, girderLine, opt.omitBearings);
+  const diaphragmFinding = diaphragmMembersFinding(b);
+  if (diaphragmFinding) findings.push(diaphragmFinding);
+
+  const mesh: GrillageMesh = {
+    layout,
+    segmentsPerSpan: b.m,
+    spanCount: N,
+    continuous: deck.continuous,
+    nodes: b.nodes,
+    members: b.members,
+    lines,
+    girderLine,
+    bearings,
+    supportA: sup.A,
+    supportB: sup.B,
+    yc: sup.yc,
+    deckLeft: geom.deckLeft,
+    deckRight: geom.deckRight,
+    spanLengths: sup.spanLengths,
+    stiffness: stiff,
+    findings,
+    trace: meshTrace(b, layout, maxSkew, bearings.length),
+  };
+  mesh.findings.push(...meshQualityFindings(mesh));
+  return mesh;
+}
+
+function supportLines(deck: Deck, geom: ReturnType<typeof deckGeometry>): SupportLines {
+  const N = deck.spans.length;
+  const W = geom.offsets[geom.girderCount - 1];
   const yc = W / 2;
   const B = Float64Array.from(deck.supports, (s) => Math.tan(s.skew * DEG));
   const A = new Float64Array(N + 1);
@@ -181,11 +278,11 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
     A[j] = C - yc * B[j] + yc * B[0];
     if (j < N) C += deck.spans[j].length;
   }
-  const Xs = (j: number, y: number) => A[j] + B[j] * y;
-  const spanLengths = deck.spans.map((s) => s.length);
+  return { A, B, Xs: (j, y) => A[j] + B[j] * y, yc, spanLengths: deck.spans.map((s) => s.length) };
+}
 
-  // ---- lines
-  const findings: GrillageFinding[] = [];
+/** The longitudinal lines: girders, and edge members where the overhang allows. */
+function longitudinalLineSpecs(deck: Deck, geom: ReturnType<typeof deckGeometry>, opt: MeshOptions, findings: GrillageFinding[]) {
   const edges = opt.edgeMembers;
   const lineSpecs: LineSpec[] = [];
   const edgeLeft = edges !== false && deck.overhangLeft >= MIN_EDGE_OVERHANG;
@@ -200,9 +297,11 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
   if (edgeLeft) lineSpecs.push({ kind: 'edge', girder: -1, side: 'left', y: geom.deckLeft, label: 'the left edge member' });
   geom.offsets.forEach((y, g) => lineSpecs.push({ kind: 'girder', girder: g, y, label: `girder ${g + 1}` }));
   if (edgeRight) lineSpecs.push({ kind: 'edge', girder: -1, side: 'right', y: geom.deckRight, label: 'the right edge member' });
-  const nL = lineSpecs.length;
+  return { lineSpecs, edgeLeft, edgeRight };
+}
 
-  // ---- members must have a length a grillage can use
+/** Members must have a length a grillage can use. */
+function checkMemberLengths(deck: Deck, geom: ReturnType<typeof deckGeometry>, spanLengths: number[]): void {
   geom.spacings.forEach((sp, k) => {
     if (sp < MIN_GIRDER_SPACING) {
       throw new GrillageInputError(
@@ -217,13 +316,15 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
       throw new GrillageInputError('degenerate-mesh', ['spans', j, 'length'], `span ${j + 1} is ${len.toFixed(4)} m long: the grillage needs spans of at least ${MIN_SPAN_LENGTH} m`);
     }
   });
+}
 
-  // ---- spans must stay open along every line and at the deck edges
+/** Spans must stay open along every line and at the deck edges. */
+function checkSpansOpen(geom: ReturnType<typeof deckGeometry>, lineSpecs: LineSpec[], sup: SupportLines, N: number): void {
   const checkYs = [geom.deckLeft, ...lineSpecs.map((l) => l.y), geom.deckRight];
   for (let j = 0; j < N; j++) {
     for (const y of checkYs) {
-      const len = Xs(j + 1, y) - Xs(j, y);
-      if (!(len > 1e-3 * spanLengths[j])) {
+      const len = sup.Xs(j + 1, y) - sup.Xs(j, y);
+      if (!(len > 1e-3 * sup.spanLengths[j])) {
         throw new GrillageInputError(
           'unbuildable-deck',
           ['supports', j + 1, 'skew'],
@@ -232,8 +333,9 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
       }
     }
   }
+}
 
-  // ---- layout
+function chooseLayout(deck: Deck, opt: MeshOptions, findings: GrillageFinding[]): { layout: TransverseLayout; maxSkew: number } {
   const maxSkew = Math.max(...deck.supports.map((s) => Math.abs(s.skew)));
   const layout: TransverseLayout = opt.layout === 'auto' ? (maxSkew <= opt.skewParallelLimit ? 'skew-parallel' : 'perpendicular') : opt.layout;
   findings.push({
@@ -253,231 +355,238 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
       values: { maxSkew, limit: opt.skewParallelLimit },
     });
   }
+  return { layout, maxSkew };
+}
 
-  // ---- stiffness
-  const s0 = geom.spacings;
-  const tribLeft = (g: number) => (g === 0 ? (edgeLeft ? deck.overhangLeft / 2 : deck.overhangLeft) : s0[g - 1] / 2);
-  const tribRight = (g: number) => (g === Nb - 1 ? (edgeRight ? deck.overhangRight / 2 : deck.overhangRight) : s0[g] / 2);
-  const stiff = deckStiffness(deck, opt.stiffness, {
-    interior: Nb > 2 ? tribLeft(1) + tribRight(1) : undefined,
-    exterior: tribLeft(0) + tribRight(0),
-  });
-  findings.push(...stiff.findings);
-  const diaphragmsModelled = stiff.diaphragmEI > 0;
-  const intermediate = diaphragmsModelled ? deck.diaphragms.intermediatePerSpan : 0;
-  const supportDiaphragms = diaphragmsModelled && deck.diaphragms.atSupports;
-
-  const m = opt.segmentsPerSpan;
-  const nodes: MeshNode[] = [];
-  const members: MeshMember[] = [];
-  const linePieces: number[][][] = lineSpecs.map(() => Array.from({ length: N }, () => [] as number[])); // node ids per line per span
-  const bearingsRaw: Bearing[] = [];
-
-  const addNode = (x: number, line: number, span: number): number => {
-    nodes.push({ x, y: lineSpecs[line].y, line, span });
-    return nodes.length - 1;
-  };
-  const isGirderBay = (l: number) => lineSpecs[l].kind === 'girder' && lineSpecs[l + 1].kind === 'girder';
-  const addTransverse = (a: number, b: number, span: number, width: number, diaphragm: boolean) => {
-    if (!(width > 0)) return;
-    const pa = nodes[a];
-    const pb = nodes[b];
-    const len = Math.hypot(pb.x - pa.x, pb.y - pa.y);
-    const perp = (width * Math.abs(pb.y - pa.y)) / len;
-    const sp = stiff.slabStrip(perp);
-    const withDiaphragm = diaphragm && isGirderBay(Math.min(pa.line, pb.line));
-    members.push({
-      i: a,
-      j: b,
-      EI: sp.EI + (withDiaphragm ? stiff.diaphragmEI : 0),
-      GJ: sp.GJ,
-      kind: withDiaphragm ? 'diaphragm' : 'slab',
-      span,
-      stripWidth: perp,
-      line: -1,
-      seg: -1,
-    });
-  };
-  // node id of line l at support j: supportNodeEnd for the piece of span j − 1 ending there, supportNodeStart for the piece of span j starting there (the same node when continuous)
-  const supportNodeEnd: number[][] = lineSpecs.map(() => new Array<number>(N + 1).fill(-1)); // end of span j−1 at support j
-  const supportNodeStart: number[][] = lineSpecs.map(() => new Array<number>(N + 1).fill(-1)); // start of span j at support j
-
-  // ---- node-count guard (before anything large is allocated)
-  const diaphragmFractions = Array.from({ length: intermediate }, (_, k) => (k + 1) / (intermediate + 1));
+/** Node-count guard, before anything large is allocated. */
+function checkMeshSize(b: MeshBuild, layout: TransverseLayout, maxNodes: number): void {
+  const { N, m, lineSpecs, sup } = b;
+  const nL = lineSpecs.length;
+  const intermediate = b.diaphragmFractions.length;
   let estimate = 0;
   if (layout === 'skew-parallel') estimate = nL * (N * (m + intermediate) + 1);
   else {
     for (let j = 0; j < N; j++) {
-      const h = spanLengths[j] / m;
-      let xmin = Infinity;
-      let xmax = -Infinity;
-      for (const l of lineSpecs) {
-        xmin = Math.min(xmin, Xs(j, l.y));
-        xmax = Math.max(xmax, Xs(j + 1, l.y));
-      }
+      const h = sup.spanLengths[j] / m;
+      const { xmin, xmax } = spanExtent(b, j);
       estimate += nL * ((xmax - xmin) / h + intermediate + 3);
     }
   }
-  if (!(estimate <= opt.maxNodes)) {
+  if (!(estimate <= maxNodes)) {
     throw new GrillageInputError(
       'mesh-too-large',
       ['grillage', 'segmentsPerSpan'],
-      `the mesh would need about ${Math.round(estimate)} nodes, more than the limit of ${opt.maxNodes}: lower the mesh density (or, for extreme skew, check the skew angles)`,
+      `the mesh would need about ${Math.round(estimate)} nodes, more than the limit of ${maxNodes}: lower the mesh density (or, for extreme skew, check the skew angles)`,
     );
   }
+}
 
-  if (layout === 'skew-parallel') {
-    // fractions per span: uniform i/m, with intermediate diaphragm fractions replacing uniform ones nearby
-    const fractions: { f: number; diaphragm: boolean }[] = [];
-    for (let i = 0; i <= m; i++) {
-      const f = i / m;
-      if (i > 0 && i < m && diaphragmFractions.some((d) => Math.abs(d - f) < 0.25 / m)) continue;
-      fractions.push({ f, diaphragm: false });
-    }
-    for (const d of diaphragmFractions) fractions.push({ f: d, diaphragm: true });
-    fractions.sort((p, q) => p.f - q.f);
-    const F = fractions.length;
-    // station node ids: station[l][j][k]
-    const station: number[][][] = lineSpecs.map(() => Array.from({ length: N }, () => new Array<number>(F).fill(-1)));
-    lineSpecs.forEach((spec, l) => {
-      for (let j = 0; j < N; j++) {
-        const x0 = Xs(j, spec.y);
-        const len = Xs(j + 1, spec.y) - x0;
-        for (let k = 0; k < F; k++) {
-          let id: number;
-          if (k === 0 && j > 0 && deck.continuous) id = station[l][j - 1][F - 1];
-          else id = addNode(k === F - 1 ? Xs(j + 1, spec.y) : x0 + fractions[k].f * len, l, j);
-          station[l][j][k] = id;
-          linePieces[l][j].push(id);
-        }
-        supportNodeStart[l][j] = station[l][j][0];
-        supportNodeEnd[l][j + 1] = station[l][j][F - 1];
-      }
-    });
-    // transverse members at each station
-    const tribAlong = (l: number, j: number, k: number): number => {
-      const piece = linePieces[l][j];
-      const x = nodes[piece[k]].x;
-      let prev = k > 0 ? nodes[piece[k - 1]].x : x;
-      let next = k < F - 1 ? nodes[piece[k + 1]].x : x;
-      if (deck.continuous) {
-        if (k === 0 && j > 0) prev = nodes[linePieces[l][j - 1][F - 2]].x;
-        if (k === F - 1 && j < N - 1) next = nodes[linePieces[l][j + 1][1]].x;
-      }
-      return (next - prev) / 2;
-    };
+/** Smallest and largest x of span j over every line. */
+function spanExtent(b: MeshBuild, j: number): { xmin: number; xmax: number } {
+  let xmin = Infinity;
+  let xmax = -Infinity;
+  for (const l of b.lineSpecs) {
+    xmin = Math.min(xmin, b.sup.Xs(j, l.y));
+    xmax = Math.max(xmax, b.sup.Xs(j + 1, l.y));
+  }
+  return { xmin, xmax };
+}
+
+function addNode(b: MeshBuild, x: number, line: number, span: number): number {
+  b.nodes.push({ x, y: b.lineSpecs[line].y, line, span });
+  return b.nodes.length - 1;
+}
+
+/** A slab strip (with the diaphragm's stiffness added on a girder bay of a diaphragm line) from node a to node b. */
+function addTransverse(b: MeshBuild, a: number, c: number, span: number, width: number, diaphragm: boolean): void {
+  if (!(width > 0)) return;
+  const pa = b.nodes[a];
+  const pb = b.nodes[c];
+  const len = Math.hypot(pb.x - pa.x, pb.y - pa.y);
+  const perp = (width * Math.abs(pb.y - pa.y)) / len;
+  const sp = b.stiff.slabStrip(perp);
+  const l = Math.min(pa.line, pb.line);
+  const withDiaphragm = diaphragm && b.lineSpecs[l].kind === 'girder' && b.lineSpecs[l + 1].kind === 'girder';
+  b.members.push({
+    i: a,
+    j: c,
+    EI: sp.EI + (withDiaphragm ? b.stiff.diaphragmEI(Math.abs(pb.y - pa.y)) : 0),
+    GJ: sp.GJ,
+    kind: withDiaphragm ? 'diaphragm' : 'slab',
+    span,
+    stripWidth: perp,
+    line: -1,
+    seg: -1,
+  });
+}
+
+/** Skew-parallel layout: nodes at the same span fractions on every line, transverse members joining them. */
+function buildSkewParallelMembers(b: MeshBuild): void {
+  const { deck, N, m, lineSpecs, linePieces, nodes } = b;
+  const nL = lineSpecs.length;
+  const Xs = b.sup.Xs;
+  // fractions per span: uniform i/m, with intermediate diaphragm fractions replacing uniform ones nearby
+  const fractions: { f: number; diaphragm: boolean }[] = [];
+  for (let i = 0; i <= m; i++) {
+    const f = i / m;
+    if (i > 0 && i < m && b.diaphragmFractions.some((d) => Math.abs(d - f) < 0.25 / m)) continue;
+    fractions.push({ f, diaphragm: false });
+  }
+  for (const d of b.diaphragmFractions) fractions.push({ f: d, diaphragm: true });
+  fractions.sort((p, q) => p.f - q.f);
+  const F = fractions.length;
+  // station node ids: station[l][j][k]
+  const station: number[][][] = lineSpecs.map(() => Array.from({ length: N }, () => new Array<number>(F).fill(-1)));
+  lineSpecs.forEach((spec, l) => {
     for (let j = 0; j < N; j++) {
+      const x0 = Xs(j, spec.y);
+      const len = Xs(j + 1, spec.y) - x0;
       for (let k = 0; k < F; k++) {
-        if (k === 0 && j > 0 && deck.continuous) continue; // shared with the previous span's last station
-        const atSupport = k === 0 || k === F - 1;
-        const diaphragm = atSupport ? supportDiaphragms : fractions[k].diaphragm;
-        for (let l = 0; l + 1 < nL; l++) {
-          const width = (tribAlong(l, j, k) + tribAlong(l + 1, j, k)) / 2;
-          addTransverse(station[l][j][k], station[l + 1][j][k], j, width, diaphragm);
-        }
+        let id: number;
+        if (k === 0 && j > 0 && deck.continuous) id = station[l][j - 1][F - 1];
+        else id = addNode(b, k === F - 1 ? Xs(j + 1, spec.y) : x0 + fractions[k].f * len, l, j);
+        station[l][j][k] = id;
+        linePieces[l][j].push(id);
       }
+      b.supportNodeStart[l][j] = station[l][j][0];
+      b.supportNodeEnd[l][j + 1] = station[l][j][F - 1];
     }
-  } else {
-    // perpendicular layout
-    for (let j = 0; j < N; j++) {
-      const h = spanLengths[j] / m;
-      const xc0 = Xs(j, yc);
-      let xmin = Infinity;
-      let xmax = -Infinity;
-      for (const l of lineSpecs) {
-        xmin = Math.min(xmin, Xs(j, l.y));
-        xmax = Math.max(xmax, Xs(j + 1, l.y));
-      }
-      const hard = diaphragmFractions.map((f) => xc0 + f * spanLengths[j]);
-      const grid: { x: number; diaphragm: boolean }[] = hard.map((x) => ({ x, diaphragm: true }));
-      const i0 = Math.ceil((xmin - 0.5 * h - xc0) / h);
-      const i1 = Math.floor((xmax + 0.5 * h - xc0) / h);
-      for (let i = i0; i <= i1; i++) {
-        const x = xc0 + i * h;
-        if (hard.some((xh) => Math.abs(xh - x) < 0.5 * h)) continue;
-        grid.push({ x, diaphragm: false });
-      }
-      grid.sort((p, q) => p.x - q.x);
-      // attachment of each grid line to each line: node id or −1; `atSupport` marks snaps to a support node
-      const attach: Int32Array[] = grid.map(() => new Int32Array(nL).fill(-1));
-      const attachSupport: Int32Array[] = grid.map(() => new Int32Array(nL).fill(-1));
-      lineSpecs.forEach((spec, l) => {
-        const xs = Xs(j, spec.y);
-        const xe = Xs(j + 1, spec.y);
-        const pieceNodes: PieceNode[] = [];
-        const snaps: { g: number; slot: number }[] = []; // grid line g → pieceNodes slot
-        pieceNodes.push({ x: xs, support: j }, { x: xe, support: j + 1 });
-        grid.forEach((gl, g) => {
-          const ds = Math.abs(gl.x - xs);
-          const de = Math.abs(gl.x - xe);
-          const snapTol = gl.diaphragm ? 0.1 * h : 0.5 * h;
-          if (ds < snapTol && ds <= de) snaps.push({ g, slot: 0 });
-          else if (de < snapTol) snaps.push({ g, slot: 1 });
-          else if (gl.x > xs && gl.x < xe) {
-            pieceNodes.push({ x: gl.x, support: -1 });
-            snaps.push({ g, slot: pieceNodes.length - 1 });
-          }
-        });
-        // create nodes in x order
-        const orderIdx = pieceNodes.map((_, k) => k).sort((a, b) => pieceNodes[a].x - pieceNodes[b].x);
-        const ids = new Array<number>(pieceNodes.length);
-        for (const k of orderIdx) {
-          const pn = pieceNodes[k];
-          let id: number;
-          if (pn.support === j && j > 0 && deck.continuous) id = supportNodeEnd[l][j];
-          else id = addNode(pn.x, l, j);
-          ids[k] = id;
-          linePieces[l][j].push(id);
-        }
-        supportNodeStart[l][j] = ids[0];
-        supportNodeEnd[l][j + 1] = ids[1];
-        for (const s of snaps) {
-          attach[s.g][l] = ids[s.slot];
-          attachSupport[s.g][l] = pieceNodes[s.slot].support;
-        }
-      });
-      // grid-line members
-      grid.forEach((gl, g) => {
-        for (let l = 0; l + 1 < nL; l++) {
-          const a = attach[g][l];
-          const b = attach[g][l + 1];
-          if (a < 0 || b < 0) continue;
-          const sa = attachSupport[g][l];
-          if (sa >= 0 && sa === attachSupport[g][l + 1]) continue; // would duplicate the support-line member
-          const ym = (lineSpecs[l].y + lineSpecs[l + 1].y) / 2;
-          const lo = Math.max(gl.x - h / 2, Xs(j, ym));
-          const hi = Math.min(gl.x + h / 2, Xs(j + 1, ym));
-          const width = hi - lo;
-          if (width < 0.05 * h) continue;
-          addTransverse(a, b, j, width, gl.diaphragm);
-        }
-      });
+  });
+  // transverse members at each station
+  const tribAlong = (l: number, j: number, k: number): number => {
+    const piece = linePieces[l][j];
+    const x = nodes[piece[k]].x;
+    let prev = k > 0 ? nodes[piece[k - 1]].x : x;
+    let next = k < F - 1 ? nodes[piece[k + 1]].x : x;
+    if (deck.continuous) {
+      if (k === 0 && j > 0) prev = nodes[linePieces[l][j - 1][F - 2]].x;
+      if (k === F - 1 && j < N - 1) next = nodes[linePieces[l][j + 1][1]].x;
     }
-    // support-line members
-    for (let sup = 0; sup <= N; sup++) {
-      const hBefore = sup > 0 ? spanLengths[sup - 1] / m : 0;
-      const hAfter = sup < N ? spanLengths[sup] / m : 0;
+    return (next - prev) / 2;
+  };
+  for (let j = 0; j < N; j++) {
+    for (let k = 0; k < F; k++) {
+      if (k === 0 && j > 0 && deck.continuous) continue; // shared with the previous span's last station
+      const atSupport = k === 0 || k === F - 1;
+      const diaphragm = atSupport ? b.supportDiaphragms : fractions[k].diaphragm;
       for (let l = 0; l + 1 < nL; l++) {
-        if (deck.continuous || sup === 0 || sup === N) {
-          const a = sup < N ? supportNodeStart[l][sup] : supportNodeEnd[l][sup];
-          const b = sup < N ? supportNodeStart[l + 1][sup] : supportNodeEnd[l + 1][sup];
-          addTransverse(a, b, sup < N ? sup : sup - 1, (hBefore + hAfter) / 2, supportDiaphragms);
-        } else {
-          addTransverse(supportNodeEnd[l][sup], supportNodeEnd[l + 1][sup], sup - 1, hBefore / 2, supportDiaphragms);
-          addTransverse(supportNodeStart[l][sup], supportNodeStart[l + 1][sup], sup, hAfter / 2, supportDiaphragms);
-        }
+        const width = (tribAlong(l, j, k) + tribAlong(l + 1, j, k)) / 2;
+        addTransverse(b, station[l][j][k], station[l + 1][j][k], j, width, diaphragm);
       }
     }
   }
+}
 
-  // ---- longitudinal lines and members
-  const lines: LongitudinalLine[] = [];
+/** Perpendicular layout: grid lines at right angles to the girders, then the support-line members. */
+function buildPerpendicularMembers(b: MeshBuild): void {
+  for (let j = 0; j < b.N; j++) buildPerpendicularSpan(b, j);
+  buildSupportLineMembers(b);
+}
+
+/** One span of the perpendicular layout: its grid lines, the nodes where they meet each line, their members. */
+function buildPerpendicularSpan(b: MeshBuild, j: number): void {
+  const { deck, m, lineSpecs, linePieces } = b;
+  const nL = lineSpecs.length;
+  const Xs = b.sup.Xs;
+  const spanLength = b.sup.spanLengths[j];
+  const h = spanLength / m;
+  const xc0 = Xs(j, b.sup.yc);
+  const { xmin, xmax } = spanExtent(b, j);
+  const hard = b.diaphragmFractions.map((f) => xc0 + f * spanLength);
+  const grid: { x: number; diaphragm: boolean }[] = hard.map((x) => ({ x, diaphragm: true }));
+  const i0 = Math.ceil((xmin - 0.5 * h - xc0) / h);
+  const i1 = Math.floor((xmax + 0.5 * h - xc0) / h);
+  for (let i = i0; i <= i1; i++) {
+    const x = xc0 + i * h;
+    if (hard.some((xh) => Math.abs(xh - x) < 0.5 * h)) continue;
+    grid.push({ x, diaphragm: false });
+  }
+  grid.sort((p, q) => p.x - q.x);
+  // attachment of each grid line to each line: node id or −1; `attachSupport` marks snaps to a support node
+  const attach: Int32Array[] = grid.map(() => new Int32Array(nL).fill(-1));
+  const attachSupport: Int32Array[] = grid.map(() => new Int32Array(nL).fill(-1));
   lineSpecs.forEach((spec, l) => {
+    const xs = Xs(j, spec.y);
+    const xe = Xs(j + 1, spec.y);
+    const pieceNodes: PieceNode[] = [];
+    const snaps: { g: number; slot: number }[] = []; // grid line g → pieceNodes slot
+    pieceNodes.push({ x: xs, support: j }, { x: xe, support: j + 1 });
+    grid.forEach((gl, g) => {
+      const ds = Math.abs(gl.x - xs);
+      const de = Math.abs(gl.x - xe);
+      const snapTol = gl.diaphragm ? 0.1 * h : 0.5 * h;
+      if (ds < snapTol && ds <= de) snaps.push({ g, slot: 0 });
+      else if (de < snapTol) snaps.push({ g, slot: 1 });
+      else if (gl.x > xs && gl.x < xe) {
+        pieceNodes.push({ x: gl.x, support: -1 });
+        snaps.push({ g, slot: pieceNodes.length - 1 });
+      }
+    });
+    // create nodes in x order
+    const orderIdx = pieceNodes.map((_, k) => k).sort((p, q) => pieceNodes[p].x - pieceNodes[q].x);
+    const ids = new Array<number>(pieceNodes.length);
+    for (const k of orderIdx) {
+      const pn = pieceNodes[k];
+      let id: number;
+      if (pn.support === j && j > 0 && deck.continuous) id = b.supportNodeEnd[l][j];
+      else id = addNode(b, pn.x, l, j);
+      ids[k] = id;
+      linePieces[l][j].push(id);
+    }
+    b.supportNodeStart[l][j] = ids[0];
+    b.supportNodeEnd[l][j + 1] = ids[1];
+    for (const s of snaps) {
+      attach[s.g][l] = ids[s.slot];
+      attachSupport[s.g][l] = pieceNodes[s.slot].support;
+    }
+  });
+  // grid-line members
+  grid.forEach((gl, g) => {
+    for (let l = 0; l + 1 < nL; l++) {
+      const a = attach[g][l];
+      const c = attach[g][l + 1];
+      if (a < 0 || c < 0) continue;
+      const sa = attachSupport[g][l];
+      if (sa >= 0 && sa === attachSupport[g][l + 1]) continue; // would duplicate the support-line member
+      const ym = (lineSpecs[l].y + lineSpecs[l + 1].y) / 2;
+      const lo = Math.max(gl.x - h / 2, Xs(j, ym));
+      const hi = Math.min(gl.x + h / 2, Xs(j + 1, ym));
+      const width = hi - lo;
+      if (width < 0.05 * h) continue;
+      addTransverse(b, a, c, j, width, gl.diaphragm);
+    }
+  });
+}
+
+/** Perpendicular layout: slab-strip (and end-diaphragm) members along each skewed support line. */
+function buildSupportLineMembers(b: MeshBuild): void {
+  const { N, m, deck } = b;
+  const nL = b.lineSpecs.length;
+  for (let sup = 0; sup <= N; sup++) {
+    const hBefore = sup > 0 ? b.sup.spanLengths[sup - 1] / m : 0;
+    const hAfter = sup < N ? b.sup.spanLengths[sup] / m : 0;
+    for (let l = 0; l + 1 < nL; l++) {
+      if (deck.continuous || sup === 0 || sup === N) {
+        const a = sup < N ? b.supportNodeStart[l][sup] : b.supportNodeEnd[l][sup];
+        const c = sup < N ? b.supportNodeStart[l + 1][sup] : b.supportNodeEnd[l + 1][sup];
+        addTransverse(b, a, c, sup < N ? sup : sup - 1, (hBefore + hAfter) / 2, b.supportDiaphragms);
+      } else {
+        addTransverse(b, b.supportNodeEnd[l][sup], b.supportNodeEnd[l + 1][sup], sup - 1, hBefore / 2, b.supportDiaphragms);
+        addTransverse(b, b.supportNodeStart[l][sup], b.supportNodeStart[l + 1][sup], sup, hAfter / 2, b.supportDiaphragms);
+      }
+    }
+  }
+}
+
+/** Longitudinal lines and their members (girders: composite tributary section; edge members: outer half of the overhang). */
+function buildLongitudinalMembers(b: MeshBuild, tributary: (g: number) => number, edges: MeshOptions['edgeMembers']): LongitudinalLine[] {
+  const { deck, N, nodes, members, stiff } = b;
+  return b.lineSpecs.map((spec, l) => {
     const ids: number[] = [];
     const spanFirst = new Int32Array(N);
     const spanLast = new Int32Array(N);
     for (let j = 0; j < N; j++) {
-      const piece = linePieces[l][j];
+      const piece = b.linePieces[l][j];
       const shared = deck.continuous && j > 0;
       spanFirst[j] = shared ? ids.length - 1 : ids.length;
       for (let k = shared ? 1 : 0; k < piece.length; k++) ids.push(piece[k]);
@@ -487,40 +596,30 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
     const xs = Float64Array.from(ids, (id) => nodes[id].x);
     const segMember = new Int32Array(Math.max(0, ids.length - 1)).fill(-1);
     let props: { EI: number; GJ: number };
-    if (spec.kind === 'girder') props = stiff.girder(tribLeft(spec.girder) + tribRight(spec.girder));
+    if (spec.kind === 'girder') props = stiff.girder(tributary(spec.girder));
     else {
-      const b = (spec.side === 'left' ? deck.overhangLeft : deck.overhangRight) / 2;
+      const half = (spec.side === 'left' ? deck.overhangLeft : deck.overhangRight) / 2;
       const e = edges === false ? {} : edges;
       props = {
-        EI: stiff.Ed * (e.inertia ?? (b * stiff.ts ** 3) / 12),
-        GJ: stiff.Gd * (e.torsion ?? (b * stiff.ts ** 3) / 6),
+        EI: stiff.Ed * (e.inertia ?? (half * stiff.ts ** 3) / 12),
+        GJ: stiff.Gd * (e.torsion ?? (half * stiff.ts ** 3) / 6),
       };
     }
     for (let j = 0; j < N; j++) {
       for (let k = spanFirst[j]; k < spanLast[j]; k++) {
-        members.push({
-          i: nodeIds[k],
-          j: nodeIds[k + 1],
-          EI: props.EI,
-          GJ: props.GJ,
-          kind: spec.kind,
-          span: j,
-          stripWidth: 0,
-          line: l,
-          seg: k,
-        });
+        members.push({ i: nodeIds[k], j: nodeIds[k + 1], EI: props.EI, GJ: props.GJ, kind: spec.kind, span: j, stripWidth: 0, line: l, seg: k });
         segMember[k] = members.length - 1;
       }
     }
-    lines.push({ kind: spec.kind, girder: spec.girder, side: spec.side, label: spec.label, y: spec.y, nodes: nodeIds, xs, segMember, spanFirst, spanLast });
+    return { kind: spec.kind, girder: spec.girder, side: spec.side, label: spec.label, y: spec.y, nodes: nodeIds, xs, segMember, spanFirst, spanLast };
   });
+}
 
-  // ---- bearings
-  const girderLine = new Int32Array(Nb);
-  lineSpecs.forEach((spec, l) => {
-    if (spec.kind === 'girder') girderLine[spec.girder] = l;
-  });
-  opt.omitBearings.forEach((ob, k) => {
+/** Bearings where each girder crosses each support line, less those left out; every girder (piece) keeps one. */
+function placeBearings(b: MeshBuild, girderLine: Int32Array, omitBearings: MeshOptions['omitBearings']): Bearing[] {
+  const { N, deck } = b;
+  const Nb = girderLine.length;
+  omitBearings.forEach((ob, k) => {
     if (!Number.isInteger(ob.girder) || ob.girder < 0 || ob.girder >= Nb) {
       throw new GrillageInputError('invalid-option', ['grillage', 'omitBearings', k, 'girder'], `girder index must be a whole number from 0 to ${Nb - 1}, not ${ob.girder}`);
     }
@@ -528,68 +627,62 @@ export function buildMesh(deck: Deck, opt: MeshOptions): GrillageMesh {
       throw new GrillageInputError('invalid-option', ['grillage', 'omitBearings', k, 'support'], `support index must be a whole number from 0 to ${N}, not ${ob.support}`);
     }
   });
-  const omitted = new Set(opt.omitBearings.map((b) => `${b.girder}:${b.support}`));
+  const omitted = new Set(omitBearings.map((o) => `${o.girder}:${o.support}`));
+  const bearings: Bearing[] = [];
   for (let g = 0; g < Nb; g++) {
     const l = girderLine[g];
     for (let sup = 0; sup <= N; sup++) {
       if (omitted.has(`${g}:${sup}`)) continue;
-      const startNode = sup < N ? supportNodeStart[l][sup] : -1;
-      const endNode = sup > 0 ? supportNodeEnd[l][sup] : -1;
-      if (startNode >= 0) bearingsRaw.push({ node: startNode, girder: g, support: sup, span: sup });
-      if (endNode >= 0 && endNode !== startNode) bearingsRaw.push({ node: endNode, girder: g, support: sup, span: sup - 1 });
+      const startNode = sup < N ? b.supportNodeStart[l][sup] : -1;
+      const endNode = sup > 0 ? b.supportNodeEnd[l][sup] : -1;
+      if (startNode >= 0) bearings.push({ node: startNode, girder: g, support: sup, span: sup });
+      if (endNode >= 0 && endNode !== startNode) bearings.push({ node: endNode, girder: g, support: sup, span: sup - 1 });
     }
     // every girder (each span piece, for simple spans) needs a bearing
     if (deck.continuous) {
-      if (!bearingsRaw.some((b) => b.girder === g)) {
+      if (!bearings.some((x) => x.girder === g)) {
         throw new GrillageInputError('unsupported-girder', ['grillage', 'omitBearings'], `girder ${g + 1} has no bearing on any support line: every girder needs at least one`);
       }
     } else {
       for (let j = 0; j < N; j++) {
-        if (!bearingsRaw.some((b) => b.girder === g && b.span === j)) {
+        if (!bearings.some((x) => x.girder === g && x.span === j)) {
           throw new GrillageInputError('unsupported-girder', ['grillage', 'omitBearings'], `girder ${g + 1} has no bearing in span ${j + 1} (simple spans): every girder of every span needs at least one`);
         }
       }
     }
   }
+  return bearings;
+}
 
-  const trace: TraceStep[] = [
-    ...stiff.trace,
+/** Which diaphragm members the model holds (their stiffness per bay is in the trace). */
+function diaphragmMembersFinding(b: MeshBuild): GrillageFinding | undefined {
+  if (!b.stiff.diaphragmsModelled) return undefined;
+  const count = b.members.filter((x) => x.kind === 'diaphragm').length;
+  const what = b.deck.diaphragms.type === 'concrete-diaphragms' ? 'concrete diaphragm' : 'steel cross-frame';
+  return {
+    code: 'diaphragms-modelled',
+    severity: 'info',
+    message: `${count} ${what} members in the grillage (${b.diaphragmFractions.length} intermediate line(s) per span${b.supportDiaphragms ? ' and the support lines' : ''}), each added to the slab strip of its line; their stiffness per girder bay is in the model trace`,
+    values: { members: count },
+  };
+}
+
+function meshTrace(b: MeshBuild, layout: TransverseLayout, maxSkew: number, bearings: number): TraceStep[] {
+  return [
+    ...b.stiff.trace,
     {
       label: 'Grillage mesh',
       formula: layout === 'skew-parallel' ? 'transverse members parallel to the supports' : 'transverse members perpendicular to the girders',
       inputs: [
         { symbol: 'θmax', description: 'largest support skew', value: maxSkew, kind: 'angle' },
-        { symbol: 'm', description: 'segments per span', value: m, kind: 'none' },
+        { symbol: 'm', description: 'segments per span', value: b.m, kind: 'none' },
       ],
-      value: nodes.length,
+      value: b.nodes.length,
       kind: 'none',
       article: 'AASHTO LRFD Art. 4.6.3.3.1 (refined methods: grids)',
-      note: `${nodes.length} nodes, ${members.length} members, ${bearingsRaw.length} bearings`,
+      note: `${b.nodes.length} nodes, ${b.members.length} members, ${bearings} bearings`,
     },
   ];
-
-  const mesh: GrillageMesh = {
-    layout,
-    segmentsPerSpan: m,
-    spanCount: N,
-    continuous: deck.continuous,
-    nodes,
-    members,
-    lines,
-    girderLine,
-    bearings: bearingsRaw,
-    supportA: A,
-    supportB: B,
-    yc,
-    deckLeft: geom.deckLeft,
-    deckRight: geom.deckRight,
-    spanLengths,
-    stiffness: stiff,
-    findings,
-    trace,
-  };
-  mesh.findings.push(...meshQualityFindings(mesh));
-  return mesh;
 }
 
 /** Plain description of a node for messages. */

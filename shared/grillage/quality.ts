@@ -18,7 +18,8 @@ export type GrillageFindingCode =
   | 'edge-line-skipped'
   | 'composite-section-unavailable'
   | 'girder-torsion-estimated'
-  | 'diaphragm-stiffness-missing'
+  | 'diaphragms-left-out'
+  | 'diaphragms-modelled'
   | 'panel-aspect-ratio'
   | 'few-nodes-per-span';
 

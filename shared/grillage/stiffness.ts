@@ -17,15 +17,18 @@
  * concrete (E. C. Hambly, Bridge Deck Behaviour, grillage analogy for slabs; from memory).
  * Shear moduli G = E / (2(1 + ν)): ν = 0.2 for concrete (AASHTO LRFD Art. 5.4.2.5), 0.3 for
  * steel (common practice, no source); a girder of modulus ≥ 100 GPa is taken as steel.
- * Diaphragms: E_d·I_d with I_d = deck.diaphragms.inertia and E_d = deck.diaphragms.modulus,
- * else n·E_deck; no torsional stiffness (J_d = 0, common practice for cross-frames and a
- * stated simplification for concrete diaphragms). A diaphragm type other than 'none' without
- * an inertia is not modelled beyond the slab strip, with a warning finding.
+ * Diaphragms and cross-frames (deck.diaphragms): a member of EI from `diaphragmStiffness.ts`
+ * (the given I, or a concrete T-section or steel cross-frame equivalent beam from the
+ * deck's geometry), per girder bay, added to the slab strip at each diaphragm line; no
+ * torsional stiffness. Missing geometry is a DeckInputError naming the field;
+ * `diaphragms.includeInGrillage: false` leaves them out (slab strips alone), with a finding.
  */
+import { deckGeometry } from '../deck/geometry.js';
 import { compositeInertia, derivedSection, eccentricityEg } from '../deck/section.js';
 import { DeckInputError, type Deck } from '../deck/schema.js';
 import type { TraceStep } from '../trace.js';
 import type { GrillageFinding } from './quality.js';
+import { checkDiaphragmInput, diaphragmModulus, diaphragmStiffness } from './diaphragmStiffness.js';
 
 export const POISSON_CONCRETE = 0.2;
 export const POISSON_STEEL = 0.3;
@@ -59,8 +62,10 @@ export interface DeckStiffness {
   girder(b: number): { EI: number; GJ: number; Ic: number };
   /** EI, GJ of a transverse slab strip of width b (m), N·m². */
   slabStrip(b: number): { EI: number; GJ: number };
-  /** EI of one diaphragm line member, N·m² (0 when not modelled). */
-  diaphragmEI: number;
+  /** The diaphragms are members of the grillage. */
+  diaphragmsModelled: boolean;
+  /** EI added by one diaphragm member across a girder bay of spacing S (m), N·m² (0 when not modelled). */
+  diaphragmEI(S: number): number;
   findings: GrillageFinding[];
   trace: TraceStep[];
 }
@@ -106,20 +111,17 @@ export function deckStiffness(deck: Deck, opt: StiffnessOptions, tributary: { in
   }
 
   const diaphragms = deck.diaphragms;
-  let diaphragmEI = 0;
-  const Ediaph = diaphragms.modulus ?? Eg;
-  if (diaphragms.type !== 'none') {
-    if (diaphragms.inertia === undefined) {
-      findings.push({
-        code: 'diaphragm-stiffness-missing',
-        severity: 'warning',
-        message: `diaphragms of type "${diaphragms.type}" have no moment of inertia: they are not modelled (the slab strips alone connect the girders at their lines)`,
-      });
-    } else {
-      diaphragmEI = Ediaph * diaphragms.inertia * opt.transverseStiffnessFactor;
-    }
+  const diaphragmsModelled = diaphragms.type !== 'none' && diaphragms.includeInGrillage !== false;
+  checkDiaphragmInput(deck);
+  const Ediaph = diaphragmModulus(deck, Eg);
+  const diaphragmEI = (S: number) => (diaphragmsModelled ? diaphragmStiffness(deck, S, Ediaph, Ed).EI * opt.transverseStiffnessFactor : 0);
+  if (diaphragms.type !== 'none' && !diaphragmsModelled) {
+    findings.push({
+      code: 'diaphragms-left-out',
+      severity: 'info',
+      message: `the ${diaphragms.type === 'concrete-diaphragms' ? 'concrete diaphragms' : 'steel cross-frames'} are left out of the grillage by the deck's setting: the slab strips alone connect the girders at their lines`,
+    });
   }
-
   const girder = (b: number) => {
     const I = Ic(b);
     return { EI: Eg * I, GJ: Gg * Jgirder + Gd * ((b * ts ** 3) / 6), Ic: I };
@@ -197,18 +199,53 @@ export function deckStiffness(deck: Deck, opt: StiffnessOptions, tributary: { in
     article: 'grillage analogy for slabs',
     note: opt.transverseStiffnessFactor === 1 ? undefined : `bending stiffness multiplied by ${opt.transverseStiffnessFactor}`,
   });
-  if (diaphragmEI > 0) {
-    trace.push({
-      label: 'Diaphragm member',
-      formula: 'EI = Ed·Id (no torsion)',
-      inputs: [
-        { symbol: 'Id', description: 'diaphragm moment of inertia', value: diaphragms.inertia!, kind: 'inertia' },
-        { symbol: 'Ed', description: 'diaphragm modulus', value: Ediaph, kind: 'stress' },
-      ],
-      value: diaphragms.inertia!,
-      kind: 'inertia',
-      article: 'deck.diaphragms',
-    });
-  }
-  return { Ed, Gd, Eg, Gg, n, nuGirder, ts, Jgirder, girder, slabStrip, diaphragmEI, findings, trace };
+  if (diaphragmsModelled) trace.push(...diaphragmTrace(deck, deckGeometry(deck).spacings, Ediaph, Ed, opt.transverseStiffnessFactor));
+  return { Ed, Gd, Eg, Gg, n, nuGirder, ts, Jgirder, girder, slabStrip, diaphragmsModelled, diaphragmEI, findings, trace };
+}
+
+/** One trace step per distinct girder-bay spacing: which stiffness each diaphragm member has. */
+function diaphragmTrace(deck: Deck, bays: number[], E: number, Ed: number, factor: number): TraceStep[] {
+  const distinct = [...new Set(bays.map((b) => Number(b.toPrecision(9))))];
+  const what = deck.diaphragms.type === 'concrete-diaphragms' ? 'concrete diaphragm' : 'steel cross-frame';
+  return distinct.map((S) => {
+    const p = diaphragmStiffness(deck, S, E, Ed);
+    const inputs: TraceStep['inputs'] = [
+      { symbol: 'S', description: 'girder spacing of the bay', value: S, kind: 'length' },
+      { symbol: 'E', description: `${what} modulus`, value: E, kind: 'stress' },
+    ];
+    let formula = 'EI = E·I (given moment of inertia)';
+    let article = 'deck.diaphragms.inertia';
+    if (p.source === 'concrete-t-section') {
+      const d = deck.diaphragms;
+      inputs.push(
+        { symbol: 'bw', description: 'diaphragm width', value: d.width!, kind: 'dimension' },
+        { symbol: 'd', description: 'diaphragm depth below the slab', value: d.depth!, kind: 'dimension' },
+        { symbol: 'ts', description: 'slab thickness', value: deck.slab.thickness, kind: 'dimension' },
+        { symbol: 'be', description: 'effective slab width, min(S/4, 12·ts + bw)', value: p.effectiveWidth!, kind: 'dimension' },
+      );
+      formula = 'EI = E·I_T − E_deck·be·ts³/12 (T-section of web bw × d and slab flange be; slab strip already modelled)';
+      article = 'AASHTO LRFD Art. 4.6.2.6.1, effective flange width rule of editions before 2008 (from memory), span S';
+    } else if (p.source === 'steel-cross-frame') {
+      const d = deck.diaphragms;
+      inputs.push(
+        { symbol: 'At', description: 'top chord area', value: d.topChordArea!, kind: 'area' },
+        { symbol: 'Ab', description: 'bottom chord area', value: d.bottomChordArea!, kind: 'area' },
+        { symbol: 'Ad', description: 'area of one diagonal (X-frame)', value: d.diagonalArea!, kind: 'area' },
+        { symbol: 'h', description: 'frame depth between chords', value: d.frameDepth!, kind: 'dimension' },
+        { symbol: 'Ieq', description: 'chords by the parallel-axis rule, At·Ab/(At+Ab)·h²', value: p.Ieq!, kind: 'inertia' },
+        { symbol: 'φ', description: 'shear flexibility of the diagonals, 12·E·Ieq/(GAs·S²), GAs = 2·E·Ad·sin²α·cosα', value: p.phi!, kind: 'none' },
+      );
+      formula = 'EI = E·Ieq/(1 + φ) (equivalent beam of an X cross-frame)';
+      article = 'equivalent beam of a truss cross-frame (common practice, from memory)';
+    }
+    return {
+      label: `Diaphragm member (${what}, bay of ${S.toFixed(3)} m)`,
+      formula,
+      inputs,
+      value: p.I,
+      kind: 'inertia' as const,
+      article,
+      note: factor === 1 ? 'no torsional stiffness; added to the slab strip at each diaphragm line' : `bending stiffness multiplied by ${factor}`,
+    };
+  });
 }

@@ -86,6 +86,8 @@ export interface GrillageSummary {
   segmentsPerSpan: number;
   stats: GrillageModel['stats'];
   findings: GrillageModel['findings'];
+  /** How the members were built: girder, slab-strip and diaphragm stiffness (trace in the deck's units). */
+  trace: GrillageModel['trace'];
   extent: GrillageModel['extent'];
   elapsedMs: number;
 }
@@ -267,7 +269,7 @@ export class SolverSession {
       code,
       rules,
       grillage: model
-        ? { layout: model.layout, segmentsPerSpan, stats: model.stats, findings: model.findings, extent: model.extent, elapsedMs: t2 - t1 }
+        ? { layout: model.layout, segmentsPerSpan, stats: model.stats, findings: model.findings, trace: model.trace, extent: model.extent, elapsedMs: t2 - t1 }
         : null,
       beamLine: {
         x: beamLine.points.map((p) => p.x),

@@ -26,7 +26,7 @@ const twelveGirders = deckFromDisplay(
     spans: [{ length: 100 }],
     continuous: false,
     supports: [{ skew: 15 }, { skew: 15 }],
-    diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 3 },
+    diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 3, topChordArea: 3.75, bottomChordArea: 3.75, diagonalArea: 2.86, frameDepth: 40 },
   },
   'US',
 );
@@ -47,7 +47,7 @@ const threeSpans = deckFromDisplay(
     spans: [{ length: 120 }, { length: 150 }, { length: 120 }],
     continuous: true,
     supports: [{ skew: 0 }, { skew: 0 }, { skew: 0 }, { skew: 0 }],
-    diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 4 },
+    diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 4, topChordArea: 3.75, bottomChordArea: 3.75, diagonalArea: 2.86, frameDepth: 50 },
   },
   'US',
 );

@@ -18,7 +18,7 @@ function deck(girders: number, spans: number, skews: number[], continuous: boole
   us.spans = Array.from({ length: spans }, (_, j) => ({ length: 90 + 10 * j }));
   us.supports = skews.map((skew) => ({ skew }));
   us.continuous = continuous;
-  us.diaphragms = { type: 'concrete-diaphragms', atSupports: true, intermediatePerSpan: diaphragms };
+  us.diaphragms = { type: 'concrete-diaphragms', atSupports: true, intermediatePerSpan: diaphragms, width: 10, depth: 48 };
   return assertDeck(deckFromDisplay(us as never, 'US'));
 }
 

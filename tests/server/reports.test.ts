@@ -215,7 +215,7 @@ describe('CSV exports', () => {
         spans: [{ length: 30 }, { length: 40 }, { length: 30 }],
         continuous: true,
         supports: [{ skew: 0 }, { skew: 0 }, { skew: 0 }, { skew: 0 }],
-        diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 3 },
+        diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 3, topChordArea: 1920, bottomChordArea: 1920, diagonalArea: 1390, frameDepth: 1100 },
       },
       'SI',
     ) as unknown as DeckInput;

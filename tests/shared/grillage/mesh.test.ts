@@ -90,9 +90,10 @@ describe('quality findings', () => {
     expect(medium.findings.find((x) => x.code === 'few-nodes-per-span')!.severity).toBe('info');
   });
 
-  it('diaphragms without an inertia are not modelled (warning); with one they join the girders', () => {
-    const none = buildGrillage(steelDeck({ girders: 4, diaphragms: { type: 'steel-cross-frames', intermediatePerSpan: 3 } }));
-    expect(none.findings.some((f) => f.code === 'diaphragm-stiffness-missing' && f.severity === 'warning')).toBe(true);
+  it('diaphragms without an inertia or geometry are refused (DeckInputError); left out by the switch; with one they join the girders', () => {
+    expect(() => buildGrillage(steelDeck({ girders: 4, diaphragms: { type: 'steel-cross-frames', intermediatePerSpan: 3 } }))).toThrow(DeckInputError);
+    const none = buildGrillage(steelDeck({ girders: 4, diaphragms: { type: 'steel-cross-frames', intermediatePerSpan: 3, includeInGrillage: false } }));
+    expect(none.findings.some((f) => f.code === 'diaphragms-left-out')).toBe(true);
     expect(none.mesh.members.some((m) => m.kind === 'diaphragm')).toBe(false);
     for (const layout of ['skew-parallel', 'perpendicular'] as const) {
       const withI = buildGrillage(steelDeck({ girders: 4, diaphragms: { type: 'steel-cross-frames', intermediatePerSpan: 3, inertia: 4e-4 } }), { layout });

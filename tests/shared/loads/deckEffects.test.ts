@@ -27,7 +27,7 @@ const deck = assertDeck(
       spans: [{ length: 80 }, { length: 140 }, { length: 80 }],
       continuous: true,
       supports: [{ skew: 0 }, { skew: 0 }, { skew: 0 }, { skew: 0 }],
-      diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 3 },
+      diaphragms: { type: 'steel-cross-frames', atSupports: true, intermediatePerSpan: 3, topChordArea: 3.75, bottomChordArea: 3.75, diagonalArea: 2.86, frameDepth: 36 },
     },
     'US',
   ),

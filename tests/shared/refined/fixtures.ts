@@ -60,6 +60,6 @@ export function bulbTeeDeck(skew = 0): Deck {
     spans: [{ length: fromUs.ft(110) }],
     continuous: false,
     supports: [{ skew }, { skew }],
-    diaphragms: { type: 'concrete-diaphragms', atSupports: true, intermediatePerSpan: 0 },
+    diaphragms: { type: 'concrete-diaphragms', atSupports: true, intermediatePerSpan: 0, width: fromUs.in(10), depth: fromUs.in(64) },
   });
 }
