@@ -106,7 +106,7 @@ describe('rigid-section check scope (AASHTO LRFD Art. 4.6.2.2.2d and commentary)
   });
 
   it('rigidSectionScope gives the basis of each case', () => {
-    const frames = { type: 'concrete-diaphragms' as const, atSupports: true, intermediatePerSpan: 0 };
+    const frames = { type: 'concrete-diaphragms' as const, atSupports: true, intermediatePerSpan: 0, includeInGrillage: true };
     const policy = (on: boolean) => ({ exteriorNotLessThanInterior: false, leverRuleWithoutMultiplePresence: false, floorAtEqualShare: false, rigidSectionAnyType: on });
     expect(rigidSectionScope({ sectionType: 'e', diaphragms: frames, policy: policy(false) }).basis).toBe('section-type');
     expect(rigidSectionScope({ sectionType: 'c', diaphragms: frames, policy: policy(false) }).basis).toBe('type-not-covered');
