@@ -78,6 +78,14 @@ function factor(v: number): string {
   return v.toFixed(4);
 }
 
+/** Short words for why a reduction is not claimed (the review panel gives the full sentence). */
+const WITHHELD_SHORT: Record<string, string> = {
+  'not-design-girder': 'girder {g} governs',
+  'bound-unknown': 'bound not stored',
+  'bound-misses-target': 'bound misses target',
+  'diaphragms-left-out': 'diaphragms left out',
+};
+
 const EFFECT_WORDS: Record<string, string> = {
   moment: 'Moment',
   'negative-moment': 'Negative moment',
@@ -595,7 +603,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
         num(toDisplay(r.codeMoment, 'moment', u), 1),
         num(toDisplay(r.refinedMoment, 'moment', u), 1),
         `${num(toDisplay(r.reduction, 'moment', u), 1)} (${r.reductionPercent.toFixed(1)} %)`,
-        r.claimable ? 'yes' : `no: girder ${r.designGirder} governs`,
+        r.claimable ? 'yes' : `no: ${r.withheld.map((w) => WITHHELD_SHORT[w].replace('{g}', String(r.designGirder))).join('; ')}`,
       ]),
       [0.14, 0.13, 0.14, 0.14, 0.14, 0.16, 0.15],
       { align: ['left', 'left', 'right', 'right', 'right', 'right', 'left'] },

@@ -510,7 +510,7 @@ function factorTrace(t: Target, outcomes: LoadOutcome[], gov: LoadOutcome, beamG
       value: s.value,
       kind,
       article,
-      note: o === gov && outcomes.length > 1 ? 'governs the girder effect' : undefined,
+      note: o === gov ? (outcomes.length > 1 ? `governs the girder effect; ${boundText}` : boundText) : undefined,
     });
     steps.push({
       label: `Beam line: one lane (${o.load.reason}), ${t.beamResponse.kind} ${where}`,
@@ -673,6 +673,7 @@ function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): {
         trace: bf.trace,
       });
       if (!row.id.endsWith(`/g${f0.girderNumber}`)) row.id = `${row.id}/g${f0.girderNumber}`;
+      row.bound = { lanes: bf.tolerance.factor, percent: bf.tolerance.percent, meetsTarget: bf.tolerance.meetsTarget };
       rows.push(row);
       sources.push({ rowId: row.id, factorIndex: best.i, loadedLanes: best.c.loadedLanes });
     }

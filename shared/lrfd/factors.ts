@@ -88,6 +88,11 @@ export interface FactorRow {
   governing: boolean;
   findings: Finding[];
   trace: TraceStep[];
+  /**
+   * Refined rows: how far any legal placement could exceed the value, in lanes and % of it,
+   * and whether that meets the bound target (shared/placement/search.ts BOUND_TARGET_*).
+   */
+  bound?: { lanes: number; percent: number; meetsTarget: boolean };
   leverRule?: LeverRuleWorksheet;
   rigidSection?: RigidSectionWorksheet;
 }

@@ -10,13 +10,20 @@
  * Claimable. The girders of one kind are designed alike for a span (common practice, no
  * source), so the reduction that can be claimed for a kind and a span is that of its design
  * girder: the girder of the kind with the largest refined moment there. Every other row says
- * which girder governs its kind instead. The largest claimable reduction is the largest
- * reduction among the claimable rows, and nothing else.
+ * which girder governs its kind instead. A design girder's reduction is claimable only when the
+ * model earns it: its refined factor's stated bound meets the target (BOUND_TARGET_LANES lanes
+ * and BOUND_TARGET_PERCENT % of the value; a factor that could be exceeded by more cannot
+ * lower a design value), and the grillage includes the deck's diaphragms or cross-frames (a
+ * model that leaves out members the bridge has is not the bridge). Each row that is not
+ * claimable says why. The largest claimable reduction is the largest reduction among the
+ * claimable rows, and nothing else. Mesh convergence at twice the density is not checked here
+ * (the refined run's default density is set by a convergence study; refinedFactors.ts).
  *
  * Units: factors dimensionless; moments N·m (internal SI); percentages of the code moment.
  * Pure: used by the server's review summary and report and by the client's tests.
  */
 import type { CodeFactorResult, FactorRow, GirderKind } from '../lrfd/index.js';
+import { BOUND_TARGET_LANES, BOUND_TARGET_PERCENT } from '../placement/search.js';
 
 /** The governing refined factor of one girder, effect and place (the largest over its lane cases). */
 export interface RefinedFactor {
@@ -29,6 +36,17 @@ export interface RefinedFactor {
   span?: number;
   lanes: FactorRow['lanes'];
   value: number;
+  /** The row's stated bound (absent on results stored before bounds were kept with rows). */
+  bound?: FactorRow['bound'];
+}
+
+/** Why a row's reduction is not claimed. */
+export type WithheldReason = 'not-design-girder' | 'bound-unknown' | 'bound-misses-target' | 'diaphragms-left-out';
+
+/** What the model behind the refined rows includes, for the claim. */
+export interface RefinedModelFacts {
+  /** The deck has diaphragms or cross-frames and the grillage leaves them out (the user's switch). */
+  diaphragmsLeftOut: boolean;
 }
 
 /** The governing refined factor per girder, effect and place from rows of method 'grillage', sorted by girder and effect. */
@@ -40,7 +58,16 @@ export function governingPerGirder(rows: readonly FactorRow[]): RefinedFactor[] 
     const key = `${girder}|${r.effect}|${r.location.key}`;
     const prev = best.get(key);
     if (!prev || r.value > prev.value) {
-      best.set(key, { girder, effect: r.effect, locationKey: r.location.key, location: r.location.description, ...(r.location.span !== undefined ? { span: r.location.span } : {}), lanes: r.lanes, value: r.value });
+      best.set(key, {
+        girder,
+        effect: r.effect,
+        locationKey: r.location.key,
+        location: r.location.description,
+        ...(r.location.span !== undefined ? { span: r.location.span } : {}),
+        lanes: r.lanes,
+        value: r.value,
+        ...(r.bound ? { bound: r.bound } : {}),
+      });
     }
   }
   return [...best.values()].sort((a, b) => a.girder - b.girder || a.effect.localeCompare(b.effect));
@@ -62,8 +89,12 @@ export interface MomentReduction {
   /** codeMoment − refinedMoment, N·m (negative: the refined factor is larger). */
   reduction: number;
   reductionPercent: number;
-  /** Whether this row's reduction may be claimed (it is its kind's design girder for the span). */
+  /** Whether this row's reduction may be claimed (its kind's design girder for the span, bound within target, diaphragms in the model). */
   claimable: boolean;
+  /** The refined factor's stated bound, when known. */
+  bound?: FactorRow['bound'];
+  /** Why the row is not claimable (empty when it is). */
+  withheld: WithheldReason[];
   /** Why the row may or may not be claimed, in words. */
   claim: string;
   /** The design girder of this row's kind and place (this row's girder when claimable). */
@@ -87,7 +118,12 @@ export function codeFactorForGirder(code: CodeFactorResult, girder: number, coun
  * given) with each row's claim; `perLaneMoment(span)` is the span's per-lane LL+IM maximum
  * positive moment, N·m.
  */
-export function momentReductionTable(code: CodeFactorResult, refined: readonly RefinedFactor[], perLaneMoment: (span: number) => number): MomentReduction[] {
+export function momentReductionTable(
+  code: CodeFactorResult,
+  refined: readonly RefinedFactor[],
+  perLaneMoment: (span: number) => number,
+  model: RefinedModelFacts = { diaphragmsLeftOut: false },
+): MomentReduction[] {
   const count = code.derived.girderCount;
   const rows: MomentReduction[] = [];
   for (const f of refined) {
@@ -112,6 +148,8 @@ export function momentReductionTable(code: CodeFactorResult, refined: readonly R
       claimable: false,
       claim: '',
       designGirder: f.girder,
+      withheld: [],
+      ...(f.bound ? { bound: f.bound } : {}),
     });
   }
   // The design girder of each kind and place: the largest refined moment (ties: the lower number).
@@ -123,13 +161,40 @@ export function momentReductionTable(code: CodeFactorResult, refined: readonly R
   }
   for (const r of rows) {
     const d = design.get(`${r.girderKind}|${r.locationKey}`) as MomentReduction;
-    r.claimable = d === r;
     r.designGirder = d.girder;
-    r.claim = r.claimable
-      ? `design ${r.girderKind} girder for ${r.location}`
-      : `girder ${d.girder} carries the largest ${r.girderKind} moment in ${r.location}; its reduction applies to the ${r.girderKind} girders there`;
+    r.withheld = d === r ? withheldReasons(r, model) : ['not-design-girder'];
+    r.claimable = r.withheld.length === 0;
+    r.claim =
+      d !== r
+        ? `girder ${d.girder} carries the largest ${r.girderKind} moment in ${r.location}; its reduction applies to the ${r.girderKind} girders there`
+        : r.claimable
+          ? `design ${r.girderKind} girder for ${r.location}`
+          : `design ${r.girderKind} girder for ${r.location}, not claimable: ${r.withheld.map((w) => withheldWords(w, r)).join('; ')}`;
   }
   return rows;
+}
+
+/** Why a design girder's reduction cannot be claimed (empty when it can). */
+function withheldReasons(r: MomentReduction, model: RefinedModelFacts): WithheldReason[] {
+  const why: WithheldReason[] = [];
+  if (!r.bound) why.push('bound-unknown');
+  else if (!r.bound.meetsTarget) why.push('bound-misses-target');
+  if (model.diaphragmsLeftOut) why.push('diaphragms-left-out');
+  return why;
+}
+
+/** A reason in words, with the row's figures. */
+export function withheldWords(w: WithheldReason, r: Pick<MomentReduction, 'bound' | 'designGirder'>): string {
+  switch (w) {
+    case 'not-design-girder':
+      return `girder ${r.designGirder} governs`;
+    case 'bound-unknown':
+      return 'its bound was not stored with this result (run the refined analysis again)';
+    case 'bound-misses-target':
+      return `its bound (${r.bound?.lanes.toFixed(4)} lanes, ${r.bound?.percent.toFixed(2)} % of the factor) misses the target of ${BOUND_TARGET_LANES} lanes and ${BOUND_TARGET_PERCENT} %`;
+    case 'diaphragms-left-out':
+      return 'the grillage leaves out the deck’s diaphragms or cross-frames';
+  }
 }
 
 /** The largest reduction among the claimable rows of `table`, or null when none is claimable. */

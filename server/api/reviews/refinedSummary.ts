@@ -134,7 +134,9 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
       ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value });
     }
   }
-  const reductions: MomentReduction[] = refined.factors ? momentReductionTable(code, refined.factors, (span) => perLaneMaxMoment(deck, span)) : [];
+  const reductions: MomentReduction[] = refined.factors ? momentReductionTable(code, refined.factors, (span) => perLaneMaxMoment(deck, span), {
+        diaphragmsLeftOut: deck.diaphragms.type !== 'none' && deck.diaphragms.includeInGrillage === false,
+      }) : [];
   const largest = largestClaimableReduction(reductions);
 
   const rangeFindings = code.findings.filter((f) => RANGE_CODES.has(f.code));
