@@ -156,6 +156,16 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
         : `The refined factors do not lower the governing girder moments (the code's factors are not conservative here by ${(-largest.reductionPercent).toFixed(1)} %).`,
     );
   }
+  const withheld = reductions.filter((r) => r.designGirder === r.girder && !r.claimable);
+  if (!largest && withheld.length) {
+    const why = [...new Set(withheld.flatMap((r) => r.withheld))];
+    const words: Record<string, string> = {
+      'bound-misses-target': 'their stated bounds miss the target of 0.005 lanes and 0.5 %',
+      'bound-unknown': 'the stored result predates bound statements',
+      'diaphragms-left-out': 'the grillage leaves out the deck’s diaphragms or cross-frames',
+    };
+    indicators.push(`The refined moment factors cannot back a reduction: ${why.map((w) => words[w] ?? w).join('; ')} (see the reduction table).`);
+  }
 
   return {
     caution: CAUTION,
