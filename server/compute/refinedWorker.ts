@@ -40,7 +40,8 @@ export interface StartedMessage {
 
 function solve(deckJson: string): { data: unknown; rows: FactorRow[] | null; error?: string } {
   try {
-    const result = computeRefinedFactors(assertDeck(JSON.parse(deckJson)));
+    // The moment rows' convergence at twice the mesh density goes with the result: a reduction claim needs it.
+    const result = computeRefinedFactors(assertDeck(JSON.parse(deckJson)), { checkConvergence: true });
     return { data: result, rows: result.rows };
   } catch (e) {
     if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;

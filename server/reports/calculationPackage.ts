@@ -83,6 +83,8 @@ const WITHHELD_SHORT: Record<string, string> = {
   'not-design-girder': 'girder {g} governs',
   'bound-unknown': 'bound not stored',
   'bound-misses-target': 'bound misses target',
+  'convergence-unknown': 'mesh not checked',
+  'mesh-unconverged': 'mesh not converged',
   'diaphragms-left-out': 'diaphragms left out',
 };
 

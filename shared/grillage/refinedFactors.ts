@@ -117,9 +117,17 @@ export interface RefinedOptions extends StationOptions {
   grillage?: GrillageOptions;
   /** A grillage already built for this deck. */
   model?: GrillageModel;
-  /** Effects to compute (default all four). */
+  /** Effects to compute (default all six). */
   effects?: RefinedEffect[];
+  /**
+   * Also run the positive-moment factors at twice the mesh density and record each moment
+   * row's change (`FactorRow.convergence`), the check a reduction claim needs (default false).
+   */
+  checkConvergence?: boolean;
 }
+
+/** A moment row's factor may change by at most this share when the mesh density is doubled (common practice, no source). */
+export const CONVERGENCE_LIMIT = 0.01;
 
 export interface RefinedLane {
   lane: number;
@@ -567,6 +575,35 @@ function boundFindings(deck: Deck, factors: RefinedFactor[], effects: readonly R
   return own;
 }
 
+/**
+ * Step 7. Each positive-moment row's change when the mesh density is doubled: the same run
+ * (moment only) at 2× the segments per span, matched row by row (the same id). A model that
+ * cannot be built at twice the density leaves the rows unchecked (no `convergence`).
+ */
+function recordConvergence(deck: Deck, options: RefinedOptions, segmentsPerSpan: number, rows: FactorRow[]): void {
+  const doubled = 2 * segmentsPerSpan;
+  let fine: RefinedResult;
+  try {
+    fine = computeRefinedFactors(deck, {
+      ...(options.stationsPerSegment !== undefined ? { stationsPerSegment: options.stationsPerSegment } : {}),
+      ...(options.rowsPerStrip !== undefined ? { rowsPerStrip: options.rowsPerStrip } : {}),
+      grillage: { ...options.grillage, segmentsPerSpan: doubled },
+      effects: ['moment'],
+    });
+  } catch (e) {
+    if (e instanceof DeckInputError) return;
+    throw e;
+  }
+  const byId = new Map(fine.rows.map((r) => [r.id, r]));
+  for (const r of rows) {
+    if (r.effect !== 'moment') continue;
+    const f = byId.get(r.id);
+    if (!f) continue;
+    const change = Math.abs(f.value - r.value) / Math.abs(r.value);
+    r.convergence = { segmentsPerSpan: doubled, value: f.value, change, within: change <= CONVERGENCE_LIMIT };
+  }
+}
+
 /** The run's own trace step: which loads the refined factors use, and why. */
 function loadsTrace(laneCount: number, continuous: boolean): TraceStep {
   return {
@@ -603,6 +640,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
   const beamEffects = new Map<string, number>();
   const factors = targets.map((t) => factorOfTarget(t, searchTarget(t, sampled[t.surface], surfaces[t.surface], rules, beamEffects), model.girderCount));
   const { rows, sources: rowSources } = refinedRows(deck, factors, rules.laneCount);
+  if (options.checkConvergence && effects.includes('moment')) recordConvergence(deck, options, model.mesh.segmentsPerSpan, rows);
   return {
     deckName: deck.name,
     girderCount: model.girderCount,

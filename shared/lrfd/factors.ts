@@ -93,6 +93,8 @@ export interface FactorRow {
    * and whether that meets the bound target (shared/placement/search.ts BOUND_TARGET_*).
    */
   bound?: { lanes: number; percent: number; meetsTarget: boolean };
+  /** Refined moment rows: the value at twice the mesh density, its relative change, and whether that is within 1 %. */
+  convergence?: { segmentsPerSpan: number; value: number; change: number; within: boolean };
   leverRule?: LeverRuleWorksheet;
   rigidSection?: RigidSectionWorksheet;
 }

@@ -13,11 +13,13 @@
  * which girder governs its kind instead. A design girder's reduction is claimable only when the
  * model earns it: its refined factor's stated bound meets the target (BOUND_TARGET_LANES lanes
  * and BOUND_TARGET_PERCENT % of the value; a factor that could be exceeded by more cannot
- * lower a design value), and the grillage includes the deck's diaphragms or cross-frames (a
+ * lower a design value), the factor changes by at most 1 % at twice the mesh density, and
+ * the grillage includes the deck's diaphragms or cross-frames (a
  * model that leaves out members the bridge has is not the bridge). Each row that is not
  * claimable says why. The largest claimable reduction is the largest reduction among the
- * claimable rows, and nothing else. Mesh convergence at twice the density is not checked here
- * (the refined run's default density is set by a convergence study; refinedFactors.ts).
+ * claimable rows, and nothing else. The mesh must pass its convergence check too: the factor
+ * changes by at most 1 % when the density is doubled (refinedFactors.ts `checkConvergence`;
+ * common practice, no source).
  *
  * Units: factors dimensionless; moments N·m (internal SI); percentages of the code moment.
  * Pure: used by the server's review summary and report and by the client's tests.
@@ -38,10 +40,12 @@ export interface RefinedFactor {
   value: number;
   /** The row's stated bound (absent on results stored before bounds were kept with rows). */
   bound?: FactorRow['bound'];
+  /** The row's change at twice the mesh density (absent when not checked). */
+  convergence?: FactorRow['convergence'];
 }
 
 /** Why a row's reduction is not claimed. */
-export type WithheldReason = 'not-design-girder' | 'bound-unknown' | 'bound-misses-target' | 'diaphragms-left-out';
+export type WithheldReason = 'not-design-girder' | 'bound-unknown' | 'bound-misses-target' | 'convergence-unknown' | 'mesh-unconverged' | 'diaphragms-left-out';
 
 /** What the model behind the refined rows includes, for the claim. */
 export interface RefinedModelFacts {
@@ -67,6 +71,7 @@ export function governingPerGirder(rows: readonly FactorRow[]): RefinedFactor[] 
         lanes: r.lanes,
         value: r.value,
         ...(r.bound ? { bound: r.bound } : {}),
+        ...(r.convergence ? { convergence: r.convergence } : {}),
       });
     }
   }
@@ -93,6 +98,8 @@ export interface MomentReduction {
   claimable: boolean;
   /** The refined factor's stated bound, when known. */
   bound?: FactorRow['bound'];
+  /** The refined factor's change at twice the mesh density, when checked. */
+  convergence?: FactorRow['convergence'];
   /** Why the row is not claimable (empty when it is). */
   withheld: WithheldReason[];
   /** Why the row may or may not be claimed, in words. */
@@ -150,6 +157,7 @@ export function momentReductionTable(
       designGirder: f.girder,
       withheld: [],
       ...(f.bound ? { bound: f.bound } : {}),
+      ...(f.convergence ? { convergence: f.convergence } : {}),
     });
   }
   // The design girder of each kind and place: the largest refined moment (ties: the lower number).
@@ -179,12 +187,14 @@ function withheldReasons(r: MomentReduction, model: RefinedModelFacts): Withheld
   const why: WithheldReason[] = [];
   if (!r.bound) why.push('bound-unknown');
   else if (!r.bound.meetsTarget) why.push('bound-misses-target');
+  if (!r.convergence) why.push('convergence-unknown');
+  else if (!r.convergence.within) why.push('mesh-unconverged');
   if (model.diaphragmsLeftOut) why.push('diaphragms-left-out');
   return why;
 }
 
 /** A reason in words, with the row's figures. */
-export function withheldWords(w: WithheldReason, r: Pick<MomentReduction, 'bound' | 'designGirder'>): string {
+export function withheldWords(w: WithheldReason, r: Pick<MomentReduction, 'bound' | 'convergence' | 'designGirder'>): string {
   switch (w) {
     case 'not-design-girder':
       return `girder ${r.designGirder} governs`;
@@ -192,6 +202,10 @@ export function withheldWords(w: WithheldReason, r: Pick<MomentReduction, 'bound
       return 'its bound was not stored with this result (run the refined analysis again)';
     case 'bound-misses-target':
       return `its bound (${r.bound?.lanes.toFixed(4)} lanes, ${r.bound?.percent.toFixed(2)} % of the factor) misses the target of ${BOUND_TARGET_LANES} lanes and ${BOUND_TARGET_PERCENT} %`;
+    case 'convergence-unknown':
+      return 'the mesh was not checked at twice its density (run the refined analysis again)';
+    case 'mesh-unconverged':
+      return `at twice the mesh density (${r.convergence?.segmentsPerSpan} segments per span) the factor changes by ${((r.convergence?.change ?? 0) * 100).toFixed(2)} %, more than 1 %`;
     case 'diaphragms-left-out':
       return 'the grillage leaves out the deck’s diaphragms or cross-frames';
   }

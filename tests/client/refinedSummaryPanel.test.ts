@@ -20,7 +20,7 @@ describe('the refined-analysis panel', () => {
     const file = JSON.parse(readFileSync('public/examples/larchmont-mill-creek.deck.json', 'utf8')) as { units: 'US' | 'SI'; deck: unknown };
     const deck = assertDeck(deckFromDisplay(file.deck, file.units));
     const code = computeCodeFactors(deck);
-    const refined = governingPerGirder(computeRefinedFactors(deck, { effects: ['moment'] }).rows);
+    const refined = governingPerGirder(computeRefinedFactors(deck, { effects: ['moment'], checkConvergence: true }).rows);
     // Any per-lane moment will do for the panel's agreement with the table (the server uses the
     // HL-93 beam-line envelope); one that differs per span keeps the spans apart.
     const table = momentReductionTable(code, refined, (span) => 1e6 * (span + 1));
@@ -44,7 +44,7 @@ describe('the refined-analysis panel', () => {
     expect(rows).toHaveLength(table.length);
     const yes = rows.filter((r) => r.text().includes('Yes: design'));
     expect(yes).toHaveLength(table.filter((r) => r.claimable).length);
-    expect(rows.filter((r) => r.text().includes('No: girder'))).toHaveLength(table.length - yes.length);
+    expect(rows.filter((r) => r.text().includes('No: '))).toHaveLength(table.length - yes.length);
     const line = w.find('.ds-strong').text();
     expect(line).toContain(`${largest!.reductionPercent.toFixed(1)} % (girder ${largest!.girder}, ${largest!.location})`);
     expect(w.text()).toContain('licensed');

@@ -4,7 +4,8 @@
  * every example deck (simple and continuous). Each kind and span has exactly one design girder
  * (the largest refined moment of the kind there; girders of one kind designed alike for a span
  * is common practice, no source), and only its row can be claimed, and only when the model
- * earns it: its stated bound meets the target and the grillage includes the deck's diaphragms
+ * earns it: its stated bound meets the target, its factor changes by at most 1 % at twice the
+ * mesh density (common practice, no source), and the grillage includes the deck's diaphragms
  * or cross-frames.
  *
  * The moment identity checked: girder LL+IM moment = g × per-lane LL+IM moment
@@ -44,7 +45,7 @@ describe('the reduction table and its largest claimable reduction', () => {
     it(file, { timeout: 60_000 }, () => {
       const deck = readDeck(file);
       const code = computeCodeFactors(deck);
-      const refined = governingPerGirder(computeRefinedFactors(deck, { effects: ['moment'] }).rows);
+      const refined = governingPerGirder(computeRefinedFactors(deck, { effects: ['moment'], checkConvergence: true }).rows);
       const table = momentReductionTable(code, refined, (span) => perLaneMaxMoment(deck, span));
       expect(table.length).toBe(code.derived.girderCount * deck.spans.length);
 
@@ -66,9 +67,14 @@ describe('the reduction table and its largest claimable reduction', () => {
         }
         const d = design[0];
         expect(d.bound).toBeDefined();
-        expect(d.claimable).toBe(d.bound!.meetsTarget);
-        expect(d.withheld).toEqual(d.bound!.meetsTarget ? [] : ['bound-misses-target']);
-        if (!d.claimable) expect(d.claim).toMatch(/misses the target of 0\.005 lanes and 0\.5 %/);
+        expect(d.convergence).toBeDefined();
+        expect(d.convergence!.segmentsPerSpan).toBe(2 * 40);
+        expect(d.convergence!.change).toBeRelativelyClose(Math.abs(d.convergence!.value - d.refined) / d.refined, 1e-12);
+        expect(d.claimable).toBe(d.bound!.meetsTarget && d.convergence!.within);
+        const expected = [...(d.bound!.meetsTarget ? [] : ['bound-misses-target']), ...(d.convergence!.within ? [] : ['mesh-unconverged'])];
+        expect(d.withheld).toEqual(expected);
+        if (!d.bound!.meetsTarget) expect(d.claim).toMatch(/misses the target of 0\.005 lanes and 0\.5 %/);
+        if (!d.convergence!.within) expect(d.claim).toMatch(/at twice the mesh density \(80 segments per span\) the factor changes by/);
       }
       const largest = largestClaimableReduction(table);
       const claimable = table.filter((r) => r.claimable);
@@ -85,10 +91,10 @@ describe('the reduction table and its largest claimable reduction', () => {
       expect(without.filter((r) => r.designGirder === r.girder).every((r) => r.withheld.includes('diaphragms-left-out') && /leaves out the deck’s diaphragms/.test(r.claim))).toBe(true);
       expect(largestClaimableReduction(without)).toBeNull();
 
-      // Rows stored before bounds were kept with them claim nothing until recomputed.
-      const unbounded = momentReductionTable(code, refined.map(({ bound: _bound, ...r }) => r), (span) => perLaneMaxMoment(deck, span));
+      // Rows stored before bounds and convergence were kept with them claim nothing until recomputed.
+      const unbounded = momentReductionTable(code, refined.map(({ bound: _bound, convergence: _convergence, ...r }) => r), (span) => perLaneMaxMoment(deck, span));
       expect(unbounded.some((r) => r.claimable)).toBe(false);
-      expect(unbounded.filter((r) => r.designGirder === r.girder).every((r) => r.withheld.includes('bound-unknown'))).toBe(true);
+      expect(unbounded.filter((r) => r.designGirder === r.girder).every((r) => r.withheld.includes('bound-unknown') && r.withheld.includes('convergence-unknown'))).toBe(true);
     });
   }
 
@@ -96,7 +102,7 @@ describe('the reduction table and its largest claimable reduction', () => {
     const any = files.some((file) => {
       const deck = readDeck(file);
       const code = computeCodeFactors(deck);
-      const refined = governingPerGirder(computeRefinedFactors(deck, { effects: ['moment'] }).rows);
+      const refined = governingPerGirder(computeRefinedFactors(deck, { effects: ['moment'], checkConvergence: true }).rows);
       return momentReductionTable(code, refined, (span) => perLaneMaxMoment(deck, span)).some((r) => r.claimable);
     });
     expect(any).toBe(true);

@@ -162,6 +162,8 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
     const words: Record<string, string> = {
       'bound-misses-target': 'their stated bounds miss the target of 0.005 lanes and 0.5 %',
       'bound-unknown': 'the stored result predates bound statements',
+      'convergence-unknown': 'the mesh was not checked at twice its density',
+      'mesh-unconverged': 'the factors change by more than 1 % at twice the mesh density',
       'diaphragms-left-out': 'the grillage leaves out the deck’s diaphragms or cross-frames',
     };
     indicators.push(`The refined moment factors cannot back a reduction: ${why.map((w) => words[w] ?? w).join('; ')} (see the reduction table).`);
