@@ -156,3 +156,22 @@ describe('statics: the bearing reactions balance the load', () => {
     for (const v of sums) expect(v).toBeRelativelyClose(1, 1e-9);
   });
 });
+
+describe('mesh convergence of the moment rows (twice the density; common practice, no source: within 1 %)', () => {
+  it('each moment row carries the same row of a run at twice the segments, and its relative change', () => {
+    const deck = steelGirderDeck({ girders: 4, spansFt: [90], skew: 15 });
+    const checked = computeRefinedFactors(deck, { grillage: { segmentsPerSpan: 12 }, effects: ['moment', 'shear'], checkConvergence: true });
+    const fine = computeRefinedFactors(deck, { grillage: { segmentsPerSpan: 24 }, effects: ['moment'] });
+    const moments = checked.rows.filter((r) => r.effect === 'moment');
+    expect(moments.length).toBe(4 * 2);
+    for (const r of moments) {
+      const f = fine.rows.find((x) => x.id === r.id)!;
+      expect(r.convergence!.segmentsPerSpan).toBe(24);
+      expect(r.convergence!.value).toBe(f.value);
+      expect(r.convergence!.change).toBeRelativelyClose(Math.abs(f.value - r.value) / r.value, 1e-12);
+      expect(r.convergence!.within).toBe(r.convergence!.change <= 0.01);
+    }
+    expect(checked.rows.filter((r) => r.effect !== 'moment').every((r) => r.convergence === undefined)).toBe(true);
+    expect(computeRefinedFactors(deck, { grillage: { segmentsPerSpan: 12 }, effects: ['moment'] }).rows.every((r) => r.convergence === undefined)).toBe(true);
+  });
+});
