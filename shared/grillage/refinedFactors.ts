@@ -29,6 +29,19 @@
  *   deck). Shear: at each support, just inside each span it bounds; 'right' of a support is
  *   sought positive and 'left' negative (the girder's and the beam line's sign convention:
  *   upward resultant on the lower-x side). A span's shear factor is the larger of its ends.
+ * - Negative moment: at each interior support of a continuous deck, the girder's moment at its
+ *   node on the support line, sought negative (hogging), over one lane's beam-line moment
+ *   there. Reactions: every bearing, upward positive (at a line between simple spans, both
+ *   bearings of the girder together), over one lane's beam-line reaction. Both under the
+ *   design truck: the 90 % two-truck load of Art. 3.6.1.3.1, which governs the beam line over
+ *   interior piers of longer spans, is not placed on the grillage (the exact search has no fast
+ *   path for several axles behind a variable gap), so the one-truck ratio stands for it; each
+ *   such row's trace says so.
+ * - A target may carry several loads; its factor is then the largest girder effect over the
+ *   largest beam-line effect, so that g × the governing beam-line effect is the girder's
+ *   governing effect.
+ * - Convergence (`checkConvergence`): the positive-moment rows are run again at twice the mesh
+ *   density and each records its change; a reduction claim needs it within 1 %.
  * - Fatigue: one fatigue truck (rear spacing 30 ft, Art. 3.6.1.4.1) anywhere, without the
  *   multiple presence factor (Art. 3.6.1.4.3b), over the fatigue truck's beam-line effect.
  * - The beam line: uniform girder on the girder's own spans (its crossings of the support
