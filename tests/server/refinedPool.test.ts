@@ -178,8 +178,9 @@ describe('the limits of the pool', () => {
       );
       expect(failure).toMatchObject({ status: 503, code: 'refined_out_of_memory' });
       expect(failure?.message).toContain('memory allowance of 16 MB');
-      // a deck that fits runs on the replacement worker
-      const small = assertDeck(quarryCreekDeck());
+      // a deck that fits runs on the replacement worker (three girders: the run, with its moment
+      // rows again at twice the mesh density, stays well inside 16 MB)
+      const small = assertDeck(wideDeck('Three girders', 3));
       const answer = await pool.run('small', small, JSON.stringify(small));
       expect(answer.rows?.length).toBeGreaterThan(0);
       expect(pool.stats()).toMatchObject({ jobs: 2, outOfMemory: 1, completed: 1 });
