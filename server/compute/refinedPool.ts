@@ -22,6 +22,7 @@ import type { Deck } from '../../shared/deck/schema.js';
 import type { Config } from '../config/env.js';
 import { ApiError } from '../middleware/errors.js';
 import { modelSizeRefusal, refinedModelSize } from './modelSize.js';
+import { REFINED_SEGMENTS_PER_SPAN } from '../../shared/grillage/refinedFactors.js';
 import type { RefinedAnswer, RefinedTask, StartedMessage } from './refinedWorker.js';
 
 export interface RefinedPoolOptions {
@@ -139,10 +140,12 @@ export class RefinedPool {
       this.counts.refusedBusy++;
       return Promise.reject(this.busyError());
     }
-    return this.submit(key, deckJson).promise;
+    // The convergence check runs the moment rows again at twice the density: only when that model is within the limit too.
+    const checkConvergence = refinedModelSize(deck, 2 * REFINED_SEGMENTS_PER_SPAN).nodeGirders <= this.options.maxNodeGirders;
+    return this.submit(key, deckJson, checkConvergence).promise;
   }
 
-  private submit(key: string, deckJson: string): Job {
+  private submit(key: string, deckJson: string, checkConvergence: boolean): Job {
     const id = this.nextId++;
     const controller = new AbortController();
     // Every job ahead of this one ends within jobMs (plus a worker start), so it starts within this deadline.
@@ -154,7 +157,7 @@ export class RefinedPool {
     const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never) };
     this.counts.jobs++;
     job.promise = this.pool
-      .run({ jobId: id, deckJson }, { signal: controller.signal })
+      .run({ jobId: id, deckJson, checkConvergence } satisfies RefinedTask, { signal: controller.signal })
       .then(
         (answer) => {
           this.counts.completed++;

@@ -23,6 +23,8 @@ export interface RefinedTask {
   jobId: number;
   /** The version's deck, as stored (JSON text). */
   deckJson: string;
+  /** Run the moment rows again at twice the mesh density (false when that model would exceed the server's size limit). */
+  checkConvergence: boolean;
 }
 
 export interface RefinedAnswer {
@@ -38,10 +40,10 @@ export interface StartedMessage {
   jobId: number;
 }
 
-function solve(deckJson: string): { data: unknown; rows: FactorRow[] | null; error?: string } {
+function solve(deckJson: string, checkConvergence: boolean): { data: unknown; rows: FactorRow[] | null; error?: string } {
   try {
     // The moment rows' convergence at twice the mesh density goes with the result: a reduction claim needs it.
-    const result = computeRefinedFactors(assertDeck(JSON.parse(deckJson)), { checkConvergence: true });
+    const result = computeRefinedFactors(assertDeck(JSON.parse(deckJson)), { checkConvergence });
     return { data: result, rows: result.rows };
   } catch (e) {
     if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
@@ -60,6 +62,6 @@ function encode(data: unknown): EncodedResult | null {
 
 export default function refinedTask(task: RefinedTask): RefinedAnswer {
   parentPort?.postMessage({ kind: 'refined-started', jobId: task.jobId } satisfies StartedMessage);
-  const { data, rows, error } = solve(task.deckJson);
+  const { data, rows, error } = solve(task.deckJson, task.checkConvergence === true);
   return { encoded: encode(data), rows, ...(error !== undefined ? { error } : {}) };
 }

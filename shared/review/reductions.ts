@@ -203,7 +203,7 @@ export function withheldWords(w: WithheldReason, r: Pick<MomentReduction, 'bound
     case 'bound-misses-target':
       return `its bound (${r.bound?.lanes.toFixed(4)} lanes, ${r.bound?.percent.toFixed(2)} % of the factor) misses the target of ${BOUND_TARGET_LANES} lanes and ${BOUND_TARGET_PERCENT} %`;
     case 'convergence-unknown':
-      return 'the mesh was not checked at twice its density (run the refined analysis again)';
+      return 'the mesh was not checked at twice its density (a result stored before the check, or a model too large to run twice as fine on this server)';
     case 'mesh-unconverged':
       return `at twice the mesh density (${r.convergence?.segmentsPerSpan} segments per span) the factor changes by ${((r.convergence?.change ?? 0) * 100).toFixed(2)} %, more than 1 %`;
     case 'diaphragms-left-out':
