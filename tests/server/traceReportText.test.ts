@@ -4,23 +4,14 @@
  * (1 ft = 0.3048 m exactly, NIST SP 811). Threshold 1e-9: common practice, no source.
  */
 import { describe, expect, it } from 'vitest';
-import { computeCodeFactors, fromUs, stepForDisplay, type TraceStep } from '../../shared/index.js';
+import { computeCodeFactors, stepForDisplay } from '../../shared/index.js';
 import { traceInputsText } from '../../server/reports/calculationPackage.js';
 import { pickRow, usDeck } from '../shared/lrfd/decks.js';
+import { leverResidueStep } from '../shared/traceFixtures.js';
 
 describe('calculation package trace inputs', () => {
   it('prints a wheel-over-girder residue as 0', () => {
-    const s: TraceStep = {
-      label: 'Lever rule',
-      formula: 'R = Σ P·(S − x)/S',
-      inputs: [
-        { symbol: 'S', value: fromUs.ft(8), kind: 'length', formulaValue: 8, formulaUnit: 'ft' },
-        { symbol: 'x1.1', value: fromUs.ft(3.642e-16), kind: 'length', formulaValue: 3.642e-16, formulaUnit: 'ft' },
-      ],
-      value: 0.6,
-      kind: 'none',
-      article: 'AASHTO LRFD Art. 4.6.2.2.1',
-    };
+    const s = leverResidueStep();
     expect(traceInputsText(stepForDisplay(s), 'US')).toBe('S = 8.000 ft;  x1.1 = 0.000 ft');
     expect(traceInputsText(stepForDisplay(s), 'SI')).toContain('x1.1 = 0.000 m (0.000 ft in the formula)');
   });

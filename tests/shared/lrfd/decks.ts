@@ -6,25 +6,11 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { assertDeck, deckFromDisplay, type CodeFactorResult, type Deck, type FactorRow } from '../../../shared/index.js';
+import { BASE_US } from '../traceFixtures.js';
 
 export type DeckOverrides = Record<string, unknown>;
 
-export const BASE_US: Record<string, unknown> = {
-  name: 'Test deck',
-  sectionType: 'a',
-  girders: { kind: 'uniform', count: 5, spacing: 8 },
-  overhangLeft: 3,
-  overhangRight: 3,
-  barrierLeft: { width: 1.5, height: 32 },
-  barrierRight: { width: 1.5, height: 32 },
-  slab: { thickness: 8, haunch: 0 },
-  section: { area: 50, inertia: 20000, eg: 30 },
-  materials: { deck: { kind: 'modulus', modulus: 3600 }, girder: { kind: 'modulus', modulus: 29000 }, modularRatio: 8 },
-  spans: [{ length: 80 }],
-  continuous: false,
-  supports: [{ skew: 0 }, { skew: 0 }],
-  diaphragms: { type: 'none' },
-};
+export { BASE_US };
 
 /** A validated deck in internal units from US display values. */
 export function usDeck(over: DeckOverrides = {}): Deck {
