@@ -20,6 +20,36 @@ describe('foundation in the browser', () => {
     await h?.stop();
   });
 
+  it('sends the sign-in page compressed, in no more than 350 kB of JavaScript (issue target)', async () => {
+    // Bytes on the wire, nothing cached: the sign-in page must not pull in the whole
+    // component library (its one chunk alone was about 275 kB gzipped).
+    const page = await h.context.newPage();
+    const cdp = await h.context.newCDPSession(page);
+    await cdp.send('Network.enable');
+    await cdp.send('Network.setCacheDisabled', { cacheDisabled: true });
+    const sizes: Promise<{ js: boolean; bytes: number; encoding: string }>[] = [];
+    page.on('response', (res) => {
+      sizes.push(
+        (async () => {
+          await res.finished();
+          const { responseBodySize } = await res.request().sizes();
+          const headers = await res.allHeaders();
+          return { js: (headers['content-type'] ?? '').includes('javascript'), bytes: responseBodySize, encoding: headers['content-encoding'] ?? '' };
+        })(),
+      );
+    });
+    await page.goto(h.url('/sign-in'));
+    await page.locator('input[data-test="email"]').waitFor();
+    await page.waitForLoadState('networkidle');
+    const scripts = (await Promise.all(sizes)).filter((r) => r.js);
+    const total = scripts.reduce((a, r) => a + r.bytes, 0);
+    expect(scripts.length).toBeGreaterThan(0);
+    // every script of a few kB or more travels compressed
+    expect(scripts.filter((r) => r.bytes > 2000 && r.encoding === '')).toEqual([]);
+    expect(total).toBeLessThanOrEqual(350_000);
+    await page.close();
+  });
+
   it('sends a visitor to sign in and shows the caution line', async () => {
     const { page } = h;
     await page.goto(h.url('/projects'));
