@@ -34,6 +34,7 @@ import { trainingRouter } from './api/training/trainingRouter.js';
 import { importRouter } from './api/imports/importRouter.js';
 import { reportRouter } from './reports/reportRouter.js';
 import { refinedPoolFor, type RefinedPool } from './compute/refinedPool.js';
+import { packagePoolFor, type PackagePool } from './compute/packagePool.js';
 
 export interface AppDeps {
   db: Db;
@@ -45,6 +46,8 @@ export interface AppDeps {
   attachmentsDir?: string;
   /** Worker pool of the refined (grillage) analyses (server/compute); the caller closes it. Without one, the app makes its own from `config` (`app.locals.refinedPool`). */
   refinedPool?: RefinedPool;
+  /** Worker pool that lays out the calculation packages; the caller closes it. Without one, the app makes its own from `config` (`app.locals.packagePool`). */
+  packagePool?: PackagePool;
 }
 
 /** Helmet's headers; HSTS and upgrade-insecure-requests only when served over HTTPS. */
@@ -63,10 +66,12 @@ function securityHeaders(config: Config) {
   });
 }
 
-export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir, refinedPool }: AppDeps): Express {
+export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir, refinedPool, packagePool }: AppDeps): Express {
   const app = express();
   const pool = refinedPool ?? refinedPoolFor(config);
   app.locals.refinedPool = pool;
+  const packages = packagePool ?? packagePoolFor(config);
+  app.locals.packagePool = packages;
   const filesDir = attachmentsDir ?? defaultAttachmentsDir(config.databaseUrl);
   app.disable('x-powered-by');
   // Off unless TRUST_PROXY names the proxy: a client cannot pick its own address (rate limits).
@@ -109,7 +114,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/reviews', reviewRouter(db, config, mailer, pool));
   api.use('/training', trainingRouter(db, config, mailer));
   api.use('/imports', importRouter(db, config));
-  api.use('/reports', reportRouter(db, pool));
+  api.use('/reports', reportRouter(db, pool, packages));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -11,6 +11,7 @@ import { createApp } from './app.js';
 import { startMail } from './mail/setup.js';
 import { closePasswordHashing, configurePasswordHashing } from './auth/password.js';
 import { refinedPoolFor } from './compute/refinedPool.js';
+import { packagePoolFor } from './compute/packagePool.js';
 import { startPeriodicBackup } from './backup/periodic.js';
 
 async function main() {
@@ -21,8 +22,9 @@ async function main() {
   const mail = await startMail(db, process.env, (line) => console.log(line));
   console.log(`Mail: ${mail.mailer.description}${mail.local ? ' (messages kept in the outbox, read by admins under Mail)' : ''}`);
   const refinedPool = refinedPoolFor(config);
+  const packagePool = packagePoolFor(config);
   console.log(`Refined analyses: ${config.refinedThreads} worker thread(s), ${config.refinedJobMs / 1000} s per run, ${config.refinedQueue} waiting at most`);
-  const app = createApp({ db, config, mailer: mail.mailer, refinedPool });
+  const app = createApp({ db, config, mailer: mail.mailer, refinedPool, packagePool });
   const server = app.listen(config.port, config.host, (err?: Error) => {
     if (err) {
       console.error(`Deckshare could not listen on ${config.host}:${config.port}: ${err.message}`);
@@ -38,7 +40,7 @@ async function main() {
     stopping = true;
     console.log(`${signal}: closing connections…`);
     server.close(() => {
-      void Promise.allSettled([backups?.stop(), mail.close(), closePasswordHashing(), refinedPool.close()]).then(() => {
+      void Promise.allSettled([backups?.stop(), mail.close(), closePasswordHashing(), refinedPool.close(), packagePool.close()]).then(() => {
         db.$client.close();
         console.log('Deckshare stopped.');
         process.exit(0);

@@ -103,6 +103,10 @@ const envSchema = z.object({
   REFINED_QUEUE: z.coerce.number().int('REFINED_QUEUE must be a whole number').min(0).max(1000).default(8),
   /** Heap cap of each refined-analysis worker, MB. */
   REFINED_WORKER_MEMORY_MB: z.coerce.number().int('REFINED_WORKER_MEMORY_MB must be a whole number').min(64).max(65536).default(1024),
+  /** Worker threads that lay out calculation packages (server/compute/packagePool.ts). */
+  PACKAGE_THREADS: z.coerce.number().int('PACKAGE_THREADS must be a whole number').min(1).max(16).default(1),
+  /** Calculation packages that may wait for a thread beyond those being laid out. */
+  PACKAGE_QUEUE: z.coerce.number().int('PACKAGE_QUEUE must be a whole number').min(0).max(1000).default(8),
   /** Largest refined model accepted: mesh nodes × girder lines (server/compute/modelSize.ts). */
   REFINED_MAX_NODE_GIRDERS: z.coerce.number().int('REFINED_MAX_NODE_GIRDERS must be a whole number').min(1000).default(100000),
 });
@@ -141,6 +145,9 @@ export interface Config {
   refinedQueue: number;
   refinedWorkerMemoryMb: number;
   refinedMaxNodeGirders: number;
+  /** The calculation-package pool (server/compute/packagePool.ts); its time and memory limits are the refined pool's. */
+  packageThreads: number;
+  packageQueue: number;
 }
 
 export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: Partial<Config> = {}): Config {
@@ -190,6 +197,8 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     refinedQueue: e.REFINED_QUEUE,
     refinedWorkerMemoryMb: e.REFINED_WORKER_MEMORY_MB,
     refinedMaxNodeGirders: e.REFINED_MAX_NODE_GIRDERS,
+    packageThreads: e.PACKAGE_THREADS,
+    packageQueue: e.PACKAGE_QUEUE,
     ...overrides,
   };
 }

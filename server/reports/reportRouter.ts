@@ -12,17 +12,17 @@ import { validate } from '../middleware/validate.js';
 import { versionParams } from '../api/decks/deckModel.js';
 import { recordAudit } from '../api/audit/auditService.js';
 import { reportData, type ReportData } from './reportData.js';
-import { calculationPackagePdf } from './calculationPackage.js';
 import { envelopesCsv, factorsCsv } from './csvExport.js';
 import { assertVersionResultsVisible } from '../api/training/withheldResults.js';
 import type { RefinedPool } from '../compute/refinedPool.js';
+import type { PackagePool } from '../compute/packagePool.js';
 
 function fileStem(data: ReportData): string {
   const clean = data.deck.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'deck';
   return `${clean}-v${data.version.number}`;
 }
 
-export function reportRouter(db: Db, pool: RefinedPool): Router {
+export function reportRouter(db: Db, pool: RefinedPool, packages: PackagePool): Router {
   const r = Router();
   const params = validate({ params: versionParams });
   /** The version's report data; refused first when its results are withheld from the reader (an open exercise). */
@@ -36,7 +36,8 @@ export function reportRouter(db: Db, pool: RefinedPool): Router {
 
   r.get('/decks/:deckId/versions/:number/package.pdf', allow('report:export'), params, async (req, res) => {
     const data = await reportOf(req, res);
-    const pdf = await calculationPackagePdf(data);
+    // laid out on a worker thread (server/compute/packagePool.ts): the request thread only gathers the data
+    const pdf = await packages.render(data);
     audit(req, data, 'the calculation package (PDF)');
     res.attachment(`${fileStem(data)}-calculation-package.pdf`);
     res.type('application/pdf');

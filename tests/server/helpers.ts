@@ -13,6 +13,7 @@ import { seedDemo } from '../../server/db/seed.js';
 export const DEMO_PASSWORD = 'deckshare-demo-1';
 import { createApp } from '../../server/app.js';
 import { refinedPoolFor, type RefinedPool } from '../../server/compute/refinedPool.js';
+import { packagePoolFor, type PackagePool } from '../../server/compute/packagePool.js';
 import { closePasswordHashing } from '../../server/auth/password.js';
 
 export interface TestContext {
@@ -22,6 +23,7 @@ export interface TestContext {
   dir: string;
   /** The app's refined-analysis worker pool. */
   refinedPool: RefinedPool;
+  packagePool: PackagePool;
   close(): Promise<void>;
 }
 
@@ -31,15 +33,18 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
   const db = openDatabase(config.databaseUrl);
   await seedDemo(db, DEMO_PASSWORD);
   const refinedPool = refinedPoolFor(config);
-  const app = createApp({ db, config, log: () => {}, refinedPool });
+  const packagePool = packagePoolFor(config);
+  const app = createApp({ db, config, log: () => {}, refinedPool, packagePool });
   return {
     app,
     db,
     config,
     dir,
     refinedPool,
+    packagePool,
     async close() {
       await refinedPool.close();
+      await packagePool.close();
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
       // Worker threads stop (awaited, so the next app of this file starts a fresh pool); the

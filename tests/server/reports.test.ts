@@ -75,6 +75,8 @@ describe('calculation package (PDF)', () => {
     // A package of Latin text only embeds no fallback font (they load only for the characters that need them).
     expect(pdf.includes(Buffer.from('NotoSansSC'))).toBe(false);
     expect(pdf.includes(Buffer.from('NotoEmoji'))).toBe(false);
+    // laid out on the package pool's worker thread, not on the request thread
+    expect(ctx.packagePool.stats()).toMatchObject({ jobs: 1, completed: 1, failed: 0 });
     text = pdfText(pdf);
   });
 

@@ -16,6 +16,7 @@ import { createSmtpMailer, type Mailer } from '../../server/mail/mailer.js';
 import { startLocalSmtp, type LocalSmtp } from '../../server/mail/localSmtp.js';
 import { DEMO_PASSWORD, signIn, type Agent } from './helpers.js';
 import { refinedPoolFor, type RefinedPool } from '../../server/compute/refinedPool.js';
+import { packagePoolFor, type PackagePool } from '../../server/compute/packagePool.js';
 
 export interface WorkflowContext {
   app: Express;
@@ -27,6 +28,7 @@ export interface WorkflowContext {
   smtp: LocalSmtp;
   /** The app's refined-analysis worker pool. */
   refinedPool: RefinedPool;
+  packagePool: PackagePool;
   close(): Promise<void>;
 }
 
@@ -40,7 +42,8 @@ export async function makeWorkflowApp(overrides: Partial<Config> = {}): Promise<
   const mailer = createSmtpMailer({ host: smtp.host, port: smtp.port, auth: smtp.auth, from: 'Deckshare <no-reply@deckshare.test>', tagMessages: true, log: (l) => lines.push(l) });
   const attachmentsDir = join(dir, 'files');
   const refinedPool = refinedPoolFor(config);
-  const app = createApp({ db, config, log: (l) => lines.push(l), mailer, attachmentsDir, refinedPool });
+  const packagePool = packagePoolFor(config);
+  const app = createApp({ db, config, log: (l) => lines.push(l), mailer, attachmentsDir, refinedPool, packagePool });
   return {
     app,
     db,
@@ -50,8 +53,10 @@ export async function makeWorkflowApp(overrides: Partial<Config> = {}): Promise<
     mailer,
     smtp,
     refinedPool,
+    packagePool,
     async close() {
       await refinedPool.close();
+      await packagePool.close();
       await mailer.idle();
       mailer.close();
       await smtp.close();
