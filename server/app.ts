@@ -35,6 +35,8 @@ import { importRouter } from './api/imports/importRouter.js';
 import { reportRouter } from './reports/reportRouter.js';
 import { refinedPoolFor, type RefinedPool } from './compute/refinedPool.js';
 import { packagePoolFor, type PackagePool } from './compute/packagePool.js';
+import { databaseJobRecorder, failInterruptedJobs } from './compute/jobRecords.js';
+import { jobRouter } from './api/jobs/jobRouter.js';
 
 export interface AppDeps {
   db: Db;
@@ -72,6 +74,12 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   app.locals.refinedPool = pool;
   const packages = packagePool ?? packagePoolFor(config);
   app.locals.packagePool = packages;
+  // Jobs a stopped server left unfinished are failed with the reason; every new one is recorded.
+  const interrupted = failInterruptedJobs(db);
+  if (interrupted > 0) log(`${interrupted} compute job(s) left unfinished by the last run of the server were marked failed`);
+  const recorder = databaseJobRecorder(db, log);
+  pool.recordJobs(recorder);
+  packages.recordJobs(recorder);
   const filesDir = attachmentsDir ?? defaultAttachmentsDir(config.databaseUrl);
   app.disable('x-powered-by');
   // Off unless TRUST_PROXY names the proxy: a client cannot pick its own address (rate limits).
@@ -107,6 +115,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/projects', projectRouter(db));
   api.use('/projects/:projectId/decks', projectDecksRouter(db, config));
   api.use('/decks', deckRouter(db, config));
+  api.use('/decks', jobRouter(db));
   api.use('/admin/users', userRouter(db, config, mailer));
   api.use('/mail', mailRouter(db));
   api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));

@@ -14,6 +14,7 @@ import { Piscina } from 'piscina';
 import type { Config } from '../config/env.js';
 import { ApiError } from '../middleware/errors.js';
 import type { ReportData } from '../reports/reportData.js';
+import type { JobRecorder } from './jobRecords.js';
 
 export interface PackagePoolOptions {
   threads: number;
@@ -46,6 +47,12 @@ export class PackagePool {
   private inFlight = 0;
   private meanMs = 1000;
   private readonly counts = { jobs: 0, completed: 0, failed: 0, timedOut: 0, refusedBusy: 0 };
+  private recorder: JobRecorder | null = null;
+
+  /** Records every package from now on (server/compute/jobRecords.ts). */
+  recordJobs(recorder: JobRecorder): void {
+    this.recorder = recorder;
+  }
 
   constructor(readonly options: PackagePoolOptions) {
     this.pool = new Piscina<ReportData, Uint8Array>({
@@ -63,7 +70,7 @@ export class PackagePool {
   }
 
   /** The PDF of `data`. ApiError 503 when the pool is full, the layout ran out of time or memory. */
-  async render(data: ReportData): Promise<Buffer> {
+  async render(data: ReportData, requestedBy: number | null = null): Promise<Buffer> {
     if (this.inFlight >= this.options.threads + this.options.queue) {
       this.counts.refusedBusy++;
       throw this.busyError();
@@ -79,14 +86,20 @@ export class PackagePool {
       controller.abort();
     }, limit);
     const t0 = performance.now();
+    const recordId = this.recorder ? this.recorder.queued({ kind: 'package', versionId: data.version.id, requestedBy }) : null;
+    // a package has no start message: it counts as running from submission
+    if (recordId !== null) this.recorder?.started(recordId);
     try {
       const bytes = await this.pool.run(data, { signal: controller.signal });
       this.counts.completed++;
       this.meanMs = 0.7 * this.meanMs + 0.3 * (performance.now() - t0);
+      if (recordId !== null) this.recorder?.done(recordId, performance.now() - t0);
       // structured cloning turns the worker's Buffer into a Uint8Array
       return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
     } catch (e) {
-      throw this.failure(e, timedOut);
+      const error = this.failure(e, timedOut);
+      if (recordId !== null) this.recorder?.failed(recordId, error.message, performance.now() - t0);
+      throw error;
     } finally {
       clearTimeout(timer);
       this.inFlight--;

@@ -24,6 +24,7 @@ import { ApiError } from '../middleware/errors.js';
 import { modelSizeRefusal, refinedModelSize } from './modelSize.js';
 import { REFINED_SEGMENTS_PER_SPAN } from '../../shared/grillage/refinedFactors.js';
 import type { RefinedAnswer, RefinedTask, StartedMessage } from './refinedWorker.js';
+import type { JobMeta, JobRecorder } from './jobRecords.js';
 
 export interface RefinedPoolOptions {
   /** Worker threads (at least 1). */
@@ -77,6 +78,8 @@ interface Job {
   timedOut: boolean;
   notStarted: boolean;
   promise: Promise<RefinedAnswer>;
+  /** Its row in compute_jobs (null when not recorded). */
+  recordId: number | null;
 }
 
 /** Allowance for starting a worker (the tsx loader and the solver's modules), ms. */
@@ -98,6 +101,12 @@ export class RefinedPool {
   /** Mean run time of recent jobs, ms (for Retry-After). */
   private meanMs = 5000;
   private readonly counts = { jobs: 0, shared: 0, completed: 0, failed: 0, timedOut: 0, outOfMemory: 0, refusedBusy: 0, refusedTooLarge: 0 };
+  private recorder: JobRecorder | null = null;
+
+  /** Records every job from now on (server/compute/jobRecords.ts). */
+  recordJobs(recorder: JobRecorder): void {
+    this.recorder = recorder;
+  }
 
   constructor(readonly options: RefinedPoolOptions) {
     this.pool = new Piscina<RefinedTask, RefinedAnswer>({
@@ -125,7 +134,7 @@ export class RefinedPool {
    * concurrent caller with the same `key`. Throws RefinedModelTooLargeError before queueing,
    * ApiError 503 when the pool is full, the job ran out of time or its worker out of memory.
    */
-  run(key: string, deck: Deck, deckJson: string): Promise<RefinedAnswer> {
+  run(key: string, deck: Deck, deckJson: string, meta?: Omit<JobMeta, 'kind'>): Promise<RefinedAnswer> {
     const existing = this.jobs.get(key);
     if (existing) {
       this.counts.shared++;
@@ -142,10 +151,10 @@ export class RefinedPool {
     }
     // The convergence check runs the moment rows again at twice the density: only when that model is within the limit too.
     const checkConvergence = refinedModelSize(deck, 2 * REFINED_SEGMENTS_PER_SPAN).nodeGirders <= this.options.maxNodeGirders;
-    return this.submit(key, deckJson, checkConvergence).promise;
+    return this.submit(key, deckJson, checkConvergence, meta).promise;
   }
 
-  private submit(key: string, deckJson: string, checkConvergence: boolean): Job {
+  private submit(key: string, deckJson: string, checkConvergence: boolean, meta: Omit<JobMeta, 'kind'> | undefined): Job {
     const id = this.nextId++;
     const controller = new AbortController();
     // Every job ahead of this one ends within jobMs (plus a worker start), so it starts within this deadline.
@@ -154,7 +163,9 @@ export class RefinedPool {
       job.notStarted = true;
       controller.abort();
     }, startMs);
-    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never) };
+    const recordId = meta && this.recorder ? this.recorder.queued({ kind: 'refined', ...meta }) : null;
+    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never), recordId };
+    const runMs = () => (job.startedAt === null ? null : performance.now() - job.startedAt);
     this.counts.jobs++;
     job.promise = this.pool
       .run({ jobId: id, deckJson, checkConvergence } satisfies RefinedTask, { signal: controller.signal })
@@ -165,10 +176,13 @@ export class RefinedPool {
           const blob = answer.encoded?.dataBlob as Uint8Array | null | undefined;
           if (answer.encoded && blob && !Buffer.isBuffer(blob)) answer.encoded.dataBlob = Buffer.from(blob.buffer, blob.byteOffset, blob.byteLength);
           if (job.startedAt !== null) this.meanMs = 0.7 * this.meanMs + 0.3 * (performance.now() - job.startedAt);
+          if (job.recordId !== null) this.recorder?.done(job.recordId, runMs());
           return answer;
         },
         (e: unknown) => {
-          throw this.failure(job, e);
+          const error = this.failure(job, e);
+          if (job.recordId !== null) this.recorder?.failed(job.recordId, error.message, runMs());
+          throw error;
         },
       )
       .finally(() => this.settle(job));
@@ -183,6 +197,7 @@ export class RefinedPool {
     if (!job || job.startedAt !== null) return;
     clearTimeout(job.startTimer);
     job.startedAt = performance.now();
+    if (job.recordId !== null) this.recorder?.started(job.recordId);
     job.timer = setTimeout(() => {
       job.timedOut = true;
       job.controller.abort();

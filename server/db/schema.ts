@@ -156,6 +156,37 @@ export const analysisResults = sqliteTable(
   (t) => [uniqueIndex('analysis_results_version_method_unique').on(t.versionId, t.method, t.solverVersion)],
 );
 
+export const COMPUTE_JOB_KINDS = ['refined', 'package'] as const;
+export const COMPUTE_JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
+
+/**
+ * Work sent to the server's worker pools (server/compute/): one row per job, written when it
+ * is queued and updated when a worker starts it and when it ends, so a restart finds the jobs
+ * it interrupted and marks them failed with the reason (server/compute/jobRecords.ts).
+ */
+export const computeJobs = sqliteTable(
+  'compute_jobs',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    kind: text('kind', { enum: COMPUTE_JOB_KINDS }).notNull(),
+    versionId: integer('version_id')
+      .notNull()
+      .references(() => deckVersions.id),
+    /** Who asked first (requests that share the job are not listed). */
+    requestedBy: integer('requested_by').references(() => users.id),
+    state: text('state', { enum: COMPUTE_JOB_STATES }).notNull().default('queued'),
+    solverVersion: text('solver_version').notNull(),
+    createdAt: text('created_at').notNull().default(now),
+    startedAt: text('started_at'),
+    finishedAt: text('finished_at'),
+    /** Worker time, ms (done or failed after a start). */
+    runMs: real('run_ms'),
+    /** Why a failed job failed, in the words its requester was given. */
+    error: text('error'),
+  },
+  (t) => [index('compute_jobs_version').on(t.versionId), index('compute_jobs_state').on(t.state)],
+);
+
 /** Who did what, when. Append-only. */
 export const auditLog = sqliteTable(
   'audit_log',

@@ -44,7 +44,8 @@ function name(db: Db, id: number | null) {
   return db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, id)).get() ?? { name: '', email: '' };
 }
 
-export async function reportData(db: Db, pool: RefinedPool, firmId: number, deckId: number, versionNumber: number): Promise<ReportData> {
+/** `requestedBy`: the user asking (recorded with a refined job the call starts). */
+export async function reportData(db: Db, pool: RefinedPool, firmId: number, deckId: number, versionNumber: number, requestedBy: number | null = null): Promise<ReportData> {
   const row = db
     .select({ v: deckVersions, d: decks, p: projects })
     .from(deckVersions)
@@ -59,7 +60,7 @@ export async function reportData(db: Db, pool: RefinedPool, firmId: number, deck
   const state: VersionReviewState = current ? current.state : 'in-progress';
   const code = codeResultsOf(db, row.v);
   const input = deckOf(row.v);
-  const refined = await refinedResultsOf(db, pool, row.v);
+  const refined = await refinedResultsOf(db, pool, row.v, requestedBy);
   return {
     generatedAt: new Date().toISOString(),
     units: row.p.units,

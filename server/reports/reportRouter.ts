@@ -29,7 +29,7 @@ export function reportRouter(db: Db, pool: RefinedPool, packages: PackagePool): 
   const reportOf = (req: Express.Request, res: Response) => {
     const { deckId, number } = res.locals.params as { deckId: number; number: number };
     assertVersionResultsVisible(db, req.user!, deckId, number);
-    return reportData(db, pool, req.user!.firmId, deckId, number);
+    return reportData(db, pool, req.user!.firmId, deckId, number, req.user!.id);
   };
   const audit = (req: Express.Request, data: ReportData, what: string) =>
     recordAudit(db, { firmId: req.user!.firmId, projectId: data.project.id, actorId: req.user!.id, action: 'export', entityType: 'deck', entityId: data.deck.id, summary: `exported ${what} of version ${data.version.number} of deck “${data.deck.name}”` });
@@ -37,7 +37,7 @@ export function reportRouter(db: Db, pool: RefinedPool, packages: PackagePool): 
   r.get('/decks/:deckId/versions/:number/package.pdf', allow('report:export'), params, async (req, res) => {
     const data = await reportOf(req, res);
     // laid out on a worker thread (server/compute/packagePool.ts): the request thread only gathers the data
-    const pdf = await packages.render(data);
+    const pdf = await packages.render(data, req.user!.id);
     audit(req, data, 'the calculation package (PDF)');
     res.attachment(`${fileStem(data)}-calculation-package.pdf`);
     res.type('application/pdf');

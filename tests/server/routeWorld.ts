@@ -118,6 +118,7 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'GET /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, query: { limit: '1', cursor: encodeCursor({ number: 2 }) } },
     'POST /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', basedOnVersionId: ids.versionId, placements: PLACEMENTS } },
     'GET /api/decks/:deckId/versions/:number': { params: version },
+    'GET /api/decks/:deckId/versions/:number/jobs': { params: version },
     'GET /api/admin/users': {},
     'POST /api/admin/users': { body: { email: 'new-user@larchmont-ridge.example', name: 'New User', roles: ['trainee'] } },
     'PATCH /api/admin/users/:userId': { params: { userId: ids.managedUserId }, body: { name: 'Managed Again', roles: ['designer'], disabled: false } },

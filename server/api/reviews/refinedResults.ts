@@ -44,8 +44,8 @@ function rowsOf(data: unknown): FactorRow[] | null {
 }
 
 /** Computes the version's grillage result and stores it (once per version and solver version). */
-async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow): Promise<unknown> {
-  const answer = await pool.run(`${v.id}|${SOLVER_VERSION}`, deckOf(v), v.deckJson);
+async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null): Promise<unknown> {
+  const answer = await pool.run(`${v.id}|${SOLVER_VERSION}`, deckOf(v), v.deckJson, { versionId: v.id, requestedBy });
   const data = answer.error !== undefined ? { error: answer.error } : { rows: answer.rows };
   // When another request stored it first (same version, method and solver version), theirs
   // is kept; a result too large to store (encoded null) serves this request only.
@@ -57,11 +57,12 @@ async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow): Pr
  * The governing refined factor of each girder, effect and location (the largest over the
  * lane cases), or null with the reason when there is none.
  */
-export async function refinedResultsOf(db: Db, pool: RefinedPool, v: DeckVersionRow): Promise<RefinedResults> {
+/** `requestedBy`: the user whose request this is (recorded with a job the call starts). */
+export async function refinedResultsOf(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null = null): Promise<RefinedResults> {
   const stored = storedResult(db, v.id, 'grillage');
   let data: unknown;
   try {
-    data = stored ? stored.data : await computeAndStore(db, pool, v);
+    data = stored ? stored.data : await computeAndStore(db, pool, v, requestedBy);
   } catch (e) {
     if (!(e instanceof RefinedModelTooLargeError)) throw e;
     return { factors: null, rows: null, source: 'grillage not run (model-size limit of this server)', note: e.message };

@@ -101,7 +101,7 @@ function skewWords(skews: number[]): string {
 }
 
 /** The summary of version `v`; `refined` when the caller already has the version's refined results. */
-export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersionRow, refinedKnown?: RefinedResults): Promise<RefinedSummary> {
+export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersionRow, refinedKnown?: RefinedResults, requestedBy: number | null = null): Promise<RefinedSummary> {
   const { result: code, solverVersion, source } = codeResultsOf(db, v);
   const deck = deckOf(v);
   const count = code.derived.girderCount;
@@ -124,7 +124,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
     });
   }
 
-  const refined = refinedKnown ?? (await refinedResultsOf(db, pool, v));
+  const refined = refinedKnown ?? (await refinedResultsOf(db, pool, v, requestedBy));
   const ratios: RatioRow[] = [];
   if (refined.factors) {
     for (const f of refined.factors) {

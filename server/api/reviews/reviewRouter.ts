@@ -45,7 +45,7 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: Refin
     // The round's comments and summary quote the version's results.
     assertResultsVisible(db, req.user!, round.versionId);
     const review = getReview(db, req.user!, round.id);
-    res.json({ review, summary: await refinedSummaryOf(db, pool, findVersion(db, req.user!.firmId, round.versionId).v) });
+    res.json({ review, summary: await refinedSummaryOf(db, pool, findVersion(db, req.user!.firmId, round.versionId).v, undefined, req.user!.id) });
   });
   r.post('/:reviewId/comments', allow('review:comment'), validate({ params: idParams('reviewId'), body: commentBody }), (req, res) => {
     res.status(201).json({ comment: addComment(deps, req.user!, res.locals.params.reviewId, res.locals.body) });

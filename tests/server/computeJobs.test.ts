@@ -1,0 +1,120 @@
+/** The worker pools' jobs as database records: each refined run and each calculation package
+ *  is recorded with who asked, its state and timings, a failed one with the reason its
+ *  requester was given, and a restart marks the jobs a stopped server left unfinished as
+ *  failed (none stays "running" for ever). Read through the API, firm by firm. */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { demo, signIn, type Agent } from './helpers.js';
+import { makeWorkflowApp, otherFirm, send, userId, type WorkflowContext } from './workflowHelpers.js';
+import { quarryCreekDeck } from '../fixtures/decks.js';
+import { createApp } from '../../server/app.js';
+import { computeJobs } from '../../server/db/schema.js';
+import { INTERRUPTED } from '../../server/compute/jobRecords.js';
+import { SOLVER_VERSION } from '../../shared/version.js';
+
+interface JobView {
+  id: number;
+  kind: string;
+  state: string;
+  solverVersion: string;
+  requestedBy: { id: number; name: string } | null;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  runMs: number | null;
+  error: string | null;
+}
+
+async function newVersion(a: Agent, message: string): Promise<{ deckId: number; versionId: number }> {
+  const projectId = (await a.get('/api/projects')).body.projects[0].id as number;
+  const created = await send.post(a, `/api/projects/${projectId}/decks`, { deck: quarryCreekDeck(), message });
+  expect(created.status).toBe(201);
+  return { deckId: created.body.deck.id, versionId: created.body.version.id };
+}
+
+describe('compute jobs as records', () => {
+  let ctx: WorkflowContext;
+  let designer: Agent;
+  let reviewer: Agent;
+
+  beforeAll(async () => {
+    ctx = await makeWorkflowApp();
+    designer = await signIn(ctx.app, demo.designer);
+    reviewer = await signIn(ctx.app, demo.reviewer);
+  });
+  afterAll(() => ctx.close());
+
+  it('records the refined run (asked for by the reviewer) and the package (by the designer), done with their timings', async () => {
+    const { deckId, versionId } = await newVersion(designer, 'for the job records');
+    const round = await send.post(designer, '/api/reviews', { versionId, reviewerId: userId(ctx, demo.reviewer) });
+    expect((await reviewer.get(`/api/reviews/${round.body.review.id}`)).status).toBe(200);
+    expect((await designer.get(`/api/reports/decks/${deckId}/versions/1/package.pdf`)).status).toBe(200);
+    const res = await designer.get(`/api/decks/${deckId}/versions/1/jobs`);
+    expect(res.status).toBe(200);
+    const jobs = res.body.jobs as JobView[];
+    // newest first; the package reused the stored refined result (no second refined job)
+    expect(jobs.map((j) => [j.kind, j.state])).toEqual([
+      ['package', 'done'],
+      ['refined', 'done'],
+    ]);
+    const [pkg, refined] = jobs;
+    expect(refined.requestedBy).toEqual({ id: userId(ctx, demo.reviewer), name: expect.any(String) });
+    expect(pkg.requestedBy?.id).toBe(userId(ctx, demo.designer));
+    for (const j of jobs) {
+      expect(j.solverVersion).toBe(SOLVER_VERSION);
+      expect(j.error).toBeNull();
+      expect(j.runMs).toBeGreaterThan(0);
+      expect(Date.parse(j.startedAt!)).toBeGreaterThanOrEqual(Date.parse(j.createdAt));
+      expect(Date.parse(j.finishedAt!)).toBeGreaterThanOrEqual(Date.parse(j.startedAt!));
+    }
+  });
+
+  it('a restart marks the jobs a stopped server left queued or running as failed, with the reason', async () => {
+    const { deckId, versionId } = await newVersion(designer, 'interrupted');
+    const left = ['queued', 'running'].map(
+      (state) => ctx.db.insert(computeJobs).values({ kind: 'refined', versionId, requestedBy: null, state: state as 'queued' | 'running', solverVersion: SOLVER_VERSION }).returning().get().id,
+    );
+    const lines: string[] = [];
+    // the server starts again on the same database
+    createApp({ db: ctx.db, config: ctx.config, log: (l) => lines.push(l), refinedPool: ctx.refinedPool, packagePool: ctx.packagePool });
+    for (const id of left) {
+      const row = ctx.db.select().from(computeJobs).where(eq(computeJobs.id, id)).get()!;
+      expect(row.state).toBe('failed');
+      expect(row.error).toBe(INTERRUPTED);
+      expect(row.finishedAt).not.toBeNull();
+    }
+    expect(lines.some((l) => l.includes('2 compute job(s) left unfinished'))).toBe(true);
+    const view = (await designer.get(`/api/decks/${deckId}/versions/1/jobs`)).body.jobs as JobView[];
+    expect(view.map((j) => j.state)).toEqual(['failed', 'failed']);
+    expect(view[0].error).toContain('The server stopped before this job finished');
+  });
+
+  it('another firm cannot read a version\'s jobs; a version that does not exist is 404', async () => {
+    const { deckId } = await newVersion(designer, 'private');
+    const outsider = await otherFirm(ctx);
+    expect((await outsider.get(`/api/decks/${deckId}/versions/1/jobs`)).status).toBe(404);
+    const missing = await designer.get(`/api/decks/${deckId}/versions/9/jobs`);
+    expect(missing.status).toBe(404);
+    expect(missing.body.error.message).toContain('version 9');
+  });
+});
+
+describe('a failed job keeps its reason', () => {
+  it('a refined run stopped by the time limit is recorded failed with the message its requester got', async () => {
+    // a limit of 1 ms: every refined run is stopped as soon as a worker starts it
+    const c = await makeWorkflowApp({ refinedJobMs: 1 });
+    try {
+      const designer = await signIn(c.app, demo.designer);
+      const { deckId } = await newVersion(designer, 'too slow');
+      const res = await designer.get(`/api/reports/decks/${deckId}/versions/1/factors.csv`);
+      expect(res.status).toBe(503);
+      const jobs = (await designer.get(`/api/decks/${deckId}/versions/1/jobs`)).body.jobs as JobView[];
+      expect(jobs).toHaveLength(1);
+      expect(jobs[0]).toMatchObject({ kind: 'refined', state: 'failed', error: res.body.error.message });
+      expect(jobs[0].error).toContain('ran longer than this server\'s limit');
+      expect(jobs[0].startedAt).not.toBeNull();
+    } finally {
+      await c.close();
+    }
+  });
+});
