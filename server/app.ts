@@ -36,7 +36,7 @@ import { reportRouter } from './reports/reportRouter.js';
 import { refinedPoolFor, type RefinedPool } from './compute/refinedPool.js';
 import { packagePoolFor, type PackagePool } from './compute/packagePool.js';
 import { databaseJobRecorder, failInterruptedJobs } from './compute/jobRecords.js';
-import { jobRouter } from './api/jobs/jobRouter.js';
+import { jobRouter, versionJobsRouter } from './api/jobs/jobRouter.js';
 
 export interface AppDeps {
   db: Db;
@@ -115,7 +115,8 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/projects', projectRouter(db));
   api.use('/projects/:projectId/decks', projectDecksRouter(db, config));
   api.use('/decks', deckRouter(db, config));
-  api.use('/decks', jobRouter(db));
+  api.use('/decks', versionJobsRouter(db));
+  api.use('/jobs', jobRouter(db));
   api.use('/admin/users', userRouter(db, config, mailer));
   api.use('/mail', mailRouter(db));
   api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));

@@ -108,6 +108,11 @@ export class RefinedPool {
     this.recorder = recorder;
   }
 
+  /** The compute_jobs row of the job queued or running under `key` (null when none, or not recorded). */
+  recordOf(key: string): number | null {
+    return this.jobs.get(key)?.recordId ?? null;
+  }
+
   constructor(readonly options: RefinedPoolOptions) {
     this.pool = new Piscina<RefinedTask, RefinedAnswer>({
       filename: WORKER,

@@ -14,6 +14,7 @@ import { SOLVER_VERSION } from '../../shared/version.js';
 
 interface JobView {
   id: number;
+  url: string;
   kind: string;
   state: string;
   solverVersion: string;
@@ -89,10 +90,49 @@ describe('compute jobs as records', () => {
     expect(view[0].error).toContain('The server stopped before this job finished');
   });
 
+  it('a client that prefers to poll gets the round at once with 202 and the job to follow, then the summary', async () => {
+    const { versionId } = await newVersion(designer, 'polled');
+    const round = await send.post(designer, '/api/reviews', { versionId, reviewerId: userId(ctx, demo.reviewer) });
+    const url = `/api/reviews/${round.body.review.id}`;
+    const first = await reviewer.get(url).set('Prefer', 'respond-async');
+    expect(first.status).toBe(202);
+    expect(first.body.summary).toBeNull();
+    expect(first.body.review.id).toBe(round.body.review.id);
+    expect(['queued', 'running']).toContain(first.body.job.state);
+    expect(first.body.job.kind).toBe('refined');
+    expect(first.headers.location).toBe(`/api/jobs/${first.body.job.id}`);
+    // a second poller joins the same job
+    const again = await designer.get(url).set('Prefer', 'respond-async');
+    expect(again.status).toBe(202);
+    expect(again.body.job.id).toBe(first.body.job.id);
+    let job = first.body.job as JobView;
+    const end = Date.now() + 60_000;
+    while (job.state === 'queued' || job.state === 'running') {
+      if (Date.now() > end) throw new Error('the refined job never ended');
+      await new Promise((r) => setTimeout(r, 50));
+      const res = await reviewer.get(first.headers.location);
+      expect(res.status).toBe(200);
+      job = res.body.job;
+    }
+    expect(job.state).toBe('done');
+    // the result is stored: the same request is answered in full
+    const done = await reviewer.get(url).set('Prefer', 'respond-async');
+    expect(done.status).toBe(200);
+    expect(done.body.summary.refined.available).toBe(true);
+    // without the preference the server waits, as before (and the job is not run twice)
+    expect((await reviewer.get(url)).status).toBe(200);
+    const jobs = (await designer.get(`/api/decks/${round.body.review.deck.id}/versions/1/jobs`)).body.jobs as JobView[];
+    expect(jobs.filter((j) => j.kind === 'refined')).toHaveLength(1);
+  });
+
   it('another firm cannot read a version\'s jobs; a version that does not exist is 404', async () => {
     const { deckId } = await newVersion(designer, 'private');
     const outsider = await otherFirm(ctx);
     expect((await outsider.get(`/api/decks/${deckId}/versions/1/jobs`)).status).toBe(404);
+    await designer.get(`/api/reports/decks/${deckId}/versions/1/factors.csv`);
+    const [job] = (await designer.get(`/api/decks/${deckId}/versions/1/jobs`)).body.jobs as JobView[];
+    expect((await designer.get(`/api/jobs/${job.id}`)).body.job).toEqual(job);
+    expect((await outsider.get(`/api/jobs/${job.id}`)).status).toBe(404);
     const missing = await designer.get(`/api/decks/${deckId}/versions/9/jobs`);
     expect(missing.status).toBe(404);
     expect(missing.body.error.message).toContain('version 9');

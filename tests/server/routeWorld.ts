@@ -11,6 +11,8 @@ import { outbox, send, userId, type WorkflowContext } from './workflowHelpers.js
 import type { RouteInfo } from './routeTable.js';
 import { girderLayoutTemplate } from '../../server/api/imports/girderLayoutCsv.js';
 import { encodeCursor } from '../../server/api/pagination.js';
+import { computeJobs } from '../../server/db/schema.js';
+import { SOLVER_VERSION } from '../../shared/version.js';
 
 /** The smallest PNG of the attachment tests (PNG specification §5.2 signature + IHDR start). */
 export const PNG = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010806000000', 'hex');
@@ -24,6 +26,8 @@ export interface WorldIds {
   commentId: number;
   attachmentId: number;
   assignmentId: number;
+  /** A compute job of the first version (server/compute/jobRecords.ts). */
+  jobId: number;
   messageId: number;
   managedUserId: number;
   traineeId: number;
@@ -66,6 +70,7 @@ export async function buildWorld(ctx: WorkflowContext): Promise<WorldIds> {
   const managed = ok(await send.post(admin, '/api/admin/users', { email: 'managed@larchmont-ridge.example', name: 'Managed User', roles: ['designer'] }), 'user');
   const messages = await outbox(ctx);
   if (messages.length === 0) throw new Error('no outbox message');
+  const jobId = ctx.db.insert(computeJobs).values({ kind: 'refined', versionId, requestedBy: null, state: 'done', solverVersion: SOLVER_VERSION }).returning().get().id;
   return {
     projectId,
     deckId,
@@ -75,6 +80,7 @@ export async function buildWorld(ctx: WorkflowContext): Promise<WorldIds> {
     commentId: comment.body.comment.id,
     attachmentId: drawing.body.attachment.id,
     assignmentId: exercise.body.assignment.id,
+    jobId,
     messageId: messages[0].id,
     managedUserId: managed.body.user.id,
     traineeId,
@@ -119,6 +125,7 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'POST /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', basedOnVersionId: ids.versionId, placements: PLACEMENTS } },
     'GET /api/decks/:deckId/versions/:number': { params: version },
     'GET /api/decks/:deckId/versions/:number/jobs': { params: version },
+    'GET /api/jobs/:jobId': { params: { jobId: ids.jobId } },
     'GET /api/admin/users': {},
     'POST /api/admin/users': { body: { email: 'new-user@larchmont-ridge.example', name: 'New User', roles: ['trainee'] } },
     'PATCH /api/admin/users/:userId': { params: { userId: ids.managedUserId }, body: { name: 'Managed Again', roles: ['designer'], disabled: false } },

@@ -1,9 +1,10 @@
 /**
- * /api/decks/:deckId/versions/:number/jobs — the computations the server's worker pools ran
- * (or are running) for one version: the refined (grillage) analysis and the calculation
- * packages, each with its state, who asked, when it was queued, started and ended, its worker
- * time and, for a failed one, the reason its requester was given (server/compute/jobRecords.ts).
- * Readable by everyone who may read the project.
+ * The computations the server's worker pools ran (or are running): the refined (grillage)
+ * analysis and the calculation packages, each with its state, who asked, when it was queued,
+ * started and ended, its worker time and, for a failed one, the reason its requester was given
+ * (server/compute/jobRecords.ts). Readable by everyone who may read the project.
+ * - GET /api/decks/:deckId/versions/:number/jobs — one version's jobs, newest first;
+ * - GET /api/jobs/:jobId — one job: what a client polls after a 202 (its `Location`).
  */
 import { Router } from 'express';
 import { and, eq, inArray } from 'drizzle-orm';
@@ -11,12 +12,57 @@ import type { Db } from '../../db/client.js';
 import { allow } from '../../auth/passport.js';
 import { validate } from '../../middleware/validate.js';
 import { ApiError } from '../../middleware/errors.js';
-import { deckVersions, users } from '../../db/schema.js';
+import { computeJobs, deckVersions, decks, projects, users } from '../../db/schema.js';
+import { idParams } from '../../middleware/validate.js';
 import { versionParams } from '../decks/deckModel.js';
 import { findDeck } from '../decks/deckService.js';
 import { jobsOfVersion } from '../../compute/jobRecords.js';
 
+type JobRow = typeof computeJobs.$inferSelect;
+
+/** A job as the API shows it (requester by name, the address to poll). */
+export function jobViews(db: Db, jobs: JobRow[]) {
+  const ids = [...new Set(jobs.map((j) => j.requestedBy).filter((id): id is number => id !== null))];
+  const names = new Map(ids.length ? db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)).all().map((u) => [u.id, u.name]) : []);
+  return jobs.map((j) => ({
+    id: j.id,
+    url: `/api/jobs/${j.id}`,
+    kind: j.kind,
+    state: j.state,
+    solverVersion: j.solverVersion,
+    requestedBy: j.requestedBy === null ? null : { id: j.requestedBy, name: names.get(j.requestedBy) ?? '' },
+    createdAt: j.createdAt,
+    startedAt: j.startedAt,
+    finishedAt: j.finishedAt,
+    runMs: j.runMs,
+    error: j.error,
+  }));
+}
+export type JobView = ReturnType<typeof jobViews>[number];
+
+/** One job of the firm's, or 404. */
+export function findJob(db: Db, firmId: number, jobId: number): JobRow {
+  const row = db
+    .select({ j: computeJobs })
+    .from(computeJobs)
+    .innerJoin(deckVersions, eq(deckVersions.id, computeJobs.versionId))
+    .innerJoin(decks, eq(decks.id, deckVersions.deckId))
+    .innerJoin(projects, eq(projects.id, decks.projectId))
+    .where(and(eq(computeJobs.id, jobId), eq(projects.firmId, firmId)))
+    .get();
+  if (!row) throw ApiError.notFound('job');
+  return row.j;
+}
+
 export function jobRouter(db: Db): Router {
+  const r = Router();
+  r.get('/:jobId', allow('project:read'), validate({ params: idParams('jobId') }), (req, res) => {
+    res.json({ job: jobViews(db, [findJob(db, req.user!.firmId, res.locals.params.jobId)])[0] });
+  });
+  return r;
+}
+
+export function versionJobsRouter(db: Db): Router {
   const r = Router();
   r.get('/:deckId/versions/:number/jobs', allow('project:read'), validate({ params: versionParams }), (req, res) => {
     const { deckId, number } = res.locals.params as { deckId: number; number: number };
@@ -27,23 +73,7 @@ export function jobRouter(db: Db): Router {
       .where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number)))
       .get();
     if (!v) throw ApiError.notFound(`version ${number} of deck ${deckId}`);
-    const jobs = jobsOfVersion(db, v.id);
-    const ids = [...new Set(jobs.map((j) => j.requestedBy).filter((id): id is number => id !== null))];
-    const names = new Map(ids.length ? db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)).all().map((u) => [u.id, u.name]) : []);
-    res.json({
-      jobs: jobs.map((j) => ({
-        id: j.id,
-        kind: j.kind,
-        state: j.state,
-        solverVersion: j.solverVersion,
-        requestedBy: j.requestedBy === null ? null : { id: j.requestedBy, name: names.get(j.requestedBy) ?? '' },
-        createdAt: j.createdAt,
-        startedAt: j.startedAt,
-        finishedAt: j.finishedAt,
-        runMs: j.runMs,
-        error: j.error,
-      })),
-    });
+    res.json({ jobs: jobViews(db, jobsOfVersion(db, v.id)) });
   });
   return r;
 }

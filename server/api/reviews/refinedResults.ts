@@ -43,14 +43,30 @@ function rowsOf(data: unknown): FactorRow[] | null {
   return rows;
 }
 
+const jobKey = (v: DeckVersionRow) => `${v.id}|${SOLVER_VERSION}`;
+
 /** Computes the version's grillage result and stores it (once per version and solver version). */
 async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null): Promise<unknown> {
-  const answer = await pool.run(`${v.id}|${SOLVER_VERSION}`, deckOf(v), v.deckJson, { versionId: v.id, requestedBy });
+  const answer = await pool.run(jobKey(v), deckOf(v), v.deckJson, { versionId: v.id, requestedBy });
   const data = answer.error !== undefined ? { error: answer.error } : { rows: answer.rows };
   // When another request stored it first (same version, method and solver version), theirs
   // is kept; a result too large to store (encoded null) serves this request only.
   if (answer.encoded) insertEncodedResultOnce(db, v.id, answer.encoded);
   return data;
+}
+
+/**
+ * For a client that would rather poll than wait: when the version's grillage result is not
+ * stored yet, starts (or joins) its job and returns the job's compute_jobs id, without
+ * waiting; the job stores the result when it ends. Null when the result is stored already, or
+ * when the pool refused the job at once (too large, or full) — the caller then answers as
+ * usual, and the waiting path gives the reason.
+ */
+export function refinedJobPending(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null): number | null {
+  if (storedResult(db, v.id, 'grillage')) return null;
+  // the job records its own failure; nobody awaits this promise
+  computeAndStore(db, pool, v, requestedBy).catch(() => undefined);
+  return pool.recordOf(jobKey(v));
 }
 
 /**

@@ -19,6 +19,8 @@ import type { Mailer } from '../../mail/mailer.js';
 import { commentBody, decisionBody, listQuery, refinedBody, statusQuery, submitBody } from './reviewModel.js';
 import { addComment, decide, deckReviewStatus, findRound, getReview, listReviewers, listReviews, recordRefinedDecision, submitForReview, withdrawReview, type ReviewDeps } from './reviewService.js';
 import { refinedSummaryOf } from './refinedSummary.js';
+import { refinedJobPending } from './refinedResults.js';
+import { findJob, jobViews } from '../jobs/jobRouter.js';
 import { findVersion } from './reviewService.js';
 import { assertResultsVisible } from '../training/withheldResults.js';
 import type { RefinedPool } from '../../compute/refinedPool.js';
@@ -45,7 +47,18 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: Refin
     // The round's comments and summary quote the version's results.
     assertResultsVisible(db, req.user!, round.versionId);
     const review = getReview(db, req.user!, round.id);
-    res.json({ review, summary: await refinedSummaryOf(db, pool, findVersion(db, req.user!.firmId, round.versionId).v, undefined, req.user!.id) });
+    const v = findVersion(db, req.user!.firmId, round.versionId).v;
+    // A client that prefers to poll (RFC 7240 `Prefer: respond-async`) gets the round at once
+    // with 202 and the address of the refined job the summary waits for.
+    if (/\brespond-async\b/i.test(req.get('Prefer') ?? '')) {
+      const jobId = refinedJobPending(db, pool, v, req.user!.id);
+      if (jobId !== null) {
+        const job = jobViews(db, [findJob(db, req.user!.firmId, jobId)])[0];
+        res.status(202).location(job.url).json({ review, summary: null, job });
+        return;
+      }
+    }
+    res.json({ review, summary: await refinedSummaryOf(db, pool, v, undefined, req.user!.id) });
   });
   r.post('/:reviewId/comments', allow('review:comment'), validate({ params: idParams('reviewId'), body: commentBody }), (req, res) => {
     res.status(201).json({ comment: addComment(deps, req.user!, res.locals.params.reviewId, res.locals.body) });
