@@ -157,6 +157,8 @@ export interface RequestOptions {
   body?: unknown;
   /** Query parameters; undefined values are left out. */
   query?: Record<string, string | number | boolean | undefined>;
+  /** Extra request headers (e.g. `Prefer: respond-async`). */
+  headers?: Record<string, string>;
   signal?: AbortSignal;
 }
 
@@ -185,8 +187,13 @@ function buildUrl(path: string, query?: RequestOptions['query']): string {
  * Throws ApiError for any failure; never resolves with an error body.
  */
 export async function request<T>(path: string, options: RequestOptions = {}): Promise<T> {
+  return (await requestWithStatus<T>(path, options)).body;
+}
+
+/** As `request`, with the success status (e.g. 202 Accepted beside 200). */
+export async function requestWithStatus<T>(path: string, options: RequestOptions = {}): Promise<{ status: number; body: T }> {
   const method = options.method ?? 'GET';
-  const headers: Record<string, string> = { Accept: 'application/json' };
+  const headers: Record<string, string> = { ...options.headers, Accept: 'application/json' };
   let body: string | undefined;
   if (options.body !== undefined) {
     headers['Content-Type'] = 'application/json';
@@ -215,7 +222,7 @@ export async function request<T>(path: string, options: RequestOptions = {}): Pr
     );
   }
 
-  if (response.status === 204) return undefined as T;
+  if (response.status === 204) return { status: 204, body: undefined as T };
 
   const text = await response.text().catch(() => '');
   let parsed: unknown = undefined;
@@ -242,7 +249,7 @@ export async function request<T>(path: string, options: RequestOptions = {}): Pr
       'The server sent an answer the client could not read. Please reload the page.',
     );
   }
-  return parsed as T;
+  return { status: response.status, body: parsed as T };
 }
 
 export const http = {

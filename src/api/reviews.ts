@@ -1,5 +1,5 @@
 /** Review rounds of deck versions (see server/api/reviews): submit, comment, decide, withdraw. */
-import { http, request } from './http';
+import { http, request, requestWithStatus } from './http';
 import type { Page, PersonRef, UnitSystem } from './types';
 
 export type ReviewState = 'awaiting-review' | 'approved' | 'sent-back' | 'withdrawn';
@@ -129,6 +129,37 @@ export async function listReviews(query: { view?: ReviewView; state?: ReviewStat
 
 export async function getReview(reviewId: number): Promise<{ review: ReviewDetail; summary: RefinedSummary }> {
   return http.get<{ review: ReviewDetail; summary: RefinedSummary }>(`/api/reviews/${reviewId}`);
+}
+
+/** A computation of the server's worker pools (server/compute/jobRecords.ts). */
+export interface ComputeJob {
+  id: number;
+  /** Where to poll it. */
+  url: string;
+  kind: 'refined' | 'package';
+  state: 'queued' | 'running' | 'done' | 'failed';
+  solverVersion: string;
+  requestedBy: PersonRef | null;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  runMs: number | null;
+  error: string | null;
+}
+
+/**
+ * The round at once: with its summary when the version's refined result is stored, or (202)
+ * with the refined job the summary waits for, to poll with `getJob`.
+ */
+export async function getReviewWithoutWaiting(reviewId: number): Promise<{ review: ReviewDetail; summary: RefinedSummary | null; job: ComputeJob | null }> {
+  const { status, body } = await requestWithStatus<{ review: ReviewDetail; summary: RefinedSummary | null; job?: ComputeJob }>(`/api/reviews/${reviewId}`, {
+    headers: { Prefer: 'respond-async' },
+  });
+  return { review: body.review, summary: status === 202 ? null : body.summary, job: status === 202 ? (body.job ?? null) : null };
+}
+
+export async function getJob(url: string): Promise<ComputeJob> {
+  return (await http.get<{ job: ComputeJob }>(url)).job;
 }
 
 export async function listReviewers(): Promise<Reviewer[]> {

@@ -2,7 +2,7 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import * as reviewsApi from '@/api/reviews';
-import type { CommentAnchor, RefinedSummary, ReviewDetail, ReviewState, ReviewSummary, ReviewView, Reviewer } from '@/api/reviews';
+import type { CommentAnchor, ComputeJob, RefinedSummary, ReviewDetail, ReviewState, ReviewSummary, ReviewView, Reviewer } from '@/api/reviews';
 import type { Page } from '@/api/types';
 import { appendNextPage } from '@/composables/usePagedList';
 
@@ -14,6 +14,13 @@ export const useReviewStore = defineStore('reviews', () => {
   const loadingList = ref(false);
   const current = ref<ReviewDetail | null>(null);
   const summary = ref<RefinedSummary | null>(null);
+  /** The refined job the open round's summary waits for (null when the summary is here). */
+  const job = ref<ComputeJob | null>(null);
+  /** A failure while following the job (the page offers to try again). */
+  const jobError = ref<unknown>(null);
+  let pollTimer: ReturnType<typeof setTimeout> | null = null;
+  /** Poll interval, ms. */
+  const POLL_MS = 1000;
   const reviewers = ref<Reviewer[]>([]);
 
   async function fetchList(view: ReviewView = listView.value, state: ReviewState | undefined = listState.value): Promise<void> {
@@ -42,10 +49,36 @@ export const useReviewStore = defineStore('reviews', () => {
     }
   }
 
+  function stopFollowing(): void {
+    if (pollTimer) clearTimeout(pollTimer);
+    pollTimer = null;
+  }
+
+  /** Opens a round without waiting for its refined run: the summary follows when its job is done. */
   async function open(reviewId: number): Promise<void> {
-    const { review, summary: s } = await reviewsApi.getReview(reviewId);
-    current.value = review;
-    summary.value = s;
+    stopFollowing();
+    jobError.value = null;
+    const answer = await reviewsApi.getReviewWithoutWaiting(reviewId);
+    current.value = answer.review;
+    summary.value = answer.summary;
+    job.value = answer.job;
+    if (answer.job) follow(reviewId, answer.job);
+  }
+
+  function follow(reviewId: number, j: ComputeJob): void {
+    pollTimer = setTimeout(async () => {
+      pollTimer = null;
+      if (current.value?.id !== reviewId) return;
+      try {
+        const now = await reviewsApi.getJob(j.url);
+        if (current.value?.id !== reviewId) return;
+        job.value = now;
+        if (now.state === 'done') await open(reviewId);
+        else if (now.state !== 'failed') follow(reviewId, now);
+      } catch (e) {
+        jobError.value = e;
+      }
+    }, POLL_MS);
   }
 
   async function reload(): Promise<void> {
@@ -84,5 +117,5 @@ export const useReviewStore = defineStore('reviews', () => {
     await reload();
   }
 
-  return { list, listPage, listView, listState, loadingList, current, summary, reviewers, fetchList, fetchMore, open, reload, fetchReviewers, submit, comment, recordRefined, decide, withdraw };
+  return { list, listPage, listView, listState, loadingList, current, summary, job, jobError, reviewers, fetchList, fetchMore, open, reload, stopFollowing, fetchReviewers, submit, comment, recordRefined, decide, withdraw };
 });
