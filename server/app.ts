@@ -115,8 +115,8 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/projects', projectRouter(db));
   api.use('/projects/:projectId/decks', projectDecksRouter(db, config));
   api.use('/decks', deckRouter(db, config));
-  api.use('/decks', versionJobsRouter(db));
-  api.use('/jobs', jobRouter(db));
+  api.use('/decks', versionJobsRouter(db, pool));
+  api.use('/jobs', jobRouter(db, pool));
   api.use('/admin/users', userRouter(db, config, mailer));
   api.use('/mail', mailRouter(db));
   api.use('/projects/:projectId/attachments', projectAttachmentsRouter(db, filesDir));

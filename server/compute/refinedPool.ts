@@ -23,7 +23,8 @@ import type { Config } from '../config/env.js';
 import { ApiError } from '../middleware/errors.js';
 import { modelSizeRefusal, refinedModelSize } from './modelSize.js';
 import { REFINED_SEGMENTS_PER_SPAN } from '../../shared/grillage/refinedFactors.js';
-import type { RefinedAnswer, RefinedTask, StartedMessage } from './refinedWorker.js';
+import type { ProgressMessage, RefinedAnswer, RefinedTask, StartedMessage } from './refinedWorker.js';
+import type { RefinedProgress } from '../../shared/grillage/refinedFactors.js';
 import type { JobMeta, JobRecorder } from './jobRecords.js';
 
 export interface RefinedPoolOptions {
@@ -80,6 +81,8 @@ interface Job {
   promise: Promise<RefinedAnswer>;
   /** Its row in compute_jobs (null when not recorded). */
   recordId: number | null;
+  /** The worker's last word on where the run is. */
+  progress: RefinedProgress | null;
 }
 
 /** Allowance for starting a worker (the tsx loader and the solver's modules), ms. */
@@ -88,6 +91,10 @@ const WORKER_START_MS = 30_000;
 const WORKER_NICE = 10;
 const LOADER = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
 const WORKER = new URL('./refinedWorker.ts', import.meta.url).href;
+
+function isProgress(m: unknown): m is ProgressMessage {
+  return typeof m === 'object' && m !== null && (m as ProgressMessage).kind === 'refined-progress';
+}
 
 function isStarted(m: unknown): m is StartedMessage {
   return typeof m === 'object' && m !== null && (m as StartedMessage).kind === 'refined-started';
@@ -106,6 +113,12 @@ export class RefinedPool {
   /** Records every job from now on (server/compute/jobRecords.ts). */
   recordJobs(recorder: JobRecorder): void {
     this.recorder = recorder;
+  }
+
+  /** Where the live job recorded as `recordId` is (null when it is not live here, or has said nothing yet). */
+  progressOf(recordId: number): RefinedProgress | null {
+    for (const job of this.jobs.values()) if (job.recordId === recordId) return job.progress;
+    return null;
   }
 
   /** The compute_jobs row of the job queued or running under `key` (null when none, or not recorded). */
@@ -127,6 +140,10 @@ export class RefinedPool {
     });
     this.pool.on('message', (m: unknown) => {
       if (isStarted(m)) this.started(m.jobId);
+      else if (isProgress(m)) {
+        const job = this.byId.get(m.jobId);
+        if (job) job.progress = m.progress;
+      }
     });
     // A worker lost with no task on it (e.g. at start-up) must not crash the server; jobs it
     // leaves waiting are ended by their start deadline.
@@ -169,7 +186,7 @@ export class RefinedPool {
       controller.abort();
     }, startMs);
     const recordId = meta && this.recorder ? this.recorder.queued({ kind: 'refined', ...meta }) : null;
-    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never), recordId };
+    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never), recordId, progress: null };
     const runMs = () => (job.startedAt === null ? null : performance.now() - job.startedAt);
     this.counts.jobs++;
     job.promise = this.pool

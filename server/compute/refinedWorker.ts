@@ -14,7 +14,7 @@
 import { parentPort } from 'node:worker_threads';
 import { assertDeck, DeckInputError } from '../../shared/deck/schema.js';
 import { GrillageMechanismError } from '../../shared/grillage/errors.js';
-import { computeRefinedFactors } from '../../shared/grillage/refinedFactors.js';
+import { computeRefinedFactors, type RefinedProgress } from '../../shared/grillage/refinedFactors.js';
 import type { FactorRow } from '../../shared/lrfd/index.js';
 import { SOLVER_VERSION } from '../../shared/version.js';
 import { encodeResultRow, ResultTooLargeError, type EncodedResult } from '../storage/resultEncoding.js';
@@ -40,10 +40,18 @@ export interface StartedMessage {
   jobId: number;
 }
 
-function solve(deckJson: string, checkConvergence: boolean): { data: unknown; rows: FactorRow[] | null; error?: string } {
+/** Where the job is (at most every PROGRESS_MS, and at each change of phase). */
+export interface ProgressMessage {
+  kind: 'refined-progress';
+  jobId: number;
+  progress: RefinedProgress;
+}
+const PROGRESS_MS = 250;
+
+function solve(deckJson: string, checkConvergence: boolean, onProgress: (p: RefinedProgress) => void): { data: unknown; rows: FactorRow[] | null; error?: string } {
   try {
     // The moment rows' convergence at twice the mesh density goes with the result: a reduction claim needs it.
-    const result = computeRefinedFactors(assertDeck(JSON.parse(deckJson)), { checkConvergence });
+    const result = computeRefinedFactors(assertDeck(JSON.parse(deckJson)), { checkConvergence, onProgress });
     return { data: result, rows: result.rows };
   } catch (e) {
     if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
@@ -62,6 +70,15 @@ function encode(data: unknown): EncodedResult | null {
 
 export default function refinedTask(task: RefinedTask): RefinedAnswer {
   parentPort?.postMessage({ kind: 'refined-started', jobId: task.jobId } satisfies StartedMessage);
-  const { data, rows, error } = solve(task.deckJson, task.checkConvergence === true);
+  let last = 0;
+  let phase = '';
+  const onProgress = (progress: RefinedProgress) => {
+    const now = performance.now();
+    if (progress.phase === phase && now - last < PROGRESS_MS) return;
+    last = now;
+    phase = progress.phase;
+    parentPort?.postMessage({ kind: 'refined-progress', jobId: task.jobId, progress } satisfies ProgressMessage);
+  };
+  const { data, rows, error } = solve(task.deckJson, task.checkConvergence === true, onProgress);
   return { encoded: encode(data), rows, ...(error !== undefined ? { error } : {}) };
 }

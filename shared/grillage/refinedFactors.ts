@@ -137,6 +137,15 @@ export interface RefinedOptions extends StationOptions {
    * row's change (`FactorRow.convergence`), the check a reduction claim needs (default false).
    */
   checkConvergence?: boolean;
+  /** Told as the run goes: the grillage built, each factor found, the convergence run begun. */
+  onProgress?: (progress: RefinedProgress) => void;
+}
+
+/** Where a refined run is: its phase, and in the search, factors found of all. */
+export interface RefinedProgress {
+  phase: 'model' | 'search' | 'convergence';
+  done: number;
+  total: number;
 }
 
 /** A moment row's factor may change by at most this share when the mesh density is doubled (common practice, no source). */
@@ -644,6 +653,8 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
   effects.forEach((e, i) => {
     if (!REFINED_EFFECTS.includes(e)) throw new DeckInputError(['refined', 'effects', i], `effect must be one of ${REFINED_EFFECTS.join(', ')}, not ${String(e)}`);
   });
+  const progress = options.onProgress ?? (() => undefined);
+  progress({ phase: 'model', done: 0, total: 1 });
   const model = options.model ?? buildGrillage(deck, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN, ...options.grillage });
   const rules = placementRulesForDeck(deck);
   const beams = girderBeams(model, deck.continuous);
@@ -651,9 +662,15 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
   const surfaces = influenceSurfaces(model, responses);
   const { stations, sampled } = sampleSurfaces(model, surfaces, rules, options, momentPoints);
   const beamEffects = new Map<string, number>();
-  const factors = targets.map((t) => factorOfTarget(t, searchTarget(t, sampled[t.surface], surfaces[t.surface], rules, beamEffects), model.girderCount));
+  const factors = targets.map((t, k) => {
+    progress({ phase: 'search', done: k, total: targets.length });
+    return factorOfTarget(t, searchTarget(t, sampled[t.surface], surfaces[t.surface], rules, beamEffects), model.girderCount);
+  });
   const { rows, sources: rowSources } = refinedRows(deck, factors, rules.laneCount);
-  if (options.checkConvergence && effects.includes('moment')) recordConvergence(deck, options, model.mesh.segmentsPerSpan, rows);
+  if (options.checkConvergence && effects.includes('moment')) {
+    progress({ phase: 'convergence', done: 0, total: 1 });
+    recordConvergence(deck, options, model.mesh.segmentsPerSpan, rows);
+  }
   return {
     deckName: deck.name,
     girderCount: model.girderCount,

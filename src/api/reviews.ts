@@ -145,6 +145,8 @@ export interface ComputeJob {
   finishedAt: string | null;
   runMs: number | null;
   error: string | null;
+  /** Where a running refined job is (null when not running, or not said yet). */
+  progress: { phase: 'model' | 'search' | 'convergence'; done: number; total: number } | null;
 }
 
 /**

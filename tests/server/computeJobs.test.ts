@@ -6,7 +6,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { demo, signIn, type Agent } from './helpers.js';
 import { makeWorkflowApp, otherFirm, send, userId, type WorkflowContext } from './workflowHelpers.js';
-import { quarryCreekDeck } from '../fixtures/decks.js';
+import { quarryCreekDeck, quarryCreekUs } from '../fixtures/decks.js';
+import { deckFromDisplay } from '../../shared/deck/units.js';
 import { createApp } from '../../server/app.js';
 import { computeJobs } from '../../server/db/schema.js';
 import { INTERRUPTED } from '../../server/compute/jobRecords.js';
@@ -136,6 +137,49 @@ describe('compute jobs as records', () => {
     const missing = await designer.get(`/api/decks/${deckId}/versions/9/jobs`);
     expect(missing.status).toBe(404);
     expect(missing.body.error.message).toContain('version 9');
+  });
+});
+
+describe('a running refined job says where it is', () => {
+  it('shows the phase and the factors found so far while a worker runs it', async () => {
+    const c = await makeWorkflowApp();
+    try {
+      const designer = await signIn(c.app, demo.designer);
+      // Quarry Creek widened to twelve girders at 8 ft, 30° skew: a run of about a second
+      const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
+      us.girders = { kind: 'uniform', count: 12, spacing: 8 };
+      us.supports = [{ skew: 30 }, { skew: 30 }];
+      const projectId = (await designer.get('/api/projects')).body.projects[0].id as number;
+      const created = await send.post(designer, `/api/projects/${projectId}/decks`, { deck: deckFromDisplay(us as never, 'US'), message: 'twelve girders' });
+      expect(created.status).toBe(201);
+      const round = await send.post(designer, '/api/reviews', { versionId: created.body.version.id, reviewerId: userId(c, demo.reviewer) });
+      const first = await designer.get(`/api/reviews/${round.body.review.id}`).set('Prefer', 'respond-async');
+      expect(first.status).toBe(202);
+      const seen: { phase: string; done: number; total: number }[] = [];
+      let state = first.body.job.state as string;
+      const end = Date.now() + 60_000;
+      while (state === 'queued' || state === 'running') {
+        if (Date.now() > end) throw new Error('the refined job never ended');
+        const res = await designer.get(first.headers.location);
+        state = res.body.job.state;
+        if (res.body.job.progress) seen.push(res.body.job.progress);
+        await new Promise((r) => setTimeout(r, 10));
+      }
+      expect(state).toBe('done');
+      const search = seen.filter((p) => p.phase === 'search');
+      expect(search.length).toBeGreaterThan(0);
+      for (const p of search) {
+        expect(p.done).toBeGreaterThanOrEqual(0);
+        expect(p.done).toBeLessThan(p.total);
+      }
+      // counts never go back within the search
+      search.forEach((p, i) => i > 0 && expect(p.done).toBeGreaterThanOrEqual(search[i - 1].done));
+      // a finished job carries no progress
+      const jobs = (await designer.get(`/api/decks/${created.body.deck.id}/versions/1/jobs`)).body.jobs as (JobView & { progress: unknown })[];
+      expect(jobs[0].progress).toBeNull();
+    } finally {
+      await c.close();
+    }
   });
 });
 

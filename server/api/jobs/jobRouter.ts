@@ -17,11 +17,17 @@ import { idParams } from '../../middleware/validate.js';
 import { versionParams } from '../decks/deckModel.js';
 import { findDeck } from '../decks/deckService.js';
 import { jobsOfVersion } from '../../compute/jobRecords.js';
+import type { RefinedProgress } from '../../../shared/grillage/refinedFactors.js';
 
 type JobRow = typeof computeJobs.$inferSelect;
 
-/** A job as the API shows it (requester by name, the address to poll). */
-export function jobViews(db: Db, jobs: JobRow[]) {
+/** Where a live refined job is, as its pool knows it (server/compute/refinedPool.ts). */
+export interface ProgressSource {
+  progressOf(recordId: number): RefinedProgress | null;
+}
+
+/** A job as the API shows it (requester by name, the address to poll, where a live refined run is). */
+export function jobViews(db: Db, jobs: JobRow[], live?: ProgressSource) {
   const ids = [...new Set(jobs.map((j) => j.requestedBy).filter((id): id is number => id !== null))];
   const names = new Map(ids.length ? db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)).all().map((u) => [u.id, u.name]) : []);
   return jobs.map((j) => ({
@@ -36,6 +42,7 @@ export function jobViews(db: Db, jobs: JobRow[]) {
     finishedAt: j.finishedAt,
     runMs: j.runMs,
     error: j.error,
+    progress: j.state === 'running' && j.kind === 'refined' ? (live?.progressOf(j.id) ?? null) : null,
   }));
 }
 export type JobView = ReturnType<typeof jobViews>[number];
@@ -54,15 +61,15 @@ export function findJob(db: Db, firmId: number, jobId: number): JobRow {
   return row.j;
 }
 
-export function jobRouter(db: Db): Router {
+export function jobRouter(db: Db, live: ProgressSource): Router {
   const r = Router();
   r.get('/:jobId', allow('project:read'), validate({ params: idParams('jobId') }), (req, res) => {
-    res.json({ job: jobViews(db, [findJob(db, req.user!.firmId, res.locals.params.jobId)])[0] });
+    res.json({ job: jobViews(db, [findJob(db, req.user!.firmId, res.locals.params.jobId)], live)[0] });
   });
   return r;
 }
 
-export function versionJobsRouter(db: Db): Router {
+export function versionJobsRouter(db: Db, live: ProgressSource): Router {
   const r = Router();
   r.get('/:deckId/versions/:number/jobs', allow('project:read'), validate({ params: versionParams }), (req, res) => {
     const { deckId, number } = res.locals.params as { deckId: number; number: number };
@@ -73,7 +80,7 @@ export function versionJobsRouter(db: Db): Router {
       .where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number)))
       .get();
     if (!v) throw ApiError.notFound(`version ${number} of deck ${deckId}`);
-    res.json({ jobs: jobViews(db, jobsOfVersion(db, v.id)) });
+    res.json({ jobs: jobViews(db, jobsOfVersion(db, v.id), live) });
   });
   return r;
 }

@@ -53,7 +53,7 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: Refin
     if (/\brespond-async\b/i.test(req.get('Prefer') ?? '')) {
       const jobId = refinedJobPending(db, pool, v, req.user!.id);
       if (jobId !== null) {
-        const job = jobViews(db, [findJob(db, req.user!.firmId, jobId)])[0];
+        const job = jobViews(db, [findJob(db, req.user!.firmId, jobId)], pool)[0];
         res.status(202).location(job.url).json({ review, summary: null, job });
         return;
       }
