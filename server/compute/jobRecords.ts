@@ -17,6 +17,8 @@ export interface JobMeta {
   versionId: number;
   /** The user whose request started the job (null when none is known). */
   requestedBy: number | null;
+  /** The firm the version belongs to (for the per-firm limit; not stored, the version knows it). */
+  firmId?: number;
 }
 
 export interface JobRecorder {
@@ -40,7 +42,9 @@ export function databaseJobRecorder(db: Db, log: (line: string) => void = (l) =>
   };
   return {
     queued: (meta) =>
-      safely('queued', () => db.insert(computeJobs).values({ ...meta, solverVersion: SOLVER_VERSION }).returning({ id: computeJobs.id }).get().id),
+      safely('queued', () =>
+        db.insert(computeJobs).values({ kind: meta.kind, versionId: meta.versionId, requestedBy: meta.requestedBy, solverVersion: SOLVER_VERSION }).returning({ id: computeJobs.id }).get().id,
+      ),
     started: (id) => {
       safely('started', () => db.update(computeJobs).set({ state: 'running', startedAt: nowIso }).where(eq(computeJobs.id, id)).run());
     },

@@ -38,6 +38,10 @@ export interface RefinedPoolOptions {
   workerMemoryMb: number;
   /** Largest model accepted, nodes × girder lines. */
   maxNodeGirders: number;
+  /** Distinct jobs one user may have queued or running at once (joining a running job is free); default no limit. */
+  jobsPerUser?: number;
+  /** The same for all the users of one firm together; default no limit. */
+  jobsPerFirm?: number;
   /** Where a worker's failure outside any job is reported (default: console.error). */
   log?: (line: string) => void;
 }
@@ -58,6 +62,8 @@ export interface RefinedPoolStats {
   outOfMemory: number;
   refusedBusy: number;
   refusedTooLarge: number;
+  refusedOverUserLimit: number;
+  refusedOverFirmLimit: number;
 }
 
 /** The refined run of a deck was refused before queueing: its model is above the limit. */
@@ -83,6 +89,7 @@ interface Job {
   recordId: number | null;
   /** The worker's last word on where the run is. */
   progress: RefinedProgress | null;
+  meta: Omit<JobMeta, 'kind'> | undefined;
 }
 
 /** Allowance for starting a worker (the tsx loader and the solver's modules), ms. */
@@ -107,7 +114,7 @@ export class RefinedPool {
   private nextId = 1;
   /** Mean run time of recent jobs, ms (for Retry-After). */
   private meanMs = 5000;
-  private readonly counts = { jobs: 0, shared: 0, completed: 0, failed: 0, timedOut: 0, outOfMemory: 0, refusedBusy: 0, refusedTooLarge: 0 };
+  private readonly counts = { jobs: 0, shared: 0, completed: 0, failed: 0, timedOut: 0, outOfMemory: 0, refusedBusy: 0, refusedTooLarge: 0, refusedOverUserLimit: 0, refusedOverFirmLimit: 0 };
   private recorder: JobRecorder | null = null;
 
   /** Records every job from now on (server/compute/jobRecords.ts). */
@@ -167,6 +174,8 @@ export class RefinedPool {
       this.counts.refusedTooLarge++;
       return Promise.reject(new RefinedModelTooLargeError(refusal));
     }
+    const limited = this.limitError(meta);
+    if (limited) return Promise.reject(limited);
     if (this.jobs.size >= this.options.threads + this.options.queue) {
       this.counts.refusedBusy++;
       return Promise.reject(this.busyError());
@@ -186,7 +195,7 @@ export class RefinedPool {
       controller.abort();
     }, startMs);
     const recordId = meta && this.recorder ? this.recorder.queued({ kind: 'refined', ...meta }) : null;
-    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never), recordId, progress: null };
+    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never), recordId, progress: null, meta };
     const runMs = () => (job.startedAt === null ? null : performance.now() - job.startedAt);
     this.counts.jobs++;
     job.promise = this.pool
@@ -266,6 +275,38 @@ export class RefinedPool {
     return e instanceof Error ? e : new Error(String(e));
   }
 
+  /** 429 when the requester, or the requester's firm, already has as many distinct jobs as allowed. */
+  private limitError(meta: Omit<JobMeta, 'kind'> | undefined): ApiError | null {
+    if (!meta) return null;
+    const live = [...this.jobs.values()];
+    const retryAfter = String(Math.max(1, Math.ceil(this.meanMs / 1000)));
+    const mine = meta.requestedBy === null ? 0 : live.filter((j) => j.meta?.requestedBy === meta.requestedBy).length;
+    const perUser = this.options.jobsPerUser;
+    if (perUser !== undefined && meta.requestedBy !== null && mine >= perUser) {
+      this.counts.refusedOverUserLimit++;
+      return new ApiError(
+        429,
+        'refined_user_limit',
+        `You already have ${mine} refined (grillage) analyses queued or running, the most one user may have at once on this server (${perUser}). Try again when one of them is done (a version's jobs list them); an administrator can raise REFINED_JOBS_PER_USER.`,
+        [{ path: 'Retry-After', message: `${retryAfter} seconds` }],
+        { 'Retry-After': retryAfter },
+      );
+    }
+    const perFirm = this.options.jobsPerFirm;
+    const firms = meta.firmId === undefined ? 0 : live.filter((j) => j.meta?.firmId === meta.firmId).length;
+    if (perFirm !== undefined && meta.firmId !== undefined && firms >= perFirm) {
+      this.counts.refusedOverFirmLimit++;
+      return new ApiError(
+        429,
+        'refined_firm_limit',
+        `Your firm already has ${firms} refined (grillage) analyses queued or running, the most one firm may have at once on this server (${perFirm}). Try again when one of them is done; an administrator can raise REFINED_JOBS_PER_FIRM.`,
+        [{ path: 'Retry-After', message: `${retryAfter} seconds` }],
+        { 'Retry-After': retryAfter },
+      );
+    }
+    return null;
+  }
+
   private busyError(): ApiError {
     const running = [...this.jobs.values()].filter((j) => j.startedAt !== null).length;
     const waiting = this.jobs.size - running;
@@ -296,8 +337,12 @@ export class RefinedPool {
 }
 
 /** The pool the configuration describes. */
-export function refinedPoolFor(config: Pick<Config, 'refinedThreads' | 'refinedQueue' | 'refinedJobMs' | 'refinedWorkerMemoryMb' | 'refinedMaxNodeGirders'>): RefinedPool {
+export function refinedPoolFor(
+  config: Pick<Config, 'refinedThreads' | 'refinedQueue' | 'refinedJobMs' | 'refinedWorkerMemoryMb' | 'refinedMaxNodeGirders' | 'refinedJobsPerUser' | 'refinedJobsPerFirm'>,
+): RefinedPool {
   return new RefinedPool({
+    jobsPerUser: config.refinedJobsPerUser,
+    jobsPerFirm: config.refinedJobsPerFirm,
     threads: config.refinedThreads,
     queue: config.refinedQueue,
     jobMs: config.refinedJobMs,

@@ -103,6 +103,10 @@ const envSchema = z.object({
   REFINED_QUEUE: z.coerce.number().int('REFINED_QUEUE must be a whole number').min(0).max(1000).default(8),
   /** Heap cap of each refined-analysis worker, MB. */
   REFINED_WORKER_MEMORY_MB: z.coerce.number().int('REFINED_WORKER_MEMORY_MB must be a whole number').min(64).max(65536).default(1024),
+  /** Distinct refined runs one user may have queued or running at once (beyond that 429). */
+  REFINED_JOBS_PER_USER: z.coerce.number().int('REFINED_JOBS_PER_USER must be a whole number').min(1).max(1000).default(4),
+  /** The same for all the users of one firm together. */
+  REFINED_JOBS_PER_FIRM: z.coerce.number().int('REFINED_JOBS_PER_FIRM must be a whole number').min(1).max(1000).default(8),
   /** Worker threads that lay out calculation packages (server/compute/packagePool.ts). */
   PACKAGE_THREADS: z.coerce.number().int('PACKAGE_THREADS must be a whole number').min(1).max(16).default(1),
   /** Calculation packages that may wait for a thread beyond those being laid out. */
@@ -145,6 +149,8 @@ export interface Config {
   refinedQueue: number;
   refinedWorkerMemoryMb: number;
   refinedMaxNodeGirders: number;
+  refinedJobsPerUser: number;
+  refinedJobsPerFirm: number;
   /** The calculation-package pool (server/compute/packagePool.ts); its time and memory limits are the refined pool's. */
   packageThreads: number;
   packageQueue: number;
@@ -197,6 +203,8 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env, overrides: P
     refinedQueue: e.REFINED_QUEUE,
     refinedWorkerMemoryMb: e.REFINED_WORKER_MEMORY_MB,
     refinedMaxNodeGirders: e.REFINED_MAX_NODE_GIRDERS,
+    refinedJobsPerUser: e.REFINED_JOBS_PER_USER,
+    refinedJobsPerFirm: e.REFINED_JOBS_PER_FIRM,
     packageThreads: e.PACKAGE_THREADS,
     packageQueue: e.PACKAGE_QUEUE,
     ...overrides,

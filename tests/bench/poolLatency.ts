@@ -90,7 +90,7 @@ class Client {
 async function startServer(dir: string, port: number): Promise<ChildProcess> {
   const child = spawn(join(root, 'node_modules/.bin/tsx'), ['server/index.ts'], {
     cwd: root,
-    env: { ...process.env, NODE_ENV: 'development', HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: join(dir, 'bench.db'), LOG_REQUESTS: 'false', CLIENT_DIST: join(dir, 'none'), LOCAL_SMTP_PORT: '0', SEED_DEMO: 'true', DEMO_PASSWORD: 'deckshare-demo-1' },
+    env: { ...process.env, NODE_ENV: 'development', HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: join(dir, 'bench.db'), LOG_REQUESTS: 'false', CLIENT_DIST: join(dir, 'none'), LOCAL_SMTP_PORT: '0', SEED_DEMO: 'true', REFINED_JOBS_PER_USER: '100', REFINED_JOBS_PER_FIRM: '100', DEMO_PASSWORD: 'deckshare-demo-1' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   let log = '';

@@ -145,6 +145,44 @@ describe('the limits of the pool', () => {
     }
   });
 
+  it('limits the jobs one user, and one firm, may have at once: 429 with Retry-After and the setting to raise', async () => {
+    const c = await makeTestApp({ refinedThreads: 1, refinedJobsPerUser: 1, refinedJobsPerFirm: 2 });
+    try {
+      const designer = await signIn(c.app, demo.designer);
+      const reviewer = await signIn(c.app, demo.reviewer);
+      const admin = await signIn(c.app, demo.admin);
+      const a = await newDeck(designer, twelveGirderDeck('Limit deck A'));
+      const b = await newDeck(designer, twelveGirderDeck('Limit deck B'));
+      const d = await newDeck(designer, quarryCreekDeck());
+      const first = designer.get(`/api/reports/decks/${a.deckId}/versions/1/factors.csv`).then((r) => r);
+      await until('the first job to be queued', () => c.refinedPool.stats().jobs === 1);
+      // the same user, another version: over the per-user limit
+      const mine = await designer.get(`/api/reports/decks/${b.deckId}/versions/1/factors.csv`);
+      expect(mine.status).toBe(429);
+      expect(mine.body.error.code).toBe('refined_user_limit');
+      expect(mine.body.error.message).toContain('You already have 1 refined (grillage) analyses queued or running, the most one user may have at once on this server (1)');
+      expect(mine.body.error.message).toContain('REFINED_JOBS_PER_USER');
+      expect(Number(mine.headers['retry-after'])).toBeGreaterThanOrEqual(1);
+      // joining the job already running for a version is free
+      const joined = designer.get(`/api/reports/decks/${a.deckId}/versions/1/envelopes.csv`).then((r) => r);
+      // another user of the firm may queue one; a third job of the firm is over the firm's limit
+      const second = reviewer.get(`/api/reports/decks/${b.deckId}/versions/1/factors.csv`).then((r) => r);
+      await until('the second job to be queued', () => c.refinedPool.stats().jobs === 2);
+      const firm = await admin.get(`/api/reports/decks/${d.deckId}/versions/1/factors.csv`);
+      expect(firm.status).toBe(429);
+      expect(firm.body.error.code).toBe('refined_firm_limit');
+      expect(firm.body.error.message).toContain('Your firm already has 2 refined (grillage) analyses queued or running');
+      expect((await first).status).toBe(200);
+      expect((await joined).status).toBe(200);
+      expect((await second).status).toBe(200);
+      expect(c.refinedPool.stats()).toMatchObject({ jobs: 2, completed: 2, shared: 1, refusedOverUserLimit: 1, refusedOverFirmLimit: 1 });
+      // with the jobs done, the refused request goes through
+      expect((await admin.get(`/api/reports/decks/${d.deckId}/versions/1/factors.csv`)).status).toBe(200);
+    } finally {
+      await c.close();
+    }
+  });
+
   it('does not queue a deck above the model-size limit, and says why in the summary', async () => {
     const c = await makeWorkflowApp({ refinedMaxNodeGirders: 1000 });
     try {

@@ -13,7 +13,8 @@
  * Units: dimensionless factors (lanes per girder).
  */
 import type { Db } from '../../db/client.js';
-import type { DeckVersionRow } from '../../db/schema.js';
+import { decks, projects, type DeckVersionRow } from '../../db/schema.js';
+import { eq } from 'drizzle-orm';
 import type { FactorRow } from '../../../shared/lrfd/index.js';
 import { deckOf, storedResult } from './versionResults.js';
 import { RefinedModelTooLargeError, type RefinedPool } from '../../compute/refinedPool.js';
@@ -47,7 +48,8 @@ const jobKey = (v: DeckVersionRow) => `${v.id}|${SOLVER_VERSION}`;
 
 /** Computes the version's grillage result and stores it (once per version and solver version). */
 async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null): Promise<unknown> {
-  const answer = await pool.run(jobKey(v), deckOf(v), v.deckJson, { versionId: v.id, requestedBy });
+  const firm = db.select({ firmId: projects.firmId }).from(decks).innerJoin(projects, eq(projects.id, decks.projectId)).where(eq(decks.id, v.deckId)).get();
+  const answer = await pool.run(jobKey(v), deckOf(v), v.deckJson, { versionId: v.id, requestedBy, ...(firm ? { firmId: firm.firmId } : {}) });
   const data = answer.error !== undefined ? { error: answer.error } : { rows: answer.rows };
   // When another request stored it first (same version, method and solver version), theirs
   // is kept; a result too large to store (encoded null) serves this request only.
