@@ -73,9 +73,9 @@ export function refinedJobPending(db: Db, pool: RefinedPool, v: DeckVersionRow, 
 
 /**
  * The governing refined factor of each girder, effect and location (the largest over the
- * lane cases), or null with the reason when there is none.
+ * lane cases), or null with the reason when there is none. `requestedBy`: the user whose
+ * request this is (recorded with a job the call starts).
  */
-/** `requestedBy`: the user whose request this is (recorded with a job the call starts). */
 export async function refinedResultsOf(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null = null): Promise<RefinedResults> {
   const stored = storedResult(db, v.id, 'grillage');
   let data: unknown;
