@@ -99,6 +99,9 @@ const WORKER_NICE = 10;
 const LOADER = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
 const WORKER = new URL('./refinedWorker.ts', import.meta.url).href;
 
+/** "1 refined (grillage) analysis", "2 refined (grillage) analyses". */
+const analyses = (n: number) => `${n} refined (grillage) ${n === 1 ? 'analysis' : 'analyses'}`;
+
 function isProgress(m: unknown): m is ProgressMessage {
   return typeof m === 'object' && m !== null && (m as ProgressMessage).kind === 'refined-progress';
 }
@@ -287,7 +290,7 @@ export class RefinedPool {
       return new ApiError(
         429,
         'refined_user_limit',
-        `You already have ${mine} refined (grillage) analyses queued or running, the most one user may have at once on this server (${perUser}). Try again when one of them is done (a version's jobs list them); an administrator can raise REFINED_JOBS_PER_USER.`,
+        `You already have ${analyses(mine)} queued or running, the most one user may have at once on this server (${perUser}). Try again when one of them is done (a version's jobs list them); an administrator can raise REFINED_JOBS_PER_USER.`,
         [{ path: 'Retry-After', message: `${retryAfter} seconds` }],
         { 'Retry-After': retryAfter },
       );
@@ -299,7 +302,7 @@ export class RefinedPool {
       return new ApiError(
         429,
         'refined_firm_limit',
-        `Your firm already has ${firms} refined (grillage) analyses queued or running, the most one firm may have at once on this server (${perFirm}). Try again when one of them is done; an administrator can raise REFINED_JOBS_PER_FIRM.`,
+        `Your firm already has ${analyses(firms)} queued or running, the most one firm may have at once on this server (${perFirm}). Try again when one of them is done; an administrator can raise REFINED_JOBS_PER_FIRM.`,
         [{ path: 'Retry-After', message: `${retryAfter} seconds` }],
         { 'Retry-After': retryAfter },
       );

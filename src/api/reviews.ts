@@ -153,11 +153,20 @@ export interface ComputeJob {
  * The round at once: with its summary when the version's refined result is stored, or (202)
  * with the refined job the summary waits for, to poll with `getJob`.
  */
-export async function getReviewWithoutWaiting(reviewId: number): Promise<{ review: ReviewDetail; summary: RefinedSummary | null; job: ComputeJob | null }> {
-  const { status, body } = await requestWithStatus<{ review: ReviewDetail; summary: RefinedSummary | null; job?: ComputeJob }>(`/api/reviews/${reviewId}`, {
+/** Why the server could not start the refined run now (a limit, or a full pool). */
+export interface RefinedRefusal {
+  code: string;
+  message: string;
+  retryAfterSeconds: number | null;
+}
+
+export async function getReviewWithoutWaiting(
+  reviewId: number,
+): Promise<{ review: ReviewDetail; summary: RefinedSummary | null; job: ComputeJob | null; refusal: RefinedRefusal | null }> {
+  const { status, body } = await requestWithStatus<{ review: ReviewDetail; summary: RefinedSummary | null; job?: ComputeJob | null; refusal?: RefinedRefusal }>(`/api/reviews/${reviewId}`, {
     headers: { Prefer: 'respond-async' },
   });
-  return { review: body.review, summary: status === 202 ? null : body.summary, job: status === 202 ? (body.job ?? null) : null };
+  return { review: body.review, summary: status === 202 ? null : body.summary, job: status === 202 ? (body.job ?? null) : null, refusal: body.refusal ?? null };
 }
 
 export async function getJob(url: string): Promise<ComputeJob> {

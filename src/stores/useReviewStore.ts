@@ -2,7 +2,7 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import * as reviewsApi from '@/api/reviews';
-import type { CommentAnchor, ComputeJob, RefinedSummary, ReviewDetail, ReviewState, ReviewSummary, ReviewView, Reviewer } from '@/api/reviews';
+import type { CommentAnchor, ComputeJob, RefinedRefusal, RefinedSummary, ReviewDetail, ReviewState, ReviewSummary, ReviewView, Reviewer } from '@/api/reviews';
 import type { Page } from '@/api/types';
 import { appendNextPage } from '@/composables/usePagedList';
 
@@ -16,6 +16,8 @@ export const useReviewStore = defineStore('reviews', () => {
   const summary = ref<RefinedSummary | null>(null);
   /** The refined job the open round's summary waits for (null when the summary is here). */
   const job = ref<ComputeJob | null>(null);
+  /** Why the server could not start the refined run now (the page offers to try again). */
+  const refusal = ref<RefinedRefusal | null>(null);
   /** A failure while following the job (the page offers to try again). */
   const jobError = ref<unknown>(null);
   let pollTimer: ReturnType<typeof setTimeout> | null = null;
@@ -62,6 +64,7 @@ export const useReviewStore = defineStore('reviews', () => {
     current.value = answer.review;
     summary.value = answer.summary;
     job.value = answer.job;
+    refusal.value = answer.refusal;
     if (answer.job) follow(reviewId, answer.job);
   }
 
@@ -117,5 +120,5 @@ export const useReviewStore = defineStore('reviews', () => {
     await reload();
   }
 
-  return { list, listPage, listView, listState, loadingList, current, summary, job, jobError, reviewers, fetchList, fetchMore, open, reload, stopFollowing, fetchReviewers, submit, comment, recordRefined, decide, withdraw };
+  return { list, listPage, listView, listState, loadingList, current, summary, job, jobError, refusal, reviewers, fetchList, fetchMore, open, reload, stopFollowing, fetchReviewers, submit, comment, recordRefined, decide, withdraw };
 });

@@ -3,6 +3,7 @@
  * The review page opens a round without waiting for its refined run: the store asks with
  * `Prefer: respond-async` (RFC 7240), takes a 202's round and job, polls the job's address and
  * loads the summary when the job is done; a failed job stops the polling and keeps its reason;
+ * a run the server refuses now keeps its reason, with nothing to poll;
  * leaving the page stops it too. The fetch of the API is a stand-in.
  */
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
@@ -75,12 +76,26 @@ describe('following the refined job of a review round', () => {
     expect(fetchMock).toHaveBeenCalledTimes(1);
   });
 
+  it('keeps the server\'s refusal (a limit, or a full pool) where the summary would be, and polls nothing', async () => {
+    const refusal = { code: 'refined_user_limit', message: 'You already have 4 refined (grillage) analyses queued or running.', retryAfterSeconds: 2 };
+    fetchMock.mockResolvedValueOnce(json(200, { review, summary: null, job: null, refusal }));
+    const store = useReviewStore();
+    await store.open(7);
+    expect(store.current?.id).toBe(7);
+    expect(store.summary).toBeNull();
+    expect(store.job).toBeNull();
+    expect(store.refusal).toEqual(refusal);
+    await vi.advanceTimersByTimeAsync(5000);
+    expect(fetchMock).toHaveBeenCalledTimes(1);
+  });
+
   it('a round whose summary is stored is answered in full (200), with no job to follow', async () => {
     fetchMock.mockResolvedValueOnce(json(200, { review, summary }));
     const store = useReviewStore();
     await store.open(7);
     expect(store.summary).toEqual(summary);
     expect(store.job).toBeNull();
+    expect(store.refusal).toBeNull();
     await vi.advanceTimersByTimeAsync(5000);
     expect(fetchMock).toHaveBeenCalledTimes(1);
   });

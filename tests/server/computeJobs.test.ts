@@ -183,6 +183,41 @@ describe('a running refined job says where it is', () => {
   });
 });
 
+describe('a run the pool refuses now', () => {
+  it('a polling client still gets the round, with the refusal where the summary would be', async () => {
+    const c = await makeWorkflowApp({ refinedThreads: 1, refinedJobsPerUser: 1 });
+    try {
+      const designer = await signIn(c.app, demo.designer);
+      const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
+      us.girders = { kind: 'uniform', count: 12, spacing: 8 };
+      us.supports = [{ skew: 30 }, { skew: 30 }];
+      const projectId = (await designer.get('/api/projects')).body.projects[0].id as number;
+      const big = await send.post(designer, `/api/projects/${projectId}/decks`, { deck: deckFromDisplay(us as never, 'US'), message: 'twelve girders' });
+      const { versionId } = await newVersion(designer, 'second deck');
+      const round = await send.post(designer, '/api/reviews', { versionId, reviewerId: userId(c, demo.reviewer) });
+      // the designer's one allowed run is busy with the twelve-girder deck
+      const running = designer.get(`/api/reports/decks/${big.body.deck.id}/versions/1/factors.csv`).then((r) => r);
+      const end = Date.now() + 30_000;
+      while (c.refinedPool.stats().jobs === 0) {
+        if (Date.now() > end) throw new Error('the first job never reached the pool');
+        await new Promise((r) => setTimeout(r, 2));
+      }
+      const res = await designer.get(`/api/reviews/${round.body.review.id}`).set('Prefer', 'respond-async');
+      expect(res.status).toBe(200);
+      expect(res.body.review.id).toBe(round.body.review.id);
+      expect(res.body.summary).toBeNull();
+      expect(res.body.refusal.code).toBe('refined_user_limit');
+      expect(res.body.refusal.message).toContain('the most one user may have at once on this server (1)');
+      expect(res.body.refusal.retryAfterSeconds).toBeGreaterThanOrEqual(1);
+      // a client that waits is told with the status, as before
+      expect((await designer.get(`/api/reviews/${round.body.review.id}`)).status).toBe(429);
+      expect((await running).status).toBe(200);
+    } finally {
+      await c.close();
+    }
+  });
+});
+
 describe('a failed job keeps its reason', () => {
   it('a refined run stopped by the time limit is recorded failed with the message its requester got', async () => {
     // a limit of 1 ms: every refined run is stopped as soon as a worker starts it

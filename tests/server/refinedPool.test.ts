@@ -160,7 +160,7 @@ describe('the limits of the pool', () => {
       const mine = await designer.get(`/api/reports/decks/${b.deckId}/versions/1/factors.csv`);
       expect(mine.status).toBe(429);
       expect(mine.body.error.code).toBe('refined_user_limit');
-      expect(mine.body.error.message).toContain('You already have 1 refined (grillage) analyses queued or running, the most one user may have at once on this server (1)');
+      expect(mine.body.error.message).toContain('You already have 1 refined (grillage) analysis queued or running, the most one user may have at once on this server (1)');
       expect(mine.body.error.message).toContain('REFINED_JOBS_PER_USER');
       expect(Number(mine.headers['retry-after'])).toBeGreaterThanOrEqual(1);
       // joining the job already running for a version is free

@@ -20,6 +20,7 @@ import { commentBody, decisionBody, listQuery, refinedBody, statusQuery, submitB
 import { addComment, decide, deckReviewStatus, findRound, getReview, listReviewers, listReviews, recordRefinedDecision, submitForReview, withdrawReview, type ReviewDeps } from './reviewService.js';
 import { refinedSummaryOf } from './refinedSummary.js';
 import { refinedJobPending } from './refinedResults.js';
+import { ApiError } from '../../middleware/errors.js';
 import { findJob, jobViews } from '../jobs/jobRouter.js';
 import { findVersion } from './reviewService.js';
 import { assertResultsVisible } from '../training/withheldResults.js';
@@ -50,7 +51,8 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: Refin
     const v = findVersion(db, req.user!.firmId, round.versionId).v;
     // A client that prefers to poll (RFC 7240 `Prefer: respond-async`) gets the round at once
     // with 202 and the address of the refined job the summary waits for.
-    if (/\brespond-async\b/i.test(req.get('Prefer') ?? '')) {
+    const async = /\brespond-async\b/i.test(req.get('Prefer') ?? '');
+    if (async) {
       const jobId = refinedJobPending(db, pool, v, req.user!.id);
       if (jobId !== null) {
         const job = jobViews(db, [findJob(db, req.user!.firmId, jobId)], pool)[0];
@@ -58,7 +60,17 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: Refin
         return;
       }
     }
-    res.json({ review, summary: await refinedSummaryOf(db, pool, v, undefined, req.user!.id) });
+    let summary;
+    try {
+      summary = await refinedSummaryOf(db, pool, v, undefined, req.user!.id);
+    } catch (e) {
+      // The pool refused the run now (a limit, or full): that client still gets the round, with the reason where the summary would be.
+      if (!(async && e instanceof ApiError && (e.status === 429 || e.status === 503))) throw e;
+      const retryAfter = Number(e.headers?.['Retry-After']);
+      res.json({ review, summary: null, job: null, refusal: { code: e.code, message: e.message, retryAfterSeconds: Number.isFinite(retryAfter) ? retryAfter : null } });
+      return;
+    }
+    res.json({ review, summary });
   });
   r.post('/:reviewId/comments', allow('review:comment'), validate({ params: idParams('reviewId'), body: commentBody }), (req, res) => {
     res.status(201).json({ comment: addComment(deps, req.user!, res.locals.params.reviewId, res.locals.body) });
