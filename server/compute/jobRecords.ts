@@ -5,9 +5,9 @@
  * are marked failed with the reason, so none stays "running" for ever; asking for the result
  * again starts a new job. A record that cannot be written never fails the job itself.
  */
-import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../db/client.js';
-import { computeJobs } from '../db/schema.js';
+import { computeJobs, now } from '../db/schema.js';
 import { SOLVER_VERSION } from '../../shared/version.js';
 
 export type JobKind = (typeof computeJobs.$inferSelect)['kind'];
@@ -28,8 +28,6 @@ export interface JobRecorder {
   failed(id: number, error: string, runMs: number | null): void;
 }
 
-const nowIso = sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`;
-
 /** Records in the database; a failure to write is logged, never thrown into the job. */
 export function databaseJobRecorder(db: Db, log: (line: string) => void = (l) => console.error(l)): JobRecorder {
   const safely = <T>(what: string, f: () => T): T | null => {
@@ -46,13 +44,13 @@ export function databaseJobRecorder(db: Db, log: (line: string) => void = (l) =>
         db.insert(computeJobs).values({ kind: meta.kind, versionId: meta.versionId, requestedBy: meta.requestedBy, solverVersion: SOLVER_VERSION }).returning({ id: computeJobs.id }).get().id,
       ),
     started: (id) => {
-      safely('started', () => db.update(computeJobs).set({ state: 'running', startedAt: nowIso }).where(eq(computeJobs.id, id)).run());
+      safely('started', () => db.update(computeJobs).set({ state: 'running', startedAt: now }).where(eq(computeJobs.id, id)).run());
     },
     done: (id, runMs) => {
-      safely('done', () => db.update(computeJobs).set({ state: 'done', finishedAt: nowIso, runMs }).where(eq(computeJobs.id, id)).run());
+      safely('done', () => db.update(computeJobs).set({ state: 'done', finishedAt: now, runMs }).where(eq(computeJobs.id, id)).run());
     },
     failed: (id, error, runMs) => {
-      safely('failed', () => db.update(computeJobs).set({ state: 'failed', finishedAt: nowIso, runMs, error }).where(eq(computeJobs.id, id)).run());
+      safely('failed', () => db.update(computeJobs).set({ state: 'failed', finishedAt: now, runMs, error }).where(eq(computeJobs.id, id)).run());
     },
   };
 }
@@ -65,7 +63,7 @@ export const INTERRUPTED =
 export function failInterruptedJobs(db: Db): number {
   const r = db
     .update(computeJobs)
-    .set({ state: 'failed', finishedAt: nowIso, error: INTERRUPTED })
+    .set({ state: 'failed', finishedAt: now, error: INTERRUPTED })
     .where(inArray(computeJobs.state, ['queued', 'running']))
     .run();
   return r.changes;
@@ -73,5 +71,5 @@ export function failInterruptedJobs(db: Db): number {
 
 /** The jobs of one version, newest first (at most `limit`). */
 export function jobsOfVersion(db: Db, versionId: number, limit = 50) {
-  return db.select().from(computeJobs).where(and(eq(computeJobs.versionId, versionId))).orderBy(desc(computeJobs.id)).limit(limit).all();
+  return db.select().from(computeJobs).where(eq(computeJobs.versionId, versionId)).orderBy(desc(computeJobs.id)).limit(limit).all();
 }

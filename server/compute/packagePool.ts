@@ -6,11 +6,10 @@
  * - time: a package taking longer than `jobMs` is aborted and its request gets 503 saying so;
  * - memory: each worker's heap is capped (`workerMemoryMb`); a worker that runs out is
  *   reported (503) and replaced.
- * Workers load TypeScript through tsx's loader, as the refined pool's do.
+ * The threads are those of server/compute/workerPool.ts, as the refined pool's are.
  */
-import { createRequire } from 'node:module';
-import { pathToFileURL } from 'node:url';
-import { Piscina } from 'piscina';
+import type { Piscina } from 'piscina';
+import { tsxWorkerPool } from './workerPool.js';
 import type { Config } from '../config/env.js';
 import { ApiError } from '../middleware/errors.js';
 import type { ReportData } from '../reports/reportData.js';
@@ -37,7 +36,6 @@ export interface PackagePoolStats {
   refusedBusy: number;
 }
 
-const LOADER = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
 const WORKER = new URL('./packageWorker.ts', import.meta.url).href;
 /** Allowance for starting a worker (the tsx loader, pdfkit and the fonts), ms. */
 const WORKER_START_MS = 30_000;
@@ -55,18 +53,14 @@ export class PackagePool {
   }
 
   constructor(readonly options: PackagePoolOptions) {
-    this.pool = new Piscina<ReportData, Uint8Array>({
-      filename: WORKER,
-      minThreads: 0,
-      maxThreads: options.threads,
-      maxQueue: options.queue + options.threads,
-      idleTimeout: 300_000,
-      execArgv: ['--import', LOADER],
-      niceIncrement: 10,
-      resourceLimits: { maxOldGenerationSizeMb: options.workerMemoryMb },
+    this.pool = tsxWorkerPool<ReportData, Uint8Array>({
+      file: WORKER,
+      threads: options.threads,
+      queue: options.queue,
+      workerMemoryMb: options.workerMemoryMb,
+      log: options.log ?? ((line: string) => console.error(line)),
+      what: 'calculation-package',
     });
-    const log = options.log ?? ((line: string) => console.error(line));
-    this.pool.on('error', (e: unknown) => log(`calculation-package worker failed: ${e instanceof Error ? e.message : String(e)}`));
   }
 
   /** The PDF of `data`. ApiError 503 when the pool is full, the layout ran out of time or memory. */

@@ -11,13 +11,11 @@
  *   reported (503) and replaced;
  * - de-duplication: concurrent requests for the same key (version and solver version) share
  *   one job.
- * Workers load TypeScript through tsx's loader (resolved from node_modules), so the pool runs
- * the same under `tsx server/index.ts` and under vitest, whose transform does not reach
- * worker threads.
+ * The threads are those of server/compute/workerPool.ts (TypeScript through tsx's loader,
+ * below the request thread's priority, heap-capped).
  */
-import { createRequire } from 'node:module';
-import { pathToFileURL } from 'node:url';
-import { Piscina } from 'piscina';
+import type { Piscina } from 'piscina';
+import { tsxWorkerPool } from './workerPool.js';
 import type { Deck } from '../../shared/deck/schema.js';
 import type { Config } from '../config/env.js';
 import { ApiError } from '../middleware/errors.js';
@@ -94,9 +92,6 @@ interface Job {
 
 /** Allowance for starting a worker (the tsx loader and the solver's modules), ms. */
 const WORKER_START_MS = 30_000;
-/** Scheduling priority of the workers below the request thread (nice increment, Linux). */
-const WORKER_NICE = 10;
-const LOADER = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
 const WORKER = new URL('./refinedWorker.ts', import.meta.url).href;
 
 /** "1 refined (grillage) analysis", "2 refined (grillage) analyses". */
@@ -137,16 +132,15 @@ export class RefinedPool {
   }
 
   constructor(readonly options: RefinedPoolOptions) {
-    this.pool = new Piscina<RefinedTask, RefinedAnswer>({
-      filename: WORKER,
-      minThreads: 0,
-      maxThreads: options.threads,
-      maxQueue: options.queue + options.threads,
-      idleTimeout: 300_000,
-      execArgv: ['--import', LOADER],
-      // below the request thread in the scheduler's eyes (Linux; no effect elsewhere)
-      niceIncrement: WORKER_NICE,
-      resourceLimits: { maxOldGenerationSizeMb: options.workerMemoryMb },
+    // A worker lost with no task on it (e.g. at start-up) is logged; jobs it leaves waiting are
+    // ended by their start deadline.
+    this.pool = tsxWorkerPool<RefinedTask, RefinedAnswer>({
+      file: WORKER,
+      threads: options.threads,
+      queue: options.queue,
+      workerMemoryMb: options.workerMemoryMb,
+      log: options.log ?? ((line: string) => console.error(line)),
+      what: 'refined-analysis',
     });
     this.pool.on('message', (m: unknown) => {
       if (isStarted(m)) this.started(m.jobId);
@@ -155,10 +149,6 @@ export class RefinedPool {
         if (job) job.progress = m.progress;
       }
     });
-    // A worker lost with no task on it (e.g. at start-up) must not crash the server; jobs it
-    // leaves waiting are ended by their start deadline.
-    const log = options.log ?? ((line: string) => console.error(line));
-    this.pool.on('error', (e: unknown) => log(`refined-analysis worker failed: ${e instanceof Error ? e.message : String(e)}`));
   }
 
   /**
@@ -282,30 +272,31 @@ export class RefinedPool {
   private limitError(meta: Omit<JobMeta, 'kind'> | undefined): ApiError | null {
     if (!meta) return null;
     const live = [...this.jobs.values()];
-    const retryAfter = String(Math.max(1, Math.ceil(this.meanMs / 1000)));
-    const mine = meta.requestedBy === null ? 0 : live.filter((j) => j.meta?.requestedBy === meta.requestedBy).length;
+    const refusal = (code: string, message: string) => {
+      const retryAfter = String(Math.max(1, Math.ceil(this.meanMs / 1000)));
+      return new ApiError(429, code, message, [{ path: 'Retry-After', message: `${retryAfter} seconds` }], { 'Retry-After': retryAfter });
+    };
     const perUser = this.options.jobsPerUser;
-    if (perUser !== undefined && meta.requestedBy !== null && mine >= perUser) {
-      this.counts.refusedOverUserLimit++;
-      return new ApiError(
-        429,
-        'refined_user_limit',
-        `You already have ${analyses(mine)} queued or running, the most one user may have at once on this server (${perUser}). Try again when one of them is done (a version's jobs list them); an administrator can raise REFINED_JOBS_PER_USER.`,
-        [{ path: 'Retry-After', message: `${retryAfter} seconds` }],
-        { 'Retry-After': retryAfter },
-      );
+    if (perUser !== undefined && meta.requestedBy !== null) {
+      const mine = live.filter((j) => j.meta?.requestedBy === meta.requestedBy).length;
+      if (mine >= perUser) {
+        this.counts.refusedOverUserLimit++;
+        return refusal(
+          'refined_user_limit',
+          `You already have ${analyses(mine)} queued or running, the most one user may have at once on this server (${perUser}). Try again when one of them is done (a version's jobs list them); an administrator can raise REFINED_JOBS_PER_USER.`,
+        );
+      }
     }
     const perFirm = this.options.jobsPerFirm;
-    const firms = meta.firmId === undefined ? 0 : live.filter((j) => j.meta?.firmId === meta.firmId).length;
-    if (perFirm !== undefined && meta.firmId !== undefined && firms >= perFirm) {
-      this.counts.refusedOverFirmLimit++;
-      return new ApiError(
-        429,
-        'refined_firm_limit',
-        `Your firm already has ${analyses(firms)} queued or running, the most one firm may have at once on this server (${perFirm}). Try again when one of them is done; an administrator can raise REFINED_JOBS_PER_FIRM.`,
-        [{ path: 'Retry-After', message: `${retryAfter} seconds` }],
-        { 'Retry-After': retryAfter },
-      );
+    if (perFirm !== undefined && meta.firmId !== undefined) {
+      const firms = live.filter((j) => j.meta?.firmId === meta.firmId).length;
+      if (firms >= perFirm) {
+        this.counts.refusedOverFirmLimit++;
+        return refusal(
+          'refined_firm_limit',
+          `Your firm already has ${analyses(firms)} queued or running, the most one firm may have at once on this server (${perFirm}). Try again when one of them is done; an administrator can raise REFINED_JOBS_PER_FIRM.`,
+        );
+      }
     }
     return null;
   }

@@ -15,7 +15,8 @@ import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex 
 export const ROLES = ['admin', 'designer', 'reviewer', 'instructor', 'trainee'] as const;
 export type Role = (typeof ROLES)[number];
 
-const now = sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`;
+/** The current UTC time as ISO 8601 text, in SQL (column defaults and updates). */
+export const now = sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`;
 
 export const firms = sqliteTable('firms', {
   id: integer('id').primaryKey({ autoIncrement: true }),

@@ -10,7 +10,7 @@ import { decks, deckVersions, projects, reviewRounds, users } from '../db/schema
 import { ApiError } from '../middleware/errors.js';
 import type { Deck } from '../../shared/deck/schema.js';
 import type { CodeFactorResult, FactorRow } from '../../shared/lrfd/index.js';
-import { refinedResultsOf } from '../api/reviews/refinedResults.js';
+import { refinedResultsOf, type Requester } from '../api/reviews/refinedResults.js';
 import type { UnitSystem } from '../../shared/units.js';
 import { codeResultsOf, deckOf } from '../api/reviews/versionResults.js';
 import { refinedSummaryOf, type RefinedSummary } from '../api/reviews/refinedSummary.js';
@@ -44,8 +44,8 @@ function name(db: Db, id: number | null) {
   return db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, id)).get() ?? { name: '', email: '' };
 }
 
-/** `requestedBy`: the user asking (recorded with a refined job the call starts). */
-export async function reportData(db: Db, pool: RefinedPool, firmId: number, deckId: number, versionNumber: number, requestedBy: number | null = null): Promise<ReportData> {
+/** `requester`: the user asking (recorded with a refined job the call starts). */
+export async function reportData(db: Db, pool: RefinedPool, firmId: number, deckId: number, versionNumber: number, requester: Requester | null = null): Promise<ReportData> {
   const row = db
     .select({ v: deckVersions, d: decks, p: projects })
     .from(deckVersions)
@@ -60,7 +60,7 @@ export async function reportData(db: Db, pool: RefinedPool, firmId: number, deck
   const state: VersionReviewState = current ? current.state : 'in-progress';
   const code = codeResultsOf(db, row.v);
   const input = deckOf(row.v);
-  const refined = await refinedResultsOf(db, pool, row.v, requestedBy);
+  const refined = await refinedResultsOf(db, pool, row.v, requester);
   return {
     generatedAt: new Date().toISOString(),
     units: row.p.units,

@@ -29,7 +29,7 @@ export function reportRouter(db: Db, pool: RefinedPool, packages: PackagePool): 
   const reportOf = (req: Express.Request, res: Response) => {
     const { deckId, number } = res.locals.params as { deckId: number; number: number };
     assertVersionResultsVisible(db, req.user!, deckId, number);
-    return reportData(db, pool, req.user!.firmId, deckId, number, req.user!.id);
+    return reportData(db, pool, req.user!.firmId, deckId, number, req.user!);
   };
   const audit = (req: Express.Request, data: ReportData, what: string) =>
     recordAudit(db, { firmId: req.user!.firmId, projectId: data.project.id, actorId: req.user!.id, action: 'export', entityType: 'deck', entityId: data.deck.id, summary: `exported ${what} of version ${data.version.number} of deck “${data.deck.name}”` });

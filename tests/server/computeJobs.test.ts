@@ -27,9 +27,18 @@ interface JobView {
   error: string | null;
 }
 
+const firstProject = async (a: Agent) => (await a.get('/api/projects')).body.projects[0].id as number;
+
+/** Quarry Creek widened to twelve girders at 8 ft, 30° skew: a refined run of about a second. */
+function twelveGirderDeck() {
+  const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
+  us.girders = { kind: 'uniform', count: 12, spacing: 8 };
+  us.supports = [{ skew: 30 }, { skew: 30 }];
+  return deckFromDisplay(us as never, 'US');
+}
+
 async function newVersion(a: Agent, message: string): Promise<{ deckId: number; versionId: number }> {
-  const projectId = (await a.get('/api/projects')).body.projects[0].id as number;
-  const created = await send.post(a, `/api/projects/${projectId}/decks`, { deck: quarryCreekDeck(), message });
+  const created = await send.post(a, `/api/projects/${await firstProject(a)}/decks`, { deck: quarryCreekDeck(), message });
   expect(created.status).toBe(201);
   return { deckId: created.body.deck.id, versionId: created.body.version.id };
 }
@@ -145,12 +154,7 @@ describe('a running refined job says where it is', () => {
     const c = await makeWorkflowApp();
     try {
       const designer = await signIn(c.app, demo.designer);
-      // Quarry Creek widened to twelve girders at 8 ft, 30° skew: a run of about a second
-      const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
-      us.girders = { kind: 'uniform', count: 12, spacing: 8 };
-      us.supports = [{ skew: 30 }, { skew: 30 }];
-      const projectId = (await designer.get('/api/projects')).body.projects[0].id as number;
-      const created = await send.post(designer, `/api/projects/${projectId}/decks`, { deck: deckFromDisplay(us as never, 'US'), message: 'twelve girders' });
+      const created = await send.post(designer, `/api/projects/${await firstProject(designer)}/decks`, { deck: twelveGirderDeck(), message: 'twelve girders' });
       expect(created.status).toBe(201);
       const round = await send.post(designer, '/api/reviews', { versionId: created.body.version.id, reviewerId: userId(c, demo.reviewer) });
       const first = await designer.get(`/api/reviews/${round.body.review.id}`).set('Prefer', 'respond-async');
@@ -188,11 +192,7 @@ describe('a run the pool refuses now', () => {
     const c = await makeWorkflowApp({ refinedThreads: 1, refinedJobsPerUser: 1 });
     try {
       const designer = await signIn(c.app, demo.designer);
-      const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
-      us.girders = { kind: 'uniform', count: 12, spacing: 8 };
-      us.supports = [{ skew: 30 }, { skew: 30 }];
-      const projectId = (await designer.get('/api/projects')).body.projects[0].id as number;
-      const big = await send.post(designer, `/api/projects/${projectId}/decks`, { deck: deckFromDisplay(us as never, 'US'), message: 'twelve girders' });
+      const big = await send.post(designer, `/api/projects/${await firstProject(designer)}/decks`, { deck: twelveGirderDeck(), message: 'twelve girders' });
       const { versionId } = await newVersion(designer, 'second deck');
       const round = await send.post(designer, '/api/reviews', { versionId, reviewerId: userId(c, demo.reviewer) });
       // the designer's one allowed run is busy with the twelve-girder deck

@@ -13,8 +13,7 @@
  * Units: dimensionless factors (lanes per girder).
  */
 import type { Db } from '../../db/client.js';
-import { decks, projects, type DeckVersionRow } from '../../db/schema.js';
-import { eq } from 'drizzle-orm';
+import type { DeckVersionRow } from '../../db/schema.js';
 import type { FactorRow } from '../../../shared/lrfd/index.js';
 import { deckOf, storedResult } from './versionResults.js';
 import { RefinedModelTooLargeError, type RefinedPool } from '../../compute/refinedPool.js';
@@ -46,10 +45,15 @@ function rowsOf(data: unknown): FactorRow[] | null {
 
 const jobKey = (v: DeckVersionRow) => `${v.id}|${SOLVER_VERSION}`;
 
+/** The user a request is for: recorded with the job it starts, and counted in the pool's per-user and per-firm limits. */
+export interface Requester {
+  id: number;
+  firmId: number;
+}
+
 /** Computes the version's grillage result and stores it (once per version and solver version). */
-async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null): Promise<unknown> {
-  const firm = db.select({ firmId: projects.firmId }).from(decks).innerJoin(projects, eq(projects.id, decks.projectId)).where(eq(decks.id, v.deckId)).get();
-  const answer = await pool.run(jobKey(v), deckOf(v), v.deckJson, { versionId: v.id, requestedBy, ...(firm ? { firmId: firm.firmId } : {}) });
+async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow, requester: Requester | null): Promise<unknown> {
+  const answer = await pool.run(jobKey(v), deckOf(v), v.deckJson, { versionId: v.id, requestedBy: requester?.id ?? null, ...(requester ? { firmId: requester.firmId } : {}) });
   const data = answer.error !== undefined ? { error: answer.error } : { rows: answer.rows };
   // When another request stored it first (same version, method and solver version), theirs
   // is kept; a result too large to store (encoded null) serves this request only.
@@ -57,38 +61,39 @@ async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow, req
   return data;
 }
 
-/**
- * For a client that would rather poll than wait: when the version's grillage result is not
- * stored yet, starts (or joins) its job and returns the job's compute_jobs id, without
- * waiting; the job stores the result when it ends. Null when the result is stored already, or
- * when the pool refused the job at once (too large, or full) — the caller then answers as
- * usual, and the waiting path gives the reason.
- */
-export function refinedJobPending(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null): number | null {
-  if (storedResult(db, v.id, 'grillage')) return null;
-  // the job records its own failure; nobody awaits this promise
-  computeAndStore(db, pool, v, requestedBy).catch(() => undefined);
-  return pool.recordOf(jobKey(v));
-}
-
-/**
- * The governing refined factor of each girder, effect and location (the largest over the
- * lane cases), or null with the reason when there is none. `requestedBy`: the user whose
- * request this is (recorded with a job the call starts).
- */
-export async function refinedResultsOf(db: Db, pool: RefinedPool, v: DeckVersionRow, requestedBy: number | null = null): Promise<RefinedResults> {
-  const stored = storedResult(db, v.id, 'grillage');
-  let data: unknown;
-  try {
-    data = stored ? stored.data : await computeAndStore(db, pool, v, requestedBy);
-  } catch (e) {
-    if (!(e instanceof RefinedModelTooLargeError)) throw e;
-    return { factors: null, rows: null, source: 'grillage not run (model-size limit of this server)', note: e.message };
-  }
-  const source = `grillage stored with the version, solver ${stored ? stored.solverVersion : SOLVER_VERSION}`;
+/** The rows and the governing factor of each girder from a grillage result (stored or just computed). */
+function resultsOf(data: unknown, solverVersion: string): RefinedResults {
+  const source = `grillage stored with the version, solver ${solverVersion}`;
   const error = typeof data === 'object' && data !== null && typeof (data as { error?: unknown }).error === 'string' ? (data as { error: string }).error : undefined;
   if (error !== undefined) return { factors: null, rows: null, source, note: `The grillage could not be built for this version: ${error}` };
   const rows = rowsOf(data);
   if (!rows || rows.length === 0) return { factors: null, rows: null, source, note: 'The stored grillage result holds no factor rows that can be compared.' };
   return { factors: governingPerGirder(rows), rows, source, note: '' };
+}
+
+/**
+ * The version's refined results, started once: `results` settles with them (at once when they
+ * are stored), and `jobId` is the compute_jobs row of the pool's job they wait for (null when
+ * stored, or when the pool refused the job, whose reason `results` then rejects with). A
+ * client that would rather poll than wait answers with the job while it runs.
+ */
+export function startRefinedResults(db: Db, pool: RefinedPool, v: DeckVersionRow, requester: Requester | null = null): { jobId: number | null; results: Promise<RefinedResults> } {
+  const stored = storedResult(db, v.id, 'grillage');
+  if (stored) return { jobId: null, results: Promise.resolve(resultsOf(stored.data, stored.solverVersion)) };
+  const results = computeAndStore(db, pool, v, requester).then(
+    (data) => resultsOf(data, SOLVER_VERSION),
+    (e: unknown): RefinedResults => {
+      if (!(e instanceof RefinedModelTooLargeError)) throw e;
+      return { factors: null, rows: null, source: 'grillage not run (model-size limit of this server)', note: e.message };
+    },
+  );
+  return { jobId: pool.recordOf(jobKey(v)), results };
+}
+
+/**
+ * The governing refined factor of each girder, effect and location (the largest over the
+ * lane cases), or null with the reason when there is none.
+ */
+export async function refinedResultsOf(db: Db, pool: RefinedPool, v: DeckVersionRow, requester: Requester | null = null): Promise<RefinedResults> {
+  return startRefinedResults(db, pool, v, requester).results;
 }

@@ -18,7 +18,7 @@ import type { DeckVersionRow } from '../../db/schema.js';
 import type { Finding } from '../../../shared/lrfd/findings.js';
 import type { CodeFactorResult, FactorEffect, FactorRow, GirderKind } from '../../../shared/lrfd/index.js';
 import { codeResultsOf, deckOf } from './versionResults.js';
-import { refinedResultsOf, type RefinedResults } from './refinedResults.js';
+import { refinedResultsOf, type RefinedResults, type Requester } from './refinedResults.js';
 import type { RefinedPool } from '../../compute/refinedPool.js';
 import { perLaneMaxMoment } from '../../reports/envelopes.js';
 import { codeFactorForGirder, isRatioEffect, largestClaimableReduction, momentReductionTable, type MomentReduction, type RatioEffect } from '../../../shared/review/reductions.js';
@@ -101,7 +101,7 @@ function skewWords(skews: number[]): string {
 }
 
 /** The summary of version `v`; `refined` when the caller already has the version's refined results. */
-export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersionRow, refinedKnown?: RefinedResults, requestedBy: number | null = null): Promise<RefinedSummary> {
+export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersionRow, refinedKnown?: RefinedResults, requester: Requester | null = null): Promise<RefinedSummary> {
   const { result: code, solverVersion, source } = codeResultsOf(db, v);
   const deck = deckOf(v);
   const count = code.derived.girderCount;
@@ -124,7 +124,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
     });
   }
 
-  const refined = refinedKnown ?? (await refinedResultsOf(db, pool, v, requestedBy));
+  const refined = refinedKnown ?? (await refinedResultsOf(db, pool, v, requester));
   const ratios: RatioRow[] = [];
   if (refined.factors) {
     for (const f of refined.factors) {

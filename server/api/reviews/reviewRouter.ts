@@ -19,7 +19,7 @@ import type { Mailer } from '../../mail/mailer.js';
 import { commentBody, decisionBody, listQuery, refinedBody, statusQuery, submitBody } from './reviewModel.js';
 import { addComment, decide, deckReviewStatus, findRound, getReview, listReviewers, listReviews, recordRefinedDecision, submitForReview, withdrawReview, type ReviewDeps } from './reviewService.js';
 import { refinedSummaryOf } from './refinedSummary.js';
-import { refinedJobPending } from './refinedResults.js';
+import { startRefinedResults } from './refinedResults.js';
 import { ApiError } from '../../middleware/errors.js';
 import { findJob, jobViews } from '../jobs/jobRouter.js';
 import { findVersion } from './reviewService.js';
@@ -52,17 +52,17 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: Refin
     // A client that prefers to poll (RFC 7240 `Prefer: respond-async`) gets the round at once
     // with 202 and the address of the refined job the summary waits for.
     const async = /\brespond-async\b/i.test(req.get('Prefer') ?? '');
-    if (async) {
-      const jobId = refinedJobPending(db, pool, v, req.user!.id);
-      if (jobId !== null) {
-        const job = jobViews(db, [findJob(db, req.user!.firmId, jobId)], pool)[0];
-        res.status(202).location(job.url).json({ review, summary: null, job });
-        return;
-      }
+    const refined = startRefinedResults(db, pool, v, req.user!);
+    if (async && refined.jobId !== null) {
+      // the job records its own outcome and stores the result; nobody waits for it here
+      refined.results.catch(() => undefined);
+      const job = jobViews(db, [findJob(db, req.user!.firmId, refined.jobId)], pool)[0];
+      res.status(202).location(job.url).json({ review, summary: null, job });
+      return;
     }
     let summary;
     try {
-      summary = await refinedSummaryOf(db, pool, v, undefined, req.user!.id);
+      summary = await refinedSummaryOf(db, pool, v, await refined.results);
     } catch (e) {
       // The pool refused the run now (a limit, or full): that client still gets the round, with the reason where the summary would be.
       if (!(async && e instanceof ApiError && (e.status === 429 || e.status === 503))) throw e;
