@@ -1,7 +1,7 @@
 /**
  * The jobs of the worker pools as rows of `compute_jobs` (server/db/schema.ts): queued when a
  * pool accepts one, running when a worker starts it, done or failed (with the reason its
- * requester was given) when it ends. At start-up, jobs a stopped server left queued or running
+ * requester was given) when it ends, or cancelled (with who cancelled it) when a user stops it. At start-up, jobs a stopped server left queued or running
  * are marked failed with the reason, so none stays "running" for ever; asking for the result
  * again starts a new job. A record that cannot be written never fails the job itself.
  */
@@ -26,6 +26,7 @@ export interface JobRecorder {
   started(id: number): void;
   done(id: number, runMs: number | null): void;
   failed(id: number, error: string, runMs: number | null): void;
+  cancelled(id: number, reason: string, runMs: number | null): void;
 }
 
 /** Records in the database; a failure to write is logged, never thrown into the job. */
@@ -51,6 +52,9 @@ export function databaseJobRecorder(db: Db, log: (line: string) => void = (l) =>
     },
     failed: (id, error, runMs) => {
       safely('failed', () => db.update(computeJobs).set({ state: 'failed', finishedAt: now, runMs, error }).where(eq(computeJobs.id, id)).run());
+    },
+    cancelled: (id, reason, runMs) => {
+      safely('cancelled', () => db.update(computeJobs).set({ state: 'cancelled', finishedAt: now, runMs, error: reason }).where(eq(computeJobs.id, id)).run());
     },
   };
 }

@@ -3,14 +3,16 @@
  * threads (piscina) so that no request waits behind one, with limits that keep one request
  * from exhausting the server:
  * - model size: a deck whose grillage would exceed `maxNodeGirders` (nodes × girder lines,
- *   server/compute/modelSize.ts) is refused before anything is queued (422);
+ *   server/compute/modelSize.ts) is refused before anything is queued (413);
  * - queue: at most `threads + queue` distinct jobs at once; beyond that 503 with Retry-After;
  * - time: a job running longer than `jobMs` is aborted (piscina terminates its worker and
  *   starts another when needed) and its requests get 503 saying so;
  * - memory: each worker's heap is capped (`workerMemoryMb`); a worker that runs out is
  *   reported (503) and replaced;
  * - de-duplication: concurrent requests for the same key (version and solver version) share
- *   one job.
+ *   one job;
+ * - cancel: a queued or running job can be cancelled (`cancel`); every request waiting for it
+ *   gets 409 saying who cancelled it, and nothing of it is stored.
  * The threads are those of server/compute/workerPool.ts (TypeScript through tsx's loader,
  * below the request thread's priority, heap-capped).
  */
@@ -56,6 +58,7 @@ export interface RefinedPoolStats {
   shared: number;
   completed: number;
   failed: number;
+  cancelled: number;
   timedOut: number;
   outOfMemory: number;
   refusedBusy: number;
@@ -67,7 +70,7 @@ export interface RefinedPoolStats {
 /** The refined run of a deck was refused before queueing: its model is above the limit. */
 export class RefinedModelTooLargeError extends ApiError {
   constructor(message: string) {
-    super(422, 'refined_model_too_large', `The refined (grillage) analysis was not run: ${message}.`, [{ path: 'deck', message }]);
+    super(413, 'refined_model_too_large', `The refined (grillage) analysis was not run: ${message}.`, [{ path: 'deck', message }]);
     this.name = 'RefinedModelTooLargeError';
   }
 }
@@ -82,6 +85,8 @@ interface Job {
   startTimer: NodeJS.Timeout;
   timedOut: boolean;
   notStarted: boolean;
+  /** Who cancelled the job (null while it is not cancelled). */
+  cancelledBy: string | null;
   promise: Promise<RefinedAnswer>;
   /** Its row in compute_jobs (null when not recorded). */
   recordId: number | null;
@@ -112,7 +117,7 @@ export class RefinedPool {
   private nextId = 1;
   /** Mean run time of recent jobs, ms (for Retry-After). */
   private meanMs = 5000;
-  private readonly counts = { jobs: 0, shared: 0, completed: 0, failed: 0, timedOut: 0, outOfMemory: 0, refusedBusy: 0, refusedTooLarge: 0, refusedOverUserLimit: 0, refusedOverFirmLimit: 0 };
+  private readonly counts = { jobs: 0, shared: 0, completed: 0, failed: 0, cancelled: 0, timedOut: 0, outOfMemory: 0, refusedBusy: 0, refusedTooLarge: 0, refusedOverUserLimit: 0, refusedOverFirmLimit: 0 };
   private recorder: JobRecorder | null = null;
 
   /** Records every job from now on (server/compute/jobRecords.ts). */
@@ -124,6 +129,28 @@ export class RefinedPool {
   progressOf(recordId: number): RefinedProgress | null {
     for (const job of this.jobs.values()) if (job.recordId === recordId) return job.progress;
     return null;
+  }
+
+  /**
+   * Cancels the live job recorded as `recordId` on behalf of `byName`: it leaves the queue, or
+   * its worker is stopped; its record says so at once and every request waiting for it gets
+   * 409. False when no such job is queued or running here.
+   */
+  cancel(recordId: number, byName: string): boolean {
+    const job = [...this.jobs.values()].find((j) => j.recordId === recordId);
+    if (!job || job.cancelledBy !== null) return false;
+    job.cancelledBy = byName;
+    this.recorder?.cancelled(recordId, this.cancelledError(job).message, job.startedAt === null ? null : performance.now() - job.startedAt);
+    job.controller.abort();
+    return true;
+  }
+
+  private cancelledError(job: Job): ApiError {
+    return new ApiError(
+      409,
+      'refined_cancelled',
+      `The refined (grillage) analysis of this version was cancelled by ${job.cancelledBy} ${job.startedAt === null ? 'before it started' : 'while it ran'}; nothing of it was stored. Ask for it again (open the review, the package or the CSV) to run it anew.`,
+    );
   }
 
   /** The compute_jobs row of the job queued or running under `key` (null when none, or not recorded). */
@@ -188,7 +215,7 @@ export class RefinedPool {
       controller.abort();
     }, startMs);
     const recordId = meta && this.recorder ? this.recorder.queued({ kind: 'refined', ...meta }) : null;
-    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, promise: Promise.resolve(null as never), recordId, progress: null, meta };
+    const job: Job = { id, key, controller, startedAt: null, timer: null, startTimer, timedOut: false, notStarted: false, cancelledBy: null, promise: Promise.resolve(null as never), recordId, progress: null, meta };
     const runMs = () => (job.startedAt === null ? null : performance.now() - job.startedAt);
     this.counts.jobs++;
     job.promise = this.pool
@@ -205,7 +232,8 @@ export class RefinedPool {
         },
         (e: unknown) => {
           const error = this.failure(job, e);
-          if (job.recordId !== null) this.recorder?.failed(job.recordId, error.message, runMs());
+          // a cancelled job's record was written when it was cancelled
+          if (job.recordId !== null && job.cancelledBy === null) this.recorder?.failed(job.recordId, error.message, runMs());
           throw error;
         },
       )
@@ -237,6 +265,10 @@ export class RefinedPool {
 
   private failure(job: Job, e: unknown): Error {
     const seconds = (this.options.jobMs / 1000).toLocaleString('en-US');
+    if (job.cancelledBy !== null) {
+      this.counts.cancelled++;
+      return this.cancelledError(job);
+    }
     if (job.timedOut) {
       this.counts.timedOut++;
       return new ApiError(

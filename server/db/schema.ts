@@ -158,7 +158,7 @@ export const analysisResults = sqliteTable(
 );
 
 export const COMPUTE_JOB_KINDS = ['refined', 'package'] as const;
-export const COMPUTE_JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
+export const COMPUTE_JOB_STATES = ['queued', 'running', 'done', 'failed', 'cancelled'] as const;
 
 /**
  * Work sent to the server's worker pools (server/compute/): one row per job, written when it

@@ -3,9 +3,11 @@
  * - GET /decks/:deckId/versions/:number/package.pdf
  * - GET /decks/:deckId/versions/:number/factors.csv
  * - GET /decks/:deckId/versions/:number/envelopes.csv
- * Each download is recorded in the project's audit trail ("export").
+ * Each download is recorded in the project's audit trail ("export"). Each waits for the
+ * version's refined results; a client that would rather poll (`Prefer: respond-async`) gets
+ * 202 with the refined job while it runs (server/api/jobs/pendingJob.ts), then asks again.
  */
-import { Router, type Response } from 'express';
+import { Router, type Request, type Response } from 'express';
 import type { Db } from '../db/client.js';
 import { allow } from '../auth/passport.js';
 import { validate } from '../middleware/validate.js';
@@ -16,6 +18,9 @@ import { envelopesCsv, factorsCsv } from './csvExport.js';
 import { assertVersionResultsVisible } from '../api/training/withheldResults.js';
 import type { RefinedPool } from '../compute/refinedPool.js';
 import type { PackagePool } from '../compute/packagePool.js';
+import { findVersionByNumber } from '../api/decks/deckService.js';
+import { startRefinedResults } from '../api/reviews/refinedResults.js';
+import { answerWithJob, pendingJobView, prefersAsync } from '../api/jobs/pendingJob.js';
 
 function fileStem(data: ReportData): string {
   const clean = data.deck.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'deck';
@@ -31,10 +36,20 @@ export function reportRouter(db: Db, pool: RefinedPool, packages: PackagePool): 
     assertVersionResultsVisible(db, req.user!, deckId, number);
     return reportData(db, pool, req.user!.firmId, deckId, number, req.user!);
   };
+  /** With `Prefer: respond-async`, the refined job the version's results still wait for (answered 202), or null. */
+  const pendingJob = (req: Request, res: Response) => {
+    if (!prefersAsync(req)) return null;
+    const { deckId, number } = res.locals.params as { deckId: number; number: number };
+    assertVersionResultsVisible(db, req.user!, deckId, number);
+    const v = findVersionByNumber(db, req.user!.firmId, deckId, number);
+    return pendingJobView(db, pool, req.user!.firmId, startRefinedResults(db, pool, v, req.user!));
+  };
   const audit = (req: Express.Request, data: ReportData, what: string) =>
     recordAudit(db, { firmId: req.user!.firmId, projectId: data.project.id, actorId: req.user!.id, action: 'export', entityType: 'deck', entityId: data.deck.id, summary: `exported ${what} of version ${data.version.number} of deck “${data.deck.name}”` });
 
   r.get('/decks/:deckId/versions/:number/package.pdf', allow('report:export'), params, async (req, res) => {
+    const pending = pendingJob(req, res);
+    if (pending) return answerWithJob(res, pending);
     const data = await reportOf(req, res);
     // laid out on a worker thread (server/compute/packagePool.ts): the request thread only gathers the data
     const pdf = await packages.render(data, req.user!.id);
@@ -46,6 +61,8 @@ export function reportRouter(db: Db, pool: RefinedPool, packages: PackagePool): 
   });
 
   r.get('/decks/:deckId/versions/:number/factors.csv', allow('report:export'), params, async (req, res) => {
+    const pending = pendingJob(req, res);
+    if (pending) return answerWithJob(res, pending);
     const data = await reportOf(req, res);
     const text = factorsCsv(data);
     audit(req, data, 'the factor table (CSV)');
@@ -56,6 +73,8 @@ export function reportRouter(db: Db, pool: RefinedPool, packages: PackagePool): 
   });
 
   r.get('/decks/:deckId/versions/:number/envelopes.csv', allow('report:export'), params, async (req, res) => {
+    const pending = pendingJob(req, res);
+    if (pending) return answerWithJob(res, pending);
     const data = await reportOf(req, res);
     const text = envelopesCsv(data);
     audit(req, data, 'the girder envelopes (CSV)');

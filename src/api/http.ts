@@ -252,6 +252,57 @@ export async function requestWithStatus<T>(path: string, options: RequestOptions
   return { status: response.status, body: parsed as T };
 }
 
+/** A downloaded file: its bytes and the name the server gave it (Content-Disposition). */
+export interface DownloadedFile {
+  blob: Blob;
+  fileName: string | null;
+}
+
+/**
+ * Asks for a file (a PDF, a CSV). Resolves with the file, or with the JSON body of a 202 (the
+ * server answered with a job to follow instead). Throws ApiError for any failure, as `request`.
+ */
+export async function requestFile<T>(path: string, options: Pick<RequestOptions, 'headers' | 'signal'> = {}): Promise<{ status: 200; file: DownloadedFile } | { status: 202; body: T }> {
+  let response: Response;
+  try {
+    response = await fetch(path, { headers: { ...options.headers }, credentials: 'same-origin', signal: options.signal });
+  } catch (cause) {
+    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;
+    throw new ApiError(0, 'network_error', 'Could not reach the Deckshare server. Check your network connection and try again.');
+  }
+  if (!response.ok || response.status === 202) {
+    const text = await response.text().catch(() => '');
+    let parsed: unknown;
+    try {
+      parsed = text ? JSON.parse(text) : undefined;
+    } catch {
+      parsed = undefined;
+    }
+    if (response.status === 202) return { status: 202, body: parsed as T };
+    const error = errorFromResponse(response.status, parsed);
+    if (error.status === 401 || error.code === 'password_change_required') {
+      for (const listener of sessionListeners) listener(error);
+    }
+    throw error;
+  }
+  return { status: 200, file: { blob: await response.blob(), fileName: fileNameOf(response.headers.get('Content-Disposition') ?? '') } };
+}
+
+/** The file name of a Content-Disposition header (RFC 6266): `filename*=UTF-8''…` first, then `filename="…"` or a bare token. */
+export function fileNameOf(disposition: string): string | null {
+  const extended = /filename\*\s*=\s*UTF-8''([^;]+)/i.exec(disposition);
+  if (extended) {
+    try {
+      return decodeURIComponent(extended[1].trim());
+    } catch {
+      // a malformed escape: fall back to the plain name
+    }
+  }
+  const plain = /filename\s*=\s*(?:"((?:[^"\\]|\\.)*)"|([^;\s]+))/i.exec(disposition);
+  if (!plain) return null;
+  return plain[1] !== undefined ? plain[1].replace(/\\(.)/g, '$1') : plain[2];
+}
+
 export const http = {
   get: <T>(path: string, query?: RequestOptions['query'], signal?: AbortSignal) =>
     request<T>(path, { method: 'GET', query, signal }),

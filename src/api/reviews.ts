@@ -1,5 +1,5 @@
 /** Review rounds of deck versions (see server/api/reviews): submit, comment, decide, withdraw. */
-import { http, request, requestWithStatus } from './http';
+import { http, request, requestFile, requestWithStatus, type DownloadedFile } from './http';
 import type { Page, PersonRef, UnitSystem } from './types';
 
 export type ReviewState = 'awaiting-review' | 'approved' | 'sent-back' | 'withdrawn';
@@ -137,7 +137,7 @@ export interface ComputeJob {
   /** Where to poll it. */
   url: string;
   kind: 'refined' | 'package';
-  state: 'queued' | 'running' | 'done' | 'failed';
+  state: 'queued' | 'running' | 'done' | 'failed' | 'cancelled';
   solverVersion: string;
   requestedBy: PersonRef | null;
   createdAt: string;
@@ -171,6 +171,20 @@ export async function getReviewWithoutWaiting(
 
 export async function getJob(url: string): Promise<ComputeJob> {
   return (await http.get<{ job: ComputeJob }>(url)).job;
+}
+
+/** Stops a queued or running refined job (its requester, or an administrator); answers the cancelled job. */
+export async function cancelJob(job: Pick<ComputeJob, 'url'>): Promise<ComputeJob> {
+  return (await http.post<{ job: ComputeJob }>(`${job.url}/cancel`, {})).job;
+}
+
+/** A job that is still queued or running. */
+export const jobIsLive = (job: Pick<ComputeJob, 'state'>) => job.state === 'queued' || job.state === 'running';
+
+/** A report file of a version, or the refined job it waits for (the server answers 202 while that runs). */
+export async function requestReportFile(url: string): Promise<{ file: DownloadedFile; job: null } | { file: null; job: ComputeJob }> {
+  const answer = await requestFile<{ job: ComputeJob }>(url, { headers: { Prefer: 'respond-async' } });
+  return answer.status === 202 ? { file: null, job: answer.body.job } : { file: answer.file, job: null };
 }
 
 export async function listReviewers(): Promise<Reviewer[]> {

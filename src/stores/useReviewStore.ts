@@ -77,11 +77,19 @@ export const useReviewStore = defineStore('reviews', () => {
         if (current.value?.id !== reviewId) return;
         job.value = now;
         if (now.state === 'done') await open(reviewId);
-        else if (now.state !== 'failed') follow(reviewId, now);
+        else if (reviewsApi.jobIsLive(now)) follow(reviewId, now);
       } catch (e) {
         jobError.value = e;
       }
     }, POLL_MS);
+  }
+
+  /** Cancels the refined job the open round waits for; the card then says it was cancelled. */
+  async function cancelJob(): Promise<void> {
+    if (!job.value) return;
+    const cancelled = await reviewsApi.cancelJob(job.value);
+    stopFollowing();
+    job.value = cancelled;
   }
 
   async function reload(): Promise<void> {
@@ -120,5 +128,5 @@ export const useReviewStore = defineStore('reviews', () => {
     await reload();
   }
 
-  return { list, listPage, listView, listState, loadingList, current, summary, job, jobError, refusal, reviewers, fetchList, fetchMore, open, reload, stopFollowing, fetchReviewers, submit, comment, recordRefined, decide, withdraw };
+  return { list, listPage, listView, listState, loadingList, current, summary, job, jobError, refusal, reviewers, fetchList, fetchMore, open, reload, stopFollowing, cancelJob, fetchReviewers, submit, comment, recordRefined, decide, withdraw };
 });

@@ -46,3 +46,22 @@ describe('refined job card', () => {
     w.unmount();
   });
 });
+
+describe('cancelling from the refined job card', () => {
+  it('offers Cancel when allowed, and shows a cancelled job with its reason and Run it again', async () => {
+    const running = mount(RefinedJobProgress, { props: { job: job({}), error: null, canCancel: true } });
+    await running.get('[data-test="refined-job-cancel"]').trigger('click');
+    expect(running.emitted('cancel')).toHaveLength(1);
+    running.unmount();
+    const other = mount(RefinedJobProgress, { props: { job: job({}), error: null, canCancel: false } });
+    expect(other.find('[data-test="refined-job-cancel"]').exists()).toBe(false);
+    other.unmount();
+    const cancelled = mount(RefinedJobProgress, { props: { job: job({ state: 'cancelled', error: 'cancelled by Dana Okonkwo while it ran' }), error: null, canCancel: true } });
+    expect(cancelled.text()).toContain('was cancelled');
+    expect(cancelled.text()).toContain('cancelled by Dana Okonkwo while it ran');
+    expect(cancelled.find('[data-test="refined-job-cancel"]').exists()).toBe(false);
+    await cancelled.get('[data-test="refined-job-retry"]').trigger('click');
+    expect(cancelled.emitted('retry')).toHaveLength(1);
+    cancelled.unmount();
+  });
+});

@@ -3,13 +3,13 @@
  *  requester was given, and a restart marks the jobs a stopped server left unfinished as
  *  failed (none stays "running" for ever). Read through the API, firm by firm. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { eq } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import { demo, signIn, type Agent } from './helpers.js';
 import { makeWorkflowApp, otherFirm, send, userId, type WorkflowContext } from './workflowHelpers.js';
 import { quarryCreekDeck, quarryCreekUs } from '../fixtures/decks.js';
 import { deckFromDisplay } from '../../shared/deck/units.js';
 import { createApp } from '../../server/app.js';
-import { computeJobs } from '../../server/db/schema.js';
+import { analysisResults, computeJobs } from '../../server/db/schema.js';
 import { INTERRUPTED } from '../../server/compute/jobRecords.js';
 import { SOLVER_VERSION } from '../../shared/version.js';
 
@@ -237,3 +237,104 @@ describe('a failed job keeps its reason', () => {
     }
   });
 });
+
+/** Twenty girders at 8 ft over two continuous 110 ft spans at 30° skew: a refined run of several seconds, long enough to be cancelled. */
+function twentyGirderDeck() {
+  const us = structuredClone(quarryCreekUs) as unknown as Record<string, unknown>;
+  us.girders = { kind: 'uniform', count: 20, spacing: 8 };
+  us.spans = [{ length: 110 }, { length: 110 }];
+  us.continuous = true;
+  us.supports = [{ skew: 30 }, { skew: 30 }, { skew: 30 }];
+  return deckFromDisplay(us as never, 'US');
+}
+
+async function untilState(a: Agent, url: string, wanted: (s: string) => boolean): Promise<JobView> {
+  const end = Date.now() + 60_000;
+  for (;;) {
+    const job = (await a.get(url)).body.job as JobView;
+    if (wanted(job.state)) return job;
+    if (Date.now() > end) throw new Error(`job ${job.id} stayed ${job.state}`);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
+
+describe('cancelling a refined job', () => {
+  it('the user who asked stops a running and a queued job; waiting requests are told who cancelled it; nothing is stored and asking again runs it anew', async () => {
+    const c = await makeWorkflowApp({ refinedThreads: 1 });
+    try {
+      const designer = await signIn(c.app, demo.designer);
+      const reviewer = await signIn(c.app, demo.reviewer);
+      const project = await firstProject(designer);
+      const heavy = await send.post(designer, `/api/projects/${project}/decks`, { deck: twentyGirderDeck(), message: 'twenty girders' });
+      expect(heavy.status).toBe(201);
+      const light = await newVersion(designer, 'queued behind it');
+      const heavyPdf = `/api/reports/decks/${heavy.body.deck.id}/versions/1/package.pdf`;
+      const lightCsv = `/api/reports/decks/${light.deckId}/versions/1/factors.csv`;
+
+      // the package route answers at once with the refined job it waits for
+      const first = await designer.get(heavyPdf).set('Prefer', 'respond-async');
+      expect(first.status).toBe(202);
+      expect(first.body.job.kind).toBe('refined');
+      expect(first.headers.location).toBe(`/api/jobs/${first.body.job.id}`);
+      const running = await untilState(designer, first.headers.location, (s) => s !== 'queued');
+      expect(running.state).toBe('running');
+      // a request that waits joins the same job
+      const waiting = designer.get(`/api/reports/decks/${heavy.body.deck.id}/versions/1/envelopes.csv`).then((r) => r);
+      // the one thread is busy: the next version's job waits in the queue
+      const second = await designer.get(lightCsv).set('Prefer', 'respond-async');
+      expect(second.status).toBe(202);
+      expect(second.body.job.state).toBe('queued');
+
+      // only the requester (or an administrator) may cancel
+      const refused = await send.post(reviewer, `/api/jobs/${running.id}/cancel`, {});
+      expect(refused.status).toBe(403);
+      expect(refused.body.error.message).toContain('only the user who asked for job');
+
+      const queuedCancel = await send.post(designer, `/api/jobs/${second.body.job.id}/cancel`, {});
+      expect(queuedCancel.status).toBe(200);
+      expect(queuedCancel.body.job.state).toBe('cancelled');
+      expect(queuedCancel.body.job.error).toContain('cancelled by Dana Okonkwo before it started');
+      const runningCancel = await send.post(designer, `/api/jobs/${running.id}/cancel`, {});
+      expect(runningCancel.status).toBe(200);
+      expect(runningCancel.body.job).toMatchObject({ state: 'cancelled' });
+      expect(runningCancel.body.job.error).toContain('cancelled by Dana Okonkwo while it ran');
+      expect(runningCancel.body.job.finishedAt).not.toBeNull();
+
+      const told = await waiting;
+      expect(told.status).toBe(409);
+      expect(told.body.error.code).toBe('refined_cancelled');
+      expect(told.body.error.message).toBe(runningCancel.body.job.error);
+      // a finished job cannot be cancelled again
+      const again = await send.post(designer, `/api/jobs/${running.id}/cancel`, {});
+      expect(again.status).toBe(409);
+      expect(again.body.error.code).toBe('job_finished');
+      expect(again.body.error.message).toContain('is already cancelled');
+
+      // nothing was stored: asking again starts a new job, which runs to the end
+      const stored = ctxResults(c, [heavy.body.version.id, light.versionId]);
+      expect(stored).toEqual([]);
+      const anew = await designer.get(lightCsv).set('Prefer', 'respond-async');
+      expect(anew.status).toBe(202);
+      expect(anew.body.job.id).not.toBe(second.body.job.id);
+      expect((await untilState(designer, anew.headers.location, (s) => s !== 'queued' && s !== 'running')).state).toBe('done');
+      const csv = await designer.get(lightCsv).set('Prefer', 'respond-async');
+      expect(csv.status).toBe(200);
+      expect(csv.headers['content-type']).toContain('text/csv');
+      const states = ((await designer.get(`/api/decks/${light.deckId}/versions/1/jobs`)).body.jobs as JobView[]).map((j) => j.state);
+      expect(states).toEqual(['done', 'cancelled']);
+      expect(c.refinedPool.stats()).toMatchObject({ cancelled: 2 });
+    } finally {
+      await c.close();
+    }
+  });
+});
+
+/** The versions among `versionIds` that have a grillage result stored. */
+function ctxResults(c: WorkflowContext, versionIds: number[]): number[] {
+  return c.db
+    .select({ versionId: analysisResults.versionId })
+    .from(analysisResults)
+    .where(and(eq(analysisResults.method, 'grillage'), inArray(analysisResults.versionId, versionIds)))
+    .all()
+    .map((r) => r.versionId);
+}

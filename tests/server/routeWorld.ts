@@ -126,6 +126,8 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'GET /api/decks/:deckId/versions/:number': { params: version },
     'GET /api/decks/:deckId/versions/:number/jobs': { params: version },
     'GET /api/jobs/:jobId': { params: { jobId: ids.jobId } },
+    // the sample job is done: a cancel is refused (409) whatever the body
+    'POST /api/jobs/:jobId/cancel': { params: { jobId: ids.jobId }, body: {} },
     'GET /api/admin/users': {},
     'POST /api/admin/users': { body: { email: 'new-user@larchmont-ridge.example', name: 'New User', roles: ['trainee'] } },
     'PATCH /api/admin/users/:userId': { params: { userId: ids.managedUserId }, body: { name: 'Managed Again', roles: ['designer'], disabled: false } },

@@ -87,6 +87,18 @@ export function findDeck(db: Db, firmId: number, deckId: number): DeckRow {
   return row.d;
 }
 
+/** Version `number` of the deck if its project belongs to the firm; otherwise 404. */
+export function findVersionByNumber(db: Db, firmId: number, deckId: number, number: number): DeckVersionRow {
+  findDeck(db, firmId, deckId);
+  const v = db
+    .select()
+    .from(deckVersions)
+    .where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number)))
+    .get();
+  if (!v) throw ApiError.notFound(`version ${number} of deck ${deckId}`);
+  return v;
+}
+
 export function listDecks(db: Db, firmId: number, projectId: number) {
   findProject(db, firmId, projectId);
   return db.select().from(decks).where(eq(decks.projectId, projectId)).orderBy(desc(decks.id)).all().map((d) => deckSummary(db, d));

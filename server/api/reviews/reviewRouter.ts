@@ -21,7 +21,7 @@ import { addComment, decide, deckReviewStatus, findRound, getReview, listReviewe
 import { refinedSummaryOf } from './refinedSummary.js';
 import { startRefinedResults } from './refinedResults.js';
 import { ApiError } from '../../middleware/errors.js';
-import { findJob, jobViews } from '../jobs/jobRouter.js';
+import { answerWithJob, pendingJobView, prefersAsync } from '../jobs/pendingJob.js';
 import { findVersion } from './reviewService.js';
 import { assertResultsVisible } from '../training/withheldResults.js';
 import type { RefinedPool } from '../../compute/refinedPool.js';
@@ -49,23 +49,20 @@ export function reviewRouter(db: Db, config: Config, mailer: Mailer, pool: Refin
     assertResultsVisible(db, req.user!, round.versionId);
     const review = getReview(db, req.user!, round.id);
     const v = findVersion(db, req.user!.firmId, round.versionId).v;
-    // A client that prefers to poll (RFC 7240 `Prefer: respond-async`) gets the round at once
-    // with 202 and the address of the refined job the summary waits for.
-    const async = /\brespond-async\b/i.test(req.get('Prefer') ?? '');
+    // A client that prefers to poll gets the round at once with 202 and the refined job the summary waits for.
+    const async = prefersAsync(req);
     const refined = startRefinedResults(db, pool, v, req.user!);
-    if (async && refined.jobId !== null) {
-      // the job records its own outcome and stores the result; nobody waits for it here
-      refined.results.catch(() => undefined);
-      const job = jobViews(db, [findJob(db, req.user!.firmId, refined.jobId)], pool)[0];
-      res.status(202).location(job.url).json({ review, summary: null, job });
+    const pending = async ? pendingJobView(db, pool, req.user!.firmId, refined) : null;
+    if (pending) {
+      answerWithJob(res, pending, { review, summary: null });
       return;
     }
     let summary;
     try {
       summary = await refinedSummaryOf(db, pool, v, await refined.results);
     } catch (e) {
-      // The pool refused the run now (a limit, or full): that client still gets the round, with the reason where the summary would be.
-      if (!(async && e instanceof ApiError && (e.status === 429 || e.status === 503))) throw e;
+      // The pool refused the run now (a limit, or full) or it was cancelled: that client still gets the round, with the reason where the summary would be.
+      if (!(async && e instanceof ApiError && (e.status === 429 || e.status === 503 || e.status === 409))) throw e;
       const retryAfter = Number(e.headers?.['Retry-After']);
       res.json({ review, summary: null, job: null, refusal: { code: e.code, message: e.message, retryAfterSeconds: Number.isFinite(retryAfter) ? retryAfter : null } });
       return;
