@@ -14,7 +14,7 @@
 import { parentPort } from 'node:worker_threads';
 import { assertDeck, DeckInputError } from '../../shared/deck/schema.js';
 import { GrillageMechanismError } from '../../shared/grillage/errors.js';
-import { computeRefinedFactors, type RefinedProgress } from '../../shared/grillage/refinedFactors.js';
+import { computeRefinedFactors, type RefinedProgress, type RefinedResult } from '../../shared/grillage/refinedFactors.js';
 import type { FactorRow } from '../../shared/lrfd/index.js';
 import { SOLVER_VERSION } from '../../shared/version.js';
 import { encodeResultRow, ResultTooLargeError, type EncodedResult } from '../storage/resultEncoding.js';
@@ -32,6 +32,8 @@ export interface RefinedAnswer {
   encoded: EncodedResult | null;
   /** The result's factor rows (method 'grillage'), or null with `error`. */
   rows: FactorRow[] | null;
+  /** The result's findings (the mesh's quality among them); empty with `error`. */
+  findings: RefinedResult['findings'];
   error?: string;
 }
 
@@ -48,14 +50,14 @@ export interface ProgressMessage {
 }
 const PROGRESS_MS = 250;
 
-function solve(deckJson: string, checkConvergence: boolean, onProgress: (p: RefinedProgress) => void): { data: unknown; rows: FactorRow[] | null; error?: string } {
+function solve(deckJson: string, checkConvergence: boolean, onProgress: (p: RefinedProgress) => void): { data: unknown; rows: FactorRow[] | null; findings: RefinedResult['findings']; error?: string } {
   try {
     // The moment rows' convergence at twice the mesh density goes with the result: a reduction claim needs it.
     const result = computeRefinedFactors(assertDeck(JSON.parse(deckJson)), { checkConvergence, onProgress });
-    return { data: result, rows: result.rows };
+    return { data: result, rows: result.rows, findings: result.findings };
   } catch (e) {
     if (!(e instanceof DeckInputError) && !(e instanceof GrillageMechanismError)) throw e;
-    return { data: { error: e.message }, rows: null, error: e.message };
+    return { data: { error: e.message }, rows: null, findings: [], error: e.message };
   }
 }
 
@@ -79,6 +81,6 @@ export default function refinedTask(task: RefinedTask): RefinedAnswer {
     phase = progress.phase;
     parentPort?.postMessage({ kind: 'refined-progress', jobId: task.jobId, progress } satisfies ProgressMessage);
   };
-  const { data, rows, error } = solve(task.deckJson, task.checkConvergence === true, onProgress);
-  return { encoded: encode(data), rows, ...(error !== undefined ? { error } : {}) };
+  const { data, rows, findings, error } = solve(task.deckJson, task.checkConvergence === true, onProgress);
+  return { encoded: encode(data), rows, findings, ...(error !== undefined ? { error } : {}) };
 }

@@ -86,6 +86,7 @@ const WITHHELD_SHORT: Record<string, string> = {
   'convergence-unknown': 'mesh not checked',
   'mesh-unconverged': 'mesh not converged',
   'diaphragms-left-out': 'diaphragms left out',
+  'mesh-aspect-ratio': 'panel aspect ratio above 5',
 };
 
 const EFFECT_WORDS: Record<string, string> = {

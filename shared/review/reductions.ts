@@ -15,7 +15,9 @@
  * and BOUND_TARGET_PERCENT % of the value; a factor that could be exceeded by more cannot
  * lower a design value), the factor changes by at most 1 % at twice the mesh density, and
  * the grillage includes the deck's diaphragms or cross-frames (a
- * model that leaves out members the bridge has is not the bridge). Each row that is not
+ * model that leaves out members the bridge has is not the bridge), and no grid panel of the
+ * mesh is more elongated than PANEL_ASPECT_LIMIT (shared/grillage/quality.ts; AASHTO LRFD
+ * Art. 4.6.3.3.1: grid panel aspect ratios should not exceed 5.0, quoted from memory). Each row that is not
  * claimable says why. The largest claimable reduction is the largest reduction among the
  * claimable rows, and nothing else. The mesh must pass its convergence check too: the factor
  * changes by at most 1 % when the density is doubled (refinedFactors.ts `checkConvergence`;
@@ -45,12 +47,20 @@ export interface RefinedFactor {
 }
 
 /** Why a row's reduction is not claimed. */
-export type WithheldReason = 'not-design-girder' | 'bound-unknown' | 'bound-misses-target' | 'convergence-unknown' | 'mesh-unconverged' | 'diaphragms-left-out';
+export type WithheldReason = 'not-design-girder' | 'bound-unknown' | 'bound-misses-target' | 'convergence-unknown' | 'mesh-unconverged' | 'diaphragms-left-out' | 'mesh-aspect-ratio';
+
+/** The most elongated grid panel of a mesh whose aspect ratio is above the limit (quality.ts). */
+export interface PanelAspectFact {
+  ratio: number;
+  limit: number;
+}
 
 /** What the model behind the refined rows includes, for the claim. */
 export interface RefinedModelFacts {
   /** The deck has diaphragms or cross-frames and the grillage leaves them out (the user's switch). */
   diaphragmsLeftOut: boolean;
+  /** The mesh's worst panel when its aspect ratio exceeds the limit (absent or null: every panel is within it). */
+  panelAspect?: PanelAspectFact | null;
 }
 
 /** The governing refined factor per girder, effect and place from rows of method 'grillage', sorted by girder and effect. */
@@ -102,6 +112,8 @@ export interface MomentReduction {
   convergence?: FactorRow['convergence'];
   /** Why the row is not claimable (empty when it is). */
   withheld: WithheldReason[];
+  /** The mesh's over-elongated panel, when that withholds the row. */
+  panelAspect?: PanelAspectFact;
   /** Why the row may or may not be claimed, in words. */
   claim: string;
   /** The design girder of this row's kind and place (this row's girder when claimable). */
@@ -190,11 +202,15 @@ function withheldReasons(r: MomentReduction, model: RefinedModelFacts): Withheld
   if (!r.convergence) why.push('convergence-unknown');
   else if (!r.convergence.within) why.push('mesh-unconverged');
   if (model.diaphragmsLeftOut) why.push('diaphragms-left-out');
+  if (model.panelAspect) {
+    why.push('mesh-aspect-ratio');
+    r.panelAspect = model.panelAspect;
+  }
   return why;
 }
 
 /** A reason in words, with the row's figures. */
-export function withheldWords(w: WithheldReason, r: Pick<MomentReduction, 'bound' | 'convergence' | 'designGirder'>): string {
+export function withheldWords(w: WithheldReason, r: Pick<MomentReduction, 'bound' | 'convergence' | 'designGirder' | 'panelAspect'>): string {
   switch (w) {
     case 'not-design-girder':
       return `girder ${r.designGirder} governs`;
@@ -208,6 +224,8 @@ export function withheldWords(w: WithheldReason, r: Pick<MomentReduction, 'bound
       return `at twice the mesh density (${r.convergence?.segmentsPerSpan} segments per span) the factor changes by ${((r.convergence?.change ?? 0) * 100).toFixed(2)} %, more than 1 %`;
     case 'diaphragms-left-out':
       return 'the grillage leaves out the deck’s diaphragms or cross-frames';
+    case 'mesh-aspect-ratio':
+      return `a grid panel of the mesh has an aspect ratio of ${r.panelAspect?.ratio.toFixed(2)}, above ${r.panelAspect?.limit} (AASHTO LRFD Art. 4.6.3.3.1)`;
   }
 }
 

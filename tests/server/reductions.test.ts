@@ -91,6 +91,11 @@ describe('the reduction table and its largest claimable reduction', () => {
       expect(without.filter((r) => r.designGirder === r.girder).every((r) => r.withheld.includes('diaphragms-left-out') && /leaves out the deck’s diaphragms/.test(r.claim))).toBe(true);
       expect(largestClaimableReduction(without)).toBeNull();
 
+      // A mesh with a panel more elongated than Art. 4.6.3.3.1 allows (5.0, quoted from memory) claims nothing, and says so.
+      const elongated = momentReductionTable(code, refined, (span) => perLaneMaxMoment(deck, span), { diaphragmsLeftOut: false, panelAspect: { ratio: 6.25, limit: 5 } });
+      expect(elongated.some((r) => r.claimable)).toBe(false);
+      expect(elongated.filter((r) => r.designGirder === r.girder).every((r) => r.withheld.includes('mesh-aspect-ratio') && r.claim.includes('aspect ratio of 6.25, above 5 (AASHTO LRFD Art. 4.6.3.3.1)'))).toBe(true);
+
       // Rows stored before bounds and convergence were kept with them claim nothing until recomputed.
       const unbounded = momentReductionTable(code, refined.map(({ bound: _bound, convergence: _convergence, ...r }) => r), (span) => perLaneMaxMoment(deck, span));
       expect(unbounded.some((r) => r.claimable)).toBe(false);

@@ -179,6 +179,29 @@ describe('the refined-analysis summary', () => {
   });
 });
 
+describe('a mesh the code would not accept backs no reduction', () => {
+  it('a short span meshed at 40 segments has panels more elongated than 5.0 (AASHTO LRFD Art. 4.6.3.3.1, quoted from memory): every design row says so', async () => {
+    // 30 ft span at 20° skew, girders 9.67 ft apart, transverse members parallel to the supports:
+    // panels 30/40 = 0.75 ft along by 9.67/cos 20° = 10.29 ft across, aspect ratio 13.7 (geometry)
+    const res = await send.post(designer, `/api/projects/${projectId}/decks`, { deck: { ...quarryCreekDeck(), name: 'Short span', spans: [{ length: fromUs.ft(30) }] }, message: 'short span' });
+    expect(res.status).toBe(201);
+    const r = (await send.post(designer, '/api/reviews', { versionId: res.body.version.id, reviewerId })).body.review;
+    const { summary } = (await reviewer.get(`/api/reviews/${r.id}`)).body;
+    expect(summary.refined.available).toBe(true);
+    const design = summary.refined.momentReductions.filter((m: { designGirder: number; girder: number }) => m.designGirder === m.girder);
+    expect(design.length).toBeGreaterThan(0);
+    for (const m of design) {
+      expect(m.claimable).toBe(false);
+      expect(m.withheld).toContain('mesh-aspect-ratio');
+      expect(m.panelAspect.limit).toBe(5);
+      expect(m.panelAspect.ratio).toBeRelativelyClose(9.6667 / Math.cos((20 * Math.PI) / 180) / (30 / 40), 1e-3);
+      expect(m.claim).toMatch(/a grid panel of the mesh has an aspect ratio of 13\.7\d, above 5 \(AASHTO LRFD Art\. 4\.6\.3\.3\.1\)/);
+    }
+    expect(summary.refined.largestReduction).toBeNull();
+    expect(summary.indicators.join(' ')).toContain('more elongated than Art. 4.6.3.3.1 allows');
+  });
+});
+
 describe('refusals', () => {
   let deckId: number;
   let v1: number;

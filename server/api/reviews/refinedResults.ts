@@ -19,11 +19,13 @@ import { deckOf, storedResult } from './versionResults.js';
 import { RefinedModelTooLargeError, type RefinedPool } from '../../compute/refinedPool.js';
 import { SOLVER_VERSION } from '../../../shared/version.js';
 import { insertEncodedResultOnce } from '../../storage/storedResults.js';
-import { governingPerGirder, type RefinedFactor } from '../../../shared/review/reductions.js';
+import { governingPerGirder, type PanelAspectFact, type RefinedFactor } from '../../../shared/review/reductions.js';
 
 export type { RefinedFactor };
 
 export interface RefinedResults {
+  /** The mesh's over-elongated panel (its 'panel-aspect-ratio' finding), or null when every panel is within the limit or the result predates findings. */
+  panelAspect?: PanelAspectFact | null;
   /** The governing refined factor per girder, effect and location. */
   factors: RefinedFactor[] | null;
   /** Every refined row (each lane case), method 'grillage'. */
@@ -54,7 +56,7 @@ export interface Requester {
 /** Computes the version's grillage result and stores it (once per version and solver version). */
 async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow, requester: Requester | null): Promise<unknown> {
   const answer = await pool.run(jobKey(v), deckOf(v), v.deckJson, { versionId: v.id, requestedBy: requester?.id ?? null, ...(requester ? { firmId: requester.firmId } : {}) });
-  const data = answer.error !== undefined ? { error: answer.error } : { rows: answer.rows };
+  const data = answer.error !== undefined ? { error: answer.error } : { rows: answer.rows, findings: answer.findings };
   // When another request stored it first (same version, method and solver version), theirs
   // is kept; a result too large to store (encoded null) serves this request only.
   if (answer.encoded) insertEncodedResultOnce(db, v.id, answer.encoded);
@@ -68,7 +70,18 @@ function resultsOf(data: unknown, solverVersion: string): RefinedResults {
   if (error !== undefined) return { factors: null, rows: null, source, note: `The grillage could not be built for this version: ${error}` };
   const rows = rowsOf(data);
   if (!rows || rows.length === 0) return { factors: null, rows: null, source, note: 'The stored grillage result holds no factor rows that can be compared.' };
-  return { factors: governingPerGirder(rows), rows, source, note: '' };
+  return { factors: governingPerGirder(rows), rows, source, note: '', panelAspect: panelAspectOf(data) };
+}
+
+/** The 'panel-aspect-ratio' finding of a stored grillage result (shared/grillage/quality.ts), as a fact for the claim. */
+function panelAspectOf(data: unknown): PanelAspectFact | null {
+  const findings = typeof data === 'object' && data !== null ? (data as { findings?: unknown }).findings : undefined;
+  if (!Array.isArray(findings)) return null;
+  for (const f of findings) {
+    const values = (f as { code?: unknown; values?: { ratio?: unknown; limit?: unknown } }).values;
+    if ((f as { code?: unknown }).code === 'panel-aspect-ratio' && typeof values?.ratio === 'number' && typeof values.limit === 'number') return { ratio: values.ratio, limit: values.limit };
+  }
+  return null;
 }
 
 /**

@@ -136,6 +136,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
   }
   const reductions: MomentReduction[] = refined.factors ? momentReductionTable(code, refined.factors, (span) => perLaneMaxMoment(deck, span), {
         diaphragmsLeftOut: deck.diaphragms.type !== 'none' && deck.diaphragms.includeInGrillage === false,
+        panelAspect: refined.panelAspect ?? null,
       }) : [];
   const largest = largestClaimableReduction(reductions);
 
@@ -165,6 +166,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
       'convergence-unknown': 'the mesh was not checked at twice its density',
       'mesh-unconverged': 'the factors change by more than 1 % at twice the mesh density',
       'diaphragms-left-out': 'the grillage leaves out the deck’s diaphragms or cross-frames',
+      'mesh-aspect-ratio': 'a grid panel of the mesh is more elongated than Art. 4.6.3.3.1 allows (aspect ratio above 5.0)',
     };
     indicators.push(`The refined moment factors cannot back a reduction: ${why.map((w) => words[w] ?? w).join('; ')} (see the reduction table).`);
   }
