@@ -295,6 +295,8 @@ export const reviewRounds = sqliteTable(
     refinedJustified: integer('refined_justified', { mode: 'boolean' }),
     refinedReason: text('refined_reason'),
     refinedDecidedAt: text('refined_decided_at'),
+    /** What the refined rows could back when the decision was recorded (JSON, shared/review/claimConditions.ts); null before it was kept. */
+    refinedConditions: text('refined_conditions'),
     createdAt: text('created_at').notNull().default(now),
     updatedAt: text('updated_at').notNull().default(now),
   },

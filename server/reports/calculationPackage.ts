@@ -626,6 +626,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
       : 'No decision on a refined analysis has been recorded for this version.',
     { weight: 'bold' },
   );
+  if (data.refinedDecision?.conditions) w.text(data.refinedDecision.conditions, { color: MUTED });
 
   // ── 9 Review record and signatures ──────────────────────────────────────────────────
   w.heading('9  Review record, cautions and signatures');

@@ -16,6 +16,7 @@ import { codeResultsOf, deckOf } from '../api/reviews/versionResults.js';
 import { refinedSummaryOf, type RefinedSummary } from '../api/reviews/refinedSummary.js';
 import { STATE_WORDS, type VersionReviewState } from '../api/reviews/reviewService.js';
 import { girderEnvelopes, type GirderEnvelopes } from './envelopes.js';
+import { conditionsWords, parseConditions } from '../../shared/review/claimConditions.js';
 import type { RefinedPool } from '../compute/refinedPool.js';
 
 export interface ReportData {
@@ -27,7 +28,8 @@ export interface ReportData {
   author: { name: string; email: string };
   reviewer: { name: string; email: string } | null;
   status: { state: VersionReviewState; label: string; decidedAt: string | null; decisionNote: string | null };
-  refinedDecision: { justified: boolean; reason: string; at: string | null } | null;
+  /** The reviewer's refined-analysis decision, with the sentence of the conditions it was recorded under (null when recorded before they were kept). */
+  refinedDecision: { justified: boolean; reason: string; at: string | null; conditions: string | null } | null;
   rounds: { id: number; state: string; label: string; submittedBy: string; reviewer: string; submittedAt: string; decidedAt: string | null; note: string | null }[];
   input: Deck;
   code: CodeFactorResult;
@@ -37,6 +39,12 @@ export interface ReportData {
   /** Every refined (grillage) row, each lane case, or null when there is none. */
   refinedRows: FactorRow[] | null;
   envelopes: GirderEnvelopes[];
+}
+
+/** The sentence of a decision's stored conditions (shared/review/claimConditions.ts), or null. */
+function conditionsSentence(text: string | null): string | null {
+  const c = parseConditions(text);
+  return c ? conditionsWords(c) : null;
 }
 
 function name(db: Db, id: number | null) {
@@ -70,7 +78,7 @@ export async function reportData(db: Db, pool: RefinedPool, firmId: number, deck
     author: name(db, row.v.createdBy)!,
     reviewer: current ? name(db, current.reviewerId) : null,
     status: { state, label: STATE_WORDS[state], decidedAt: current?.decidedAt ?? null, decisionNote: current?.decisionNote ?? null },
-    refinedDecision: current && current.refinedJustified !== null ? { justified: current.refinedJustified, reason: current.refinedReason ?? '', at: current.refinedDecidedAt } : null,
+    refinedDecision: current && current.refinedJustified !== null ? { justified: current.refinedJustified, reason: current.refinedReason ?? '', at: current.refinedDecidedAt, conditions: conditionsSentence(current.refinedConditions) } : null,
     rounds: rounds.map((r) => ({
       id: r.id,
       state: r.state,

@@ -1,6 +1,7 @@
 /** Review rounds of deck versions (see server/api/reviews): submit, comment, decide, withdraw. */
 import { http, request, requestFile, requestWithStatus, type DownloadedFile } from './http';
 import type { Page, PersonRef, UnitSystem } from './types';
+import type { RefinedClaimConditions } from '@shared/review/claimConditions';
 
 export type ReviewState = 'awaiting-review' | 'approved' | 'sent-back' | 'withdrawn';
 export type VersionReviewState = ReviewState | 'in-progress';
@@ -49,7 +50,8 @@ export interface ReviewSummary {
   nextRoundId: number | null;
   submissionNote: string;
   decision: { outcome: 'approve' | 'send-back'; note: string; by: PersonRef; at: string | null } | null;
-  refinedAnalysis: { justified: boolean; reason: string; at: string | null; label: string } | null;
+  /** The reviewer's refined-analysis decision, with what the refined rows could back when it was recorded (null for decisions recorded before that was kept). */
+  refinedAnalysis: { justified: boolean; reason: string; at: string | null; label: string; conditions: RefinedClaimConditions | null; conditionsWords: string | null } | null;
   commentCount: number;
   createdAt: string;
   updatedAt: string;

@@ -92,6 +92,8 @@ describe('calculation package (PDF)', () => {
     for (const s of ['Table 4.6.2.2.2b-1', 'Table 4.6.2.2.3a-1', 'Art. 4.6.2.2.1 (lever rule)', 'Kg = n · (I + A · eg²)', 'θ = 20.0° is below 30°', 'Governing placements on the cross-section', 'Lane 1', 'A refined analysis is not justified', 'Every formula within its range; skew below 30°.']) {
       expect(text, s).toContain(s);
     }
+    // the conditions the decision was recorded under (shared/review/claimConditions.ts)
+    expect(text.replace(/\s+/g, ' ')).toMatch(/Recorded (with the refined results of solver [\d.]+: \d+ of \d+ design moment rows? could back a reduction|without refined results)/);
   });
 
   it('carries the caution on every page and a signature block', () => {

@@ -179,6 +179,39 @@ describe('the refined-analysis summary', () => {
   });
 });
 
+describe('the refined-analysis decision keeps the conditions it was recorded under', () => {
+  it('before the refined results exist it says so; after the reviewer has read them it keeps the same counts and largest reduction as the summary', async () => {
+    const { versionId } = await newDeck(designer, 'Conditions deck');
+    const r = (await send.post(designer, '/api/reviews', { versionId, reviewerId })).body.review;
+    // decided before anyone opened the round: nothing refined was stored yet, and no run is started for it
+    const early = await send.put(reviewer, `/api/reviews/${r.id}/refined-analysis`, { justified: true, reason: 'Skew 20°: a grillage is worth running.' });
+    expect(early.status).toBe(200);
+    expect(early.body.review.refinedAnalysis.conditions).toMatchObject({ refinedAvailable: false, designRows: 0, claimableRows: 0, largestReduction: null });
+    expect(early.body.review.refinedAnalysis.conditionsWords).toMatch(/^Recorded without refined results: no refined \(grillage\) result was stored for this version/);
+
+    // the reviewer reads the summary (the refined run is stored), then changes the decision
+    const { summary } = (await reviewer.get(`/api/reviews/${r.id}`)).body;
+    const later = await send.put(reviewer, `/api/reviews/${r.id}/refined-analysis`, { justified: false, reason: 'The refined rows cannot back a reduction.' });
+    const c = later.body.review.refinedAnalysis.conditions;
+    const design = summary.refined.momentReductions.filter((m: { designGirder: number; girder: number }) => m.designGirder === m.girder);
+    expect(c.refinedAvailable).toBe(true);
+    expect(c.solverVersion).toBe(summary.solverVersion);
+    expect(c.boundTarget).toEqual({ lanes: 0.005, percent: 0.5 });
+    expect(c.designRows).toBe(design.length);
+    expect(c.claimableRows).toBe(design.filter((m: { claimable: boolean }) => m.claimable).length);
+    expect(c.largestReduction === null ? null : c.largestReduction.percent).toBe(summary.refined.largestReduction === null ? null : summary.refined.largestReduction.reductionPercent);
+    const reasons = [...new Set(design.flatMap((m: { withheld: string[] }) => m.withheld))].sort();
+    expect(c.withheld.map((w: { reason: string }) => w.reason).sort()).toEqual(reasons);
+    for (const w of c.withheld) expect(w.rows).toBe(design.filter((m: { withheld: string[] }) => m.withheld.includes(w.reason)).length);
+    const words = later.body.review.refinedAnalysis.conditionsWords as string;
+    expect(words).toContain(`${c.claimableRows} of ${c.designRows} design moment rows could back a reduction`);
+    // the same sentence goes to the audit trail and stays with the round
+    const audit = (await reviewer.get(`/api/projects/${projectId}/audit`)).body.entries as { summary: string }[];
+    expect(audit.some((e) => e.summary.includes(words))).toBe(true);
+    expect((await designer.get(`/api/reviews/${r.id}`)).body.review.refinedAnalysis.conditionsWords).toBe(words);
+  });
+});
+
 describe('a mesh the code would not accept backs no reduction', () => {
   it('a short span meshed at 40 segments has panels more elongated than 5.0 (AASHTO LRFD Art. 4.6.3.3.1, quoted from memory): every design row says so', async () => {
     // 30 ft span at 20° skew, girders 9.67 ft apart, transverse members parallel to the supports:

@@ -24,6 +24,8 @@ import { governingPerGirder, type PanelAspectFact, type RefinedFactor } from '..
 export type { RefinedFactor };
 
 export interface RefinedResults {
+  /** The solver version of the result (absent when there is none). */
+  solverVersion?: string;
   /** The mesh's over-elongated panel (its 'panel-aspect-ratio' finding), or null when every panel is within the limit or the result predates findings. */
   panelAspect?: PanelAspectFact | null;
   /** The governing refined factor per girder, effect and location. */
@@ -70,7 +72,7 @@ function resultsOf(data: unknown, solverVersion: string): RefinedResults {
   if (error !== undefined) return { factors: null, rows: null, source, note: `The grillage could not be built for this version: ${error}` };
   const rows = rowsOf(data);
   if (!rows || rows.length === 0) return { factors: null, rows: null, source, note: 'The stored grillage result holds no factor rows that can be compared.' };
-  return { factors: governingPerGirder(rows), rows, source, note: '', panelAspect: panelAspectOf(data) };
+  return { factors: governingPerGirder(rows), rows, source, note: '', panelAspect: panelAspectOf(data), solverVersion };
 }
 
 /** The 'panel-aspect-ratio' finding of a stored grillage result (shared/grillage/quality.ts), as a fact for the claim. */
@@ -84,6 +86,12 @@ function panelAspectOf(data: unknown): PanelAspectFact | null {
   return null;
 }
 
+/** The version's refined results when they are stored (never starts a run), else null. */
+export function storedRefinedResults(db: Db, v: DeckVersionRow): RefinedResults | null {
+  const stored = storedResult(db, v.id, 'grillage');
+  return stored ? resultsOf(stored.data, stored.solverVersion) : null;
+}
+
 /**
  * The version's refined results, started once: `results` settles with them (at once when they
  * are stored), and `jobId` is the compute_jobs row of the pool's job they wait for (null when
@@ -91,8 +99,8 @@ function panelAspectOf(data: unknown): PanelAspectFact | null {
  * client that would rather poll than wait answers with the job while it runs.
  */
 export function startRefinedResults(db: Db, pool: RefinedPool, v: DeckVersionRow, requester: Requester | null = null): { jobId: number | null; results: Promise<RefinedResults> } {
-  const stored = storedResult(db, v.id, 'grillage');
-  if (stored) return { jobId: null, results: Promise.resolve(resultsOf(stored.data, stored.solverVersion)) };
+  const stored = storedRefinedResults(db, v);
+  if (stored) return { jobId: null, results: Promise.resolve(stored) };
   const results = computeAndStore(db, pool, v, requester).then(
     (data) => resultsOf(data, SOLVER_VERSION),
     (e: unknown): RefinedResults => {

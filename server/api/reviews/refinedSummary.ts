@@ -18,7 +18,9 @@ import type { DeckVersionRow } from '../../db/schema.js';
 import type { Finding } from '../../../shared/lrfd/findings.js';
 import type { CodeFactorResult, FactorEffect, FactorRow, GirderKind } from '../../../shared/lrfd/index.js';
 import { codeResultsOf, deckOf } from './versionResults.js';
-import { refinedResultsOf, type RefinedResults, type Requester } from './refinedResults.js';
+import { refinedResultsOf, storedRefinedResults, type RefinedResults, type Requester } from './refinedResults.js';
+import { claimConditions, type RefinedClaimConditions } from '../../../shared/review/claimConditions.js';
+import type { Deck } from '../../../shared/deck/schema.js';
 import type { RefinedPool } from '../../compute/refinedPool.js';
 import { perLaneMaxMoment } from '../../reports/envelopes.js';
 import { codeFactorForGirder, isRatioEffect, largestClaimableReduction, momentReductionTable, type MomentReduction, type RatioEffect } from '../../../shared/review/reductions.js';
@@ -100,6 +102,28 @@ function skewWords(skews: number[]): string {
   return `Skew ${list}. The moment reduction of Table 4.6.2.2.2e-1 and the shear correction of Table 4.6.2.2.3c-1 both apply${largest > 60 ? '; θ above 60° is taken as 60° for the moment reduction' : ''}.`;
 }
 
+/** The moment-reduction table of a version's refined results (empty when there are none): one table for the summary and for a decision's conditions. */
+function reductionsOf(code: CodeFactorResult, deck: Deck, refined: RefinedResults): MomentReduction[] {
+  if (!refined.factors) return [];
+  return momentReductionTable(code, refined.factors, (span) => perLaneMaxMoment(deck, span), {
+    diaphragmsLeftOut: deck.diaphragms.type !== 'none' && deck.diaphragms.includeInGrillage === false,
+    panelAspect: refined.panelAspect ?? null,
+  });
+}
+
+/**
+ * What the version's stored refined results could back now, for a refined-analysis decision
+ * recorded now (never starts a run: a reviewer decides on what was shown).
+ */
+export function decisionConditions(db: Db, v: DeckVersionRow): RefinedClaimConditions {
+  const refined = storedRefinedResults(db, v);
+  if (!refined || !refined.factors) {
+    return claimConditions([], { available: false, note: refined?.note || 'no refined (grillage) result was stored for this version when the decision was recorded', solverVersion: refined?.solverVersion ?? null, panelAspect: null });
+  }
+  const { result: code } = codeResultsOf(db, v);
+  return claimConditions(reductionsOf(code, deckOf(v), refined), { available: true, note: '', solverVersion: refined.solverVersion ?? null, panelAspect: refined.panelAspect ?? null });
+}
+
 /** The summary of version `v`; `refined` when the caller already has the version's refined results. */
 export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersionRow, refinedKnown?: RefinedResults, requester: Requester | null = null): Promise<RefinedSummary> {
   const { result: code, solverVersion, source } = codeResultsOf(db, v);
@@ -134,10 +158,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
       ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value });
     }
   }
-  const reductions: MomentReduction[] = refined.factors ? momentReductionTable(code, refined.factors, (span) => perLaneMaxMoment(deck, span), {
-        diaphragmsLeftOut: deck.diaphragms.type !== 'none' && deck.diaphragms.includeInGrillage === false,
-        panelAspect: refined.panelAspect ?? null,
-      }) : [];
+  const reductions = reductionsOf(code, deck, refined);
   const largest = largestClaimableReduction(reductions);
 
   const rangeFindings = code.findings.filter((f) => RANGE_CODES.has(f.code));

@@ -49,6 +49,8 @@ import type { Mailer } from '../../mail/mailer.js';
 import { reviewRequestedMessage, versionApprovedMessage, versionSentBackMessage, type VersionRef } from '../../mail/messages.js';
 import { girderCountOf } from './versionResults.js';
 import type { CommentAnchor, CommentBody, DecisionBody, ListQuery, RefinedBody, SubmitBody } from './reviewModel.js';
+import { decisionConditions } from './refinedSummary.js';
+import { conditionsWords, parseConditions } from '../../../shared/review/claimConditions.js';
 
 export interface ReviewDeps {
   db: Db;
@@ -190,7 +192,7 @@ function presentRound(db: Db, actor: Actor, r: ReviewRoundRow) {
     nextRoundId: next?.id ?? null,
     submissionNote: r.submissionNote,
     decision: decided && decider ? { outcome: r.state === 'approved' ? ('approve' as const) : ('send-back' as const), note: r.decisionNote ?? '', by: { id: decider.id, name: decider.name }, at: r.decidedAt } : null,
-    refinedAnalysis: r.refinedJustified === null ? null : { justified: r.refinedJustified, reason: r.refinedReason ?? '', at: r.refinedDecidedAt, label: REFINED_WORDS(r.refinedJustified) },
+    refinedAnalysis: r.refinedJustified === null ? null : { justified: r.refinedJustified, reason: r.refinedReason ?? '', at: r.refinedDecidedAt, label: REFINED_WORDS(r.refinedJustified), ...conditionsView(r.refinedConditions) },
     commentCount,
     createdAt: r.createdAt,
     updatedAt: r.updatedAt,
@@ -451,6 +453,12 @@ function mayDecide(actor: Actor, r: ReviewRoundRow, v: DeckVersionRow, reviewerN
   if (actor.id !== r.reviewerId) throw ApiError.forbidden(`only the assigned reviewer (${reviewerName}) may decide on this version`);
 }
 
+/** A decision's stored conditions and their sentence (both null for a decision recorded before conditions were kept). */
+function conditionsView(text: string | null) {
+  const conditions = parseConditions(text);
+  return { conditions, conditionsWords: conditions ? conditionsWords(conditions) : null };
+}
+
 export function recordRefinedDecision(deps: ReviewDeps, actor: Actor, roundId: number, body: RefinedBody): ReviewView {
   const { db } = deps;
   const r = findRound(db, actor.firmId, roundId);
@@ -458,8 +466,10 @@ export function recordRefinedDecision(deps: ReviewDeps, actor: Actor, roundId: n
   mayDecide(actor, r, row.v, userRef(db, r.reviewerId)!.name);
   if (r.state !== 'awaiting-review') throw ApiError.conflict(closedMessage(r, row.v.number));
   const changed = r.refinedJustified !== null;
+  // the evidence the decision is made on, kept with it
+  const conditions = decisionConditions(db, row.v);
   db.transaction((tx) => {
-    updateOpenRound(tx, r.id, { refinedJustified: body.justified, refinedReason: body.reason, refinedDecidedAt: new Date().toISOString() });
+    updateOpenRound(tx, r.id, { refinedJustified: body.justified, refinedReason: body.reason, refinedDecidedAt: conditions.at, refinedConditions: JSON.stringify(conditions) });
     recordAudit(tx, {
       firmId: actor.firmId,
       projectId: r.projectId,
@@ -467,7 +477,7 @@ export function recordRefinedDecision(deps: ReviewDeps, actor: Actor, roundId: n
       action: changed ? 'change' : 'refined-decision',
       entityType: 'review',
       entityId: r.id,
-      summary: `${changed ? 'changed the refined-analysis decision to' : 'recorded for'} version ${row.v.number} of deck “${row.d.name}”${changed ? '' : ':'} ${REFINED_WORDS(body.justified)} — ${body.reason}`,
+      summary: `${changed ? 'changed the refined-analysis decision to' : 'recorded for'} version ${row.v.number} of deck “${row.d.name}”${changed ? '' : ':'} ${REFINED_WORDS(body.justified)} — ${body.reason}. ${conditionsWords(conditions)}`,
     });
   });
   return presentRound(db, actor, findRound(db, actor.firmId, r.id));
