@@ -90,6 +90,8 @@ import {
 } from './rules.js';
 import { cellIndex, raisedRows, type SampledSurface, type SurfaceLike } from './sampledSurface.js';
 import { transverseAt, type TransverseLine } from './transverseLines.js';
+import { laneStripTable, type LaneLoad, type LaneStripTable } from './laneStrip.js';
+import { DESIGN_LANE_LOAD } from '../loads/vehicles.js';
 
 export interface ToleranceStatement {
   /** 'exact': transverse line; 'sampled': exact on the sampled surface, bounded against the surface. */
@@ -504,6 +506,20 @@ export interface SurfaceSearchOptions extends SearchOptions {
    * bound (default 0.005).
    */
   tightenAbove?: number;
+  /**
+   * Add the design lane load in every loaded lane (laneStrip.ts: 0.64 klf over 10 ft unless
+   * given, centred on the lane's vehicle, on the lengths that add to the effect). The search
+   * stays exact for the lane load interpolated between knots; the bound adds m·k times the
+   * interpolation's measured deviation and the load's share of the sample's error ε.
+   */
+  laneLoad?: LaneLoad;
+}
+
+/** The reach of a vehicle's left wheel line across the roadway (the ends of T, search.ts step 2). */
+function wheelReach(rules: PlacementRules): { uLo: number; uHi: number } {
+  const L0 = laneLeftMin(rules);
+  const R0 = laneLeftMax(rules);
+  return { uLo: L0 + wheelOffsetRange(rules, L0).min, uHi: R0 + wheelOffsetRange(rules, R0).max };
 }
 
 /** Steps 1–5 on a sample: the best lane sets per lane count, totals in the maximised sense (m not applied). */
@@ -517,6 +533,7 @@ function searchSample(
   sgn: number,
   counts: number[],
   directions: (1 | -1)[],
+  lane: LaneStripTable | null = null,
 ) {
   const G = rules.gauge;
   const nx = xs.length;
@@ -547,6 +564,9 @@ function searchSample(
   };
   const bp: number[] = [];
   for (const y of ys) bp.push(y, y - G);
+  // the lane load interpolated between its knots is linear there: H stays convex between the union
+  if (lane) for (const u of lane.knots) bp.push(u);
+  const laneAt = lane ? lane.at : () => 0;
   const objective: LaneObjective<LongitudinalPosition> = {
     breakpoints: bp,
     evaluate: (u) => {
@@ -554,14 +574,14 @@ function searchSample(
       const best = bestVehicleOnLine(line, shape, directions, {}, workspace);
       const detail: LongitudinalPosition = { frontAxleAt: best.frontAxleAt, direction: best.direction };
       if (best.axleSpacing !== undefined) detail.axleSpacing = best.axleSpacing;
-      return { value: best.value, detail };
+      return { value: best.value + laneAt(u), detail };
     },
     // Every axle at the line's largest (positive) ordinate: an upper bound of H(u).
     bound: (u) => {
       fill(u);
       let mx = 0;
       for (let i = 1; i <= nx; i++) if (V[i] > mx) mx = V[i];
-      return shape.totalWeight * mx;
+      return shape.totalWeight * mx + laneAt(u);
     },
   };
   return searchLaneSets(rules, objective, counts);
@@ -591,6 +611,16 @@ function nudged(source: SurfaceLike, lane: LanePlacement, rules: PlacementRules,
   return best;
 }
 
+/** Adds each lane's lane-load effect (signed, response units) to an evaluated placement, m included. */
+function withLaneLoad(effect: PlacementEffect, laneValues: number[]): void {
+  let sum = 0;
+  effect.lanes.forEach((l, i) => {
+    l.laneLoadValue = laneValues[i];
+    sum += laneValues[i];
+  });
+  effect.value += effect.multiplePresence * sum;
+}
+
 /**
  * Governing placement of `vehicle` in 1..NL lanes on a sampled influence surface: exact on the
  * sample, within `tolerance.absolute` of the best legal placement on the surface itself.
@@ -610,30 +640,39 @@ export function governingSurfacePlacement(
   }
   const shape = vehicleShape(vehicle);
   const directions = options.directions ?? [1, -1];
-  const { results, work } = searchSample(xs, ys, rows, surface.extent, rules, shape, sgn, counts, directions);
+  const reach = wheelReach(rules);
+  const laneOf = (r: ArrayLike<number>[]) => (options.laneLoad ? laneStripTable(xs, ys, r, sgn, rules.gauge, reach.uLo, reach.uHi, options.laneLoad) : null);
+  const lane = laneOf(rows);
+  const { results, work } = searchSample(xs, ys, rows, surface.extent, rules, shape, sgn, counts, directions, lane);
   const source = options.source ?? surface.source;
   const eps = surface.representationError;
   const byLaneCount = results.map((r): LaneCountResult => {
-    const placement: Placement = { lanes: r.lanes.map((c) => nudged(source, { ...toLane(rules, c), ...c.detail }, rules, vehicle, sense, c.value)) };
+    // the vehicle's share is mended and evaluated on the surface itself, the lane load's on the sample (exact there)
+    const placement: Placement = { lanes: r.lanes.map((c) => nudged(source, { ...toLane(rules, c), ...c.detail }, rules, vehicle, sense, c.value - (lane ? lane.at(c.wheel) : 0))) };
     const effect = evaluateSurface(source, placement, rules, vehicle, { multiplePresence: options.multiplePresence, sense });
+    if (lane) withLaneLoad(effect, r.lanes.map((c) => sgn * lane.exact(c.wheel)));
     return { loadedLanes: r.k, multiplePresence: effect.multiplePresence, value: effect.value, placement, effect };
   });
   const g = pickGoverning(sense, byLaneCount);
   // Per lane count: what a legal placement on the surface could add beyond the one found. No
   // placement exceeds the sample's optimum on the surface by more than m·k·ΣW·ε, and the
   // sample's optimum exceeds the found placement's true value by what was just measured.
-  const gaps = byLaneCount.map((r, i) => Math.max(0, r.multiplePresence * results[i].total - sgn * r.value) + r.multiplePresence * r.loadedLanes * shape.totalWeight * eps);
+  // With the lane load, each lane adds its interpolation's deviation and q·(length sampled)·ε
+  // (the strip integral of an error of at most ε per unit area, over its width, times q/width).
+  const laneExtra = lane ? lane.deviation + (options.laneLoad?.intensity ?? DESIGN_LANE_LOAD) * (xs[xs.length - 1] - xs[0]) * eps : 0;
+  const gaps = byLaneCount.map((r, i) => Math.max(0, r.multiplePresence * results[i].total - sgn * r.value) + r.multiplePresence * r.loadedLanes * (shape.totalWeight * eps + laneExtra));
   let method = 'plain';
   const env = surface.errorEnvelope;
   if (env && eps > 0 && Math.max(...gaps) > (options.tightenAbove ?? 0.005) * Math.abs(g.value)) {
     // Search the sample raised by the envelope: an upper bound of every placement on the surface.
     const raised = raisedRows(surface, sgn) ?? rows.map((row) => row.map((v, i) => v + sgn * env[i]));
-    const upper = searchSample(xs, ys, raised, surface.extent, rules, shape, sgn, counts, directions);
+    const raisedLane = laneOf(raised);
+    const upper = searchSample(xs, ys, raised, surface.extent, rules, shape, sgn, counts, directions, raisedLane);
     work.wheelLineEvaluations += upper.work.wheelLineEvaluations;
     work.exactLanes += upper.work.exactLanes;
     upper.results.forEach((u, i) => {
       const r = byLaneCount[i];
-      const gap = Math.max(0, r.multiplePresence * u.total - sgn * r.value);
+      const gap = Math.max(0, r.multiplePresence * (u.total + r.loadedLanes * (raisedLane ? raisedLane.deviation : 0)) - sgn * r.value);
       if (gap < gaps[i]) {
         gaps[i] = gap;
         method = 'raised';
@@ -651,11 +690,12 @@ export function governingSurfacePlacement(
       : method === 'raised'
         ? 'exact for the sampled representation; bounded against the surface by a search of the sample raised by its measured error envelope'
         : `exact for the sampled representation; bounded against the surface by m·k·ΣW·ε plus the sample's excess at the placement found (ε, measured at cell and edge midpoints, is ${percent(eps / surface.maxOrdinate)} of the largest ordinate)`;
+  const laneText = lane ? `; the lane load (Art. 3.6.1.2.4) centred on each vehicle, interpolated across the deck between knots ${lane.knots.length > 1 ? 'at most 1 ft apart' : ''} (its largest measured deviation is in the bound)` : '';
   return {
     ...g,
     sense,
     byLaneCount,
-    tolerance: { kind: 'sampled', absolute: bound, representationError: eps, text },
+    tolerance: { kind: 'sampled', absolute: bound, representationError: eps, text: text + laneText },
     work,
   };
 }
