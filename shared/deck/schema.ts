@@ -185,6 +185,10 @@ export const diaphragmSchema = z.strictObject({
   includeInGrillage: z.boolean().default(true),
 });
 
+/** The loads a refined (grillage) run may use (deck field `refinedLoading`). */
+export const REFINED_LOADINGS = ['design-truck', 'hl93'] as const;
+export type RefinedLoading = (typeof REFINED_LOADINGS)[number];
+
 export const policySchema = z.strictObject({
   /** Art. 2.5.2.7.1: the exterior girder carries no less than an interior girder. */
   exteriorNotLessThanInterior: z.boolean().default(false),
@@ -245,6 +249,12 @@ export const deckSchema = z
     /** One entry per support line (spans + 1), from the first abutment. */
     supports: z.array(supportSchema).min(2, 'a deck needs at least two support lines'),
     diaphragms: diaphragmSchema,
+    /**
+     * The loads of the refined (grillage) factors: 'design-truck' (default), the design truck
+     * alone; 'hl93', the design truck or the design tandem, each with 33 % dynamic load
+     * allowance and the design lane load in every loaded lane (shared/grillage/refinedFactors.ts).
+     */
+    refinedLoading: z.enum(REFINED_LOADINGS, { error: "refined loading must be 'design-truck' or 'hl93'" }).default('design-truck'),
     policy: policySchema.default({ exteriorNotLessThanInterior: false, leverRuleWithoutMultiplePresence: false, floorAtEqualShare: false, rigidSectionAnyType: false }),
     loadModifiers: loadModifierSchema.default({ ductility: 1, redundancy: 1, importance: 1 }),
   })

@@ -60,7 +60,9 @@ import { assertDeck, DeckInputError, type Deck } from '../deck/schema.js';
 import type { TraceStep } from '../trace.js';
 import { effectLocations, type EffectLocation } from '../lrfd/spanLengths.js';
 import { buildFactorRow, RESULT_CAUTION, type FactorEffect, type FactorRow, type GirderKind } from '../lrfd/factors.js';
-import { DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from '../loads/vehicles.js';
+import { DESIGN_TRUCK, FATIGUE_TRUCK } from '../loads/vehicles.js';
+import { assertLoadingFits, beamLineEffect, loadingWords, strengthLoads, type TargetLoad } from './refinedLoads.js';
+import type { RefinedLoading } from '../deck/schema.js';
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
 import { placementRulesForDeck, type Placement, type PlacementRules } from '../placement/rules.js';
 import { checkPoints, sampledFromGrid, type SampledSurface } from '../placement/sampledSurface.js';
@@ -165,8 +167,10 @@ export interface RefinedLane {
   axleSpacing?: number;
   /** Axle x (m), weight (N), contribution before m (N·m or N), counted or neglected. */
   axles: { x: number; weight: number; contribution: number; counted: boolean }[];
-  /** The lane's contribution before m. */
+  /** The lane's contribution before m (its vehicle's; the lane load's is `laneLoadEffect`). */
   effect: number;
+  /** The design lane load's contribution before m (0 without the lane load). */
+  laneLoadEffect: number;
 }
 
 export interface RefinedFactor {
@@ -287,12 +291,6 @@ export function refinedEffectKind(f: Pick<RefinedFactor, 'point'>): 'moment' | '
   return f.point.kind === 'moment' || f.point.kind === 'support-moment' ? 'moment' : 'force';
 }
 
-/** One load a target is searched under: its vehicle in every loaded lane. */
-interface TargetLoad {
-  vehicle: Vehicle;
-  /** Why this load belongs to the target (trace). */
-  reason: string;
-}
 
 interface Target {
   girder: number;
@@ -366,12 +364,9 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
   const targets: Target[] = [];
   const momentPoints: number[] = [];
   const N = deck.spans.length;
-  const truck: TargetLoad = { vehicle: DESIGN_TRUCK, reason: 'one design truck per loaded lane' };
-  const fatigue: TargetLoad = { vehicle: FATIGUE_TRUCK, reason: 'one fatigue truck' };
-  const overPier: TargetLoad = {
-    vehicle: DESIGN_TRUCK,
-    reason: 'one design truck per loaded lane; the 90 % two-truck load of Art. 3.6.1.3.1 is not placed on the grillage, the one-truck ratio stands for it',
-  };
+  const truck = strengthLoads(deck.refinedLoading, false);
+  const fatigue: TargetLoad = { vehicle: FATIGUE_TRUCK, laneLoad: false, reason: 'one fatigue truck' };
+  const overPier = strengthLoads(deck.refinedLoading, true);
   const wants = (e: RefinedEffect) => effects.includes(e);
   const add = (r: GrillageResponse, list: Omit<Target, 'response' | 'surface'>[]) => {
     const chosen = list.filter((t) => wants(t.effect));
@@ -386,7 +381,7 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
       momentPoints.push(x);
       const common = { girder: g, span: s, point: { kind: 'moment' as const, fraction: f, x }, sense: 'positive' as const, beam: gb.beam, beamResponse: { kind: 'moment' as const, x: gb.starts[s] + f * gb.beam.spans[s] } };
       add({ kind: 'girder-moment', girder: g, span: s, fraction: f }, [
-        { ...common, effect: 'moment', loads: [truck] },
+        { ...common, effect: 'moment', loads: truck },
         { ...common, effect: 'fatigue-moment', loads: [fatigue] },
       ]);
     }
@@ -396,7 +391,7 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
       for (const side of sides) {
         const common = { girder: g, span: side === 'right' ? j : j - 1, point: { kind: 'shear' as const, support: j, side, x: gb.xsup[j] }, sense: side === 'right' ? ('positive' as const) : ('negative' as const), beam: gb.beam, beamResponse: { kind: 'shear' as const, x: xBeam, side } };
         add({ kind: 'girder-shear', girder: g, support: j, side }, [
-          { ...common, effect: 'shear', loads: [truck] },
+          { ...common, effect: 'shear', loads: truck },
           { ...common, effect: 'fatigue-shear', loads: [fatigue] },
         ]);
       }
@@ -404,11 +399,11 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
       if (interiorPier) {
         // negative moment at the girder's node on the support line (the end of span j and the start of span j+1)
         add({ kind: 'girder-moment', girder: g, span: j - 1, fraction: 1 }, [
-          { girder: g, span: j - 1, effect: 'negative-moment', point: { kind: 'support-moment', support: j, x: gb.xsup[j] }, sense: 'negative', loads: [overPier], beam: gb.beam, beamResponse: { kind: 'moment', x: xBeam } },
+          { girder: g, span: j - 1, effect: 'negative-moment', point: { kind: 'support-moment', support: j, x: gb.xsup[j] }, sense: 'negative', loads: overPier, beam: gb.beam, beamResponse: { kind: 'moment', x: xBeam } },
         ]);
       }
       add({ kind: 'reaction', girder: g, support: j }, [
-        { girder: g, span: j === N ? j - 1 : j, effect: 'reaction', point: { kind: 'reaction', support: j, x: gb.xsup[j] }, sense: 'positive', loads: [interiorPier ? overPier : truck], beam: gb.beam, beamResponse: { kind: 'reaction', support: j } },
+        { girder: g, span: j === N ? j - 1 : j, effect: 'reaction', point: { kind: 'reaction', support: j, x: gb.xsup[j] }, sense: 'positive', loads: interiorPier ? overPier : truck, beam: gb.beam, beamResponse: { kind: 'reaction', support: j } },
       ]);
     }
   });
@@ -441,11 +436,12 @@ function searchTarget(t: Target, sampled: SampledSurface, source: InfluenceSurfa
       laneCounts: fatigue ? [1] : undefined,
       multiplePresence: !fatigue,
       source,
+      ...(load.laneLoad ? { laneLoad: {} } : {}),
     });
-    const key = `${JSON.stringify(t.beam.spans)}|${JSON.stringify(t.beamResponse)}|${load.vehicle.name}|${t.sense}`;
+    const key = `${JSON.stringify(t.beam.spans)}|${JSON.stringify(t.beamResponse)}|${load.vehicle.name}|${load.laneLoad}|${t.sense}`;
     let B = beamEffects.get(key);
     if (B === undefined) {
-      B = maxVehicleEffect(influenceLine(t.beam, t.beamResponse), load.vehicle, t.sense).value;
+      B = beamLineEffect(t.beam, t.beamResponse, load, t.sense);
       beamEffects.set(key, B);
     }
     const sgn = t.sense === 'positive' ? 1 : -1;
@@ -489,6 +485,7 @@ function factorOfTarget(t: Target, outcomes: LoadOutcome[], girderCount: number)
       direction: p.direction as 1 | -1,
       axles: l.axles ?? [],
       effect: l.vehicleValue,
+      laneLoadEffect: l.laneLoadValue,
     };
     if (p.axleSpacing !== undefined) out.axleSpacing = p.axleSpacing;
     return out;
@@ -532,7 +529,9 @@ function factorTrace(t: Target, outcomes: LoadOutcome[], gov: LoadOutcome, beamG
       label: `Grillage: ${label}, governing placement of ${s.loadedLanes} loaded lane${s.loadedLanes > 1 ? 's' : ''} (${o.load.reason})`,
       formula: fatigue
         ? 'E_g = max over legal placements of Σ_axles ½·W·(η(x, y_L) + η(x, y_R)), one lane, no m'
-        : 'E_g = max over k and legal placements of m(k)·Σ_lanes Σ_axles ½·W·(η(x, y_L) + η(x, y_R))',
+        : o.load.laneLoad
+          ? 'E_g = max over k and legal placements of m(k)·Σ_lanes [Σ_axles ½·W·(η(x, y_L) + η(x, y_R)) + (q/w)·∫ max(0, ∫_strip η dy) dx]'
+          : 'E_g = max over k and legal placements of m(k)·Σ_lanes Σ_axles ½·W·(η(x, y_L) + η(x, y_R))',
       inputs: [
         { symbol: 'k', description: 'loaded lanes', value: s.loadedLanes, kind: 'none' },
         { symbol: 'm', description: 'multiple presence factor', value: s.multiplePresence, kind: 'none' },
@@ -544,7 +543,9 @@ function factorTrace(t: Target, outcomes: LoadOutcome[], gov: LoadOutcome, beamG
     });
     steps.push({
       label: `Beam line: one lane (${o.load.reason}), ${t.beamResponse.kind} ${where}`,
-      formula: 'E_1 = max over positions and directions of Σ W·η_beam(x) (axles that do not contribute neglected)',
+      formula: o.load.laneLoad
+        ? 'E_1 = max over positions and directions of Σ W·η_beam(x) (axles that do not contribute neglected) + q·∫ max(0, η_beam) dx'
+        : 'E_1 = max over positions and directions of Σ W·η_beam(x) (axles that do not contribute neglected)',
       inputs: t.beam.spans.map((L, i) => ({ symbol: `L${i + 1}`, description: 'span length along the girder', value: L, kind: 'length' as const })),
       value: o.beamLineEffect,
       kind,
@@ -627,16 +628,17 @@ function recordConvergence(deck: Deck, options: RefinedOptions, segmentsPerSpan:
 }
 
 /** The run's own trace step: which loads the refined factors use, and why. */
-function loadsTrace(laneCount: number, continuous: boolean): TraceStep {
+function loadsTrace(laneCount: number, continuous: boolean, loading: RefinedLoading): TraceStep {
+  const words = loadingWords(loading);
   return {
     label: 'Vehicles of the refined factors',
-    formula: 'design truck alone (strength); fatigue truck, one lane, no m (fatigue)',
+    formula: words.formula,
     inputs: [{ symbol: 'NL', description: 'design lanes', value: laneCount, kind: 'none' }],
     value: laneCount,
     kind: 'none',
-    article: 'AASHTO LRFD Art. 3.6.1.2.2, 3.6.1.3.1, 3.6.1.4.1; ratio as Art. 4.6.2.2 defines its factors',
+    article: 'AASHTO LRFD Art. 3.6.1.2, 3.6.1.3.1, 3.6.1.4.1, Table 3.6.2.1-1; ratio as Art. 4.6.2.2 defines its factors',
     note:
-      'the empirical factors were calibrated as girder-to-beam ratios under truck loads, so the truck alone gives the comparable ratio' +
+      words.note +
       (continuous
         ? '; over interior supports (negative moment, reactions) the factor is the one-truck ratio: the 90 % two-truck load of Art. 3.6.1.3.1 governs the beam line there but is not placed on the grillage, so the factor applied to it assumes the two trucks share out as one does'
         : ''),
@@ -657,6 +659,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
   progress({ phase: 'model', done: 0, total: 1 });
   const model = options.model ?? buildGrillage(deck, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN, ...options.grillage });
   const rules = placementRulesForDeck(deck);
+  assertLoadingFits(deck.refinedLoading, rules);
   const beams = girderBeams(model, deck.continuous);
   const { responses, targets, momentPoints } = refinedTargets(deck, beams, effects);
   const surfaces = influenceSurfaces(model, responses);
@@ -684,7 +687,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
     rows,
     rowSources,
     findings: [...model.findings, ...boundFindings(deck, factors, effects)],
-    trace: [...model.trace, loadsTrace(rules.laneCount, deck.continuous)],
+    trace: [...model.trace, loadsTrace(rules.laneCount, deck.continuous, deck.refinedLoading)],
     caution: RESULT_CAUTION,
   };
 }
