@@ -591,6 +591,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   w.heading('Refined / code ratios and the possible reduction in girder moment', 2);
   if (!s.refined.available) w.text(s.refined.note, { color: MUTED });
   else {
+    w.text(`Loads of the refined factors: ${s.refined.loads}.`, { color: MUTED });
     w.table(
       ['Girder', 'Effect', 'Where', 'Grillage g', 'Code g', 'Ratio'],
       s.refined.ratios.map((r) => [`${r.girder} (${r.girderKind})`, EFFECT_WORDS[r.effect], r.location, factor(r.refined), factor(r.code), r.ratio.toFixed(3)]),

@@ -219,3 +219,23 @@ describe('owner-policy switches', () => {
     expect(store.draft.policy?.rigidSectionAnyType).toBe(true);
   });
 });
+
+describe('loads of the refined analysis', () => {
+  it('offers the design truck alone (the default) or HL-93 with the lane load, and sets the deck field', async () => {
+    await openPanel('policy');
+    const group = wrapper.find('[data-test="refined-loading"]');
+    expect(group.exists()).toBe(true);
+    // the group is named by its heading (a screen reader reads the question with the choices)
+    const labelId = group.attributes('aria-labelledby');
+    expect(wrapper.find(`#${labelId}`).text()).toBe('Loads of the refined (grillage) analysis');
+    expect(store.draft.refinedLoading ?? 'design-truck').toBe('design-truck');
+    expect(wrapper.find('[data-test="refined-loading-hl93"]').text()).toContain('0.64 klf lane load in every loaded lane');
+    await wrapper.find('[data-test="refined-loading-hl93"] input').trigger('change');
+    await flushPromises();
+    expect(store.draft.refinedLoading).toBe('hl93');
+    expect(store.issues).toEqual([]);
+    await wrapper.find('[data-test="refined-loading-truck"] input').trigger('change');
+    await flushPromises();
+    expect(store.draft.refinedLoading).toBe('design-truck');
+  });
+});

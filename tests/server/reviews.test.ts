@@ -150,6 +150,8 @@ describe('the refined-analysis summary', () => {
       expect(e.value).toBeRelativelyClose(e.baseValue * e.skewFactor, 1e-12);
     }
     expect(summary.refined.available).toBe(true);
+    // the deck keeps the default loads of the refined run, and the summary says which
+    expect(summary.refined.loads).toBe('design truck alone (strength); fatigue truck, one lane, no m (fatigue)');
     // The per-lane HL-93 LL+IM moment at midspan of the 110 ft simple span, by hand
     // (Art. 3.6.1.2.2 truck with the middle axle at midspan: 32·27.5 + 32·20.5 + 8·20.5 kip·ft,
     // IM 33 % per Art. 3.6.2.1; lane load 0.64·110²/8 per Art. 3.6.1.2.4).

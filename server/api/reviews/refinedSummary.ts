@@ -21,6 +21,7 @@ import { codeResultsOf, deckOf } from './versionResults.js';
 import { refinedResultsOf, storedRefinedResults, type RefinedResults, type Requester } from './refinedResults.js';
 import { claimConditions, type RefinedClaimConditions } from '../../../shared/review/claimConditions.js';
 import type { Deck } from '../../../shared/deck/schema.js';
+import { loadingWords } from '../../../shared/grillage/refinedLoads.js';
 import type { RefinedPool } from '../../compute/refinedPool.js';
 import { perLaneMaxMoment } from '../../reports/envelopes.js';
 import { codeFactorForGirder, isRatioEffect, largestClaimableReduction, momentReductionTable, type MomentReduction, type RatioEffect } from '../../../shared/review/reductions.js';
@@ -80,6 +81,8 @@ export interface RefinedSummary {
     /** Why no refined result is shown, when none is. */
     note: string;
     source: string;
+    /** The loads the refined factors were searched under (the deck's refinedLoading), in words. */
+    loads: string;
     ratios: RatioRow[];
     momentReductions: MomentReduction[];
     /** The largest reduction among the claimable rows of momentReductions (reductions.ts), or null. */
@@ -206,6 +209,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
       available: refined.factors !== null,
       note: refined.note,
       source: refined.source,
+      loads: loadingWords(deck.refinedLoading).formula,
       ratios,
       momentReductions: reductions,
       largestReduction: largest,

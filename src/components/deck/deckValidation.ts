@@ -104,6 +104,7 @@ export function describePath(path: readonly (string | number)[]): string {
     diaphragms: 'Diaphragms',
     policy: 'Policies',
     loadModifiers: 'Load modifiers',
+    refinedLoading: 'Loads of the refined analysis',
   };
   const head = String(path[0] ?? '');
   const rest = path.slice(1).map((p) => (typeof p === 'number' ? `#${p + 1}` : p));
