@@ -3,7 +3,9 @@
  * each support side, reactions, fatigue), as a designer starts them:
  *   1. the FHWA prestressed example deck (public/examples/fhwa-psc-step-5-1.deck.json; two
  *      continuous 110 ft spans, 20° skew, six girders), default mesh;
- *   2. 8 girders × 40 segments per span, one 100 ft span, 45° skew.
+ *   2. the same deck under the HL-93 loading (refinedLoading 'hl93': truck or tandem with IM
+ *      and the lane load; no target of its own, printed for comparison);
+ *   3. 8 girders × 40 segments per span, one 100 ft span, 45° skew.
  * Target for each: under 200 ms in Node on this machine. Prints the wall and CPU medians, the
  * largest stated bound in lanes and in % of its factor, and how many factors meet the bound
  * target. Figures only; nothing is asserted (the machine may be busy).
@@ -53,4 +55,5 @@ const root = join(import.meta.dirname, '..', '..');
 const f = JSON.parse(readFileSync(join(root, 'public/examples/fhwa-psc-step-5-1.deck.json'), 'utf8'));
 console.log('Refined runs, every effect');
 run('FHWA prestressed example deck, default mesh', assertDeck(deckFromDisplay(f.deck, f.units)), 5);
+run('FHWA example deck, HL-93 loading (truck or tandem + lane)', assertDeck({ ...deckFromDisplay(f.deck, f.units), refinedLoading: 'hl93' } as never), 3);
 run('8 girders × 40 segments, 100 ft, 45° skew', steelGirderDeck({ girders: 8, spacingFt: 8, spansFt: [100], skew: 45 }), 5);
