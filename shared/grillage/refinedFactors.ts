@@ -640,7 +640,7 @@ function loadsTrace(laneCount: number, continuous: boolean, loading: RefinedLoad
     note:
       words.note +
       (continuous
-        ? '; over interior supports (negative moment, reactions) the factor is the one-truck ratio: the 90 % two-truck load of Art. 3.6.1.3.1 governs the beam line there but is not placed on the grillage, so the factor applied to it assumes the two trucks share out as one does'
+        ? `; over interior supports (negative moment, reactions) the factor is the ${loading === 'hl93' ? 'one-vehicle ratio (truck or tandem, with the lane load)' : 'one-truck ratio'}: the 90 % two-truck load of Art. 3.6.1.3.1 governs the beam line there but is not placed on the grillage, so the factor applied to it assumes the two trucks share out as one does`
         : ''),
   };
 }
