@@ -366,7 +366,8 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
   const N = deck.spans.length;
   const truck = strengthLoads(deck.refinedLoading, false);
   const fatigue: TargetLoad = { vehicle: FATIGUE_TRUCK, laneLoad: false, reason: 'one fatigue truck' };
-  const overPier = strengthLoads(deck.refinedLoading, true);
+  // the two trucks' headway may reach twice the deck's length: the second truck can always leave the girder
+  const overPier = strengthLoads(deck.refinedLoading, true, 2 * deck.spans.reduce((a, sp) => a + sp.length, 0));
   const wants = (e: RefinedEffect) => effects.includes(e);
   const add = (r: GrillageResponse, list: Omit<Target, 'response' | 'surface'>[]) => {
     const chosen = list.filter((t) => wants(t.effect));
@@ -436,7 +437,7 @@ function searchTarget(t: Target, sampled: SampledSurface, source: InfluenceSurfa
       laneCounts: fatigue ? [1] : undefined,
       multiplePresence: !fatigue,
       source,
-      ...(load.laneLoad ? { laneLoad: {} } : {}),
+      ...(load.laneLoad ? { laneLoad: load.laneIntensity !== undefined ? { intensity: load.laneIntensity } : {} } : {}),
     });
     const key = `${JSON.stringify(t.beam.spans)}|${JSON.stringify(t.beamResponse)}|${load.vehicle.name}|${load.laneLoad}|${t.sense}`;
     let B = beamEffects.get(key);
@@ -639,8 +640,8 @@ function loadsTrace(laneCount: number, continuous: boolean, loading: RefinedLoad
     article: 'AASHTO LRFD Art. 3.6.1.2, 3.6.1.3.1, 3.6.1.4.1, Table 3.6.2.1-1; ratio as Art. 4.6.2.2 defines its factors',
     note:
       words.note +
-      (continuous
-        ? `; over interior supports (negative moment, reactions) the factor is the ${loading === 'hl93' ? 'one-vehicle ratio (truck or tandem, with the lane load)' : 'one-truck ratio'}: the 90 % two-truck load of Art. 3.6.1.3.1 governs the beam line there but is not placed on the grillage, so the factor applied to it assumes the two trucks share out as one does`
+      (continuous && loading !== 'hl93'
+        ? '; over interior supports (negative moment, reactions) the factor is the one-truck ratio: the 90 % two-truck load of Art. 3.6.1.3.1 governs the beam line there but is not placed on the grillage, so the factor applied to it assumes the two trucks share out as one does'
         : ''),
   };
 }

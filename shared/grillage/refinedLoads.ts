@@ -12,13 +12,16 @@
  *   effect. The same load is on the beam line of the denominator, (1 + IM)·vehicle + lane, so
  *   g × the beam line's LL+IM is the girder's LL+IM, as with the code's factors. Truck and
  *   tandem are two loads of the target: the factor is the largest girder effect over the
- *   largest beam-line effect, and the row names the governing vehicle.
+ *   largest beam-line effect, and the row names the governing vehicle. For negative moment and
+ *   the reactions over interior piers of a continuous deck a third load joins them (Art.
+ *   3.6.1.3.1): 90 % of two design trucks (14 ft rear spacings, at least 50 ft from the rear
+ *   axle of one to the lead axle of the other), with IM, and 90 % of the lane load.
  * Fatigue is always one fatigue truck without the lane load (Art. 3.6.1.4.1).
  * Units: N, m; the lane load N/m.
  */
 import { DeckInputError, type RefinedLoading } from '../deck/schema.js';
 import { DESIGN_LANE_LOAD, DESIGN_TANDEM, DESIGN_TRUCK, LANE_LOAD_WIDTH, type Vehicle } from '../loads/vehicles.js';
-import { IM_STRENGTH_SERVICE } from '../loads/beamLine.js';
+import { IM_STRENGTH_SERVICE, TWO_TRUCK_REDUCTION, twoDesignTrucks } from '../loads/beamLine.js';
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
 import { uniformLoadEffect } from '../loads/movingLoad.js';
 import type { Sense } from '../placement/evaluate.js';
@@ -30,6 +33,8 @@ export interface TargetLoad {
   vehicle: Vehicle;
   /** The design lane load in every loaded lane (Art. 3.6.1.2.4). */
   laneLoad: boolean;
+  /** The lane load's intensity, N/m (default 0.64 klf; 90 % of it with two trucks). */
+  laneIntensity?: number;
   /** Why this load belongs to the target (trace). */
   reason: string;
 }
@@ -45,14 +50,27 @@ const TANDEM_IM = scaled(DESIGN_TANDEM, WITH_IM);
 const HL93_WORDS = `with ${Math.round(IM_STRENGTH_SERVICE * 100)} % dynamic load allowance (Table 3.6.2.1-1) and the design lane load (Art. 3.6.1.2.4) in each loaded lane`;
 const PIER_WORDS = 'the 90 % two-truck load of Art. 3.6.1.3.1 is not placed on the grillage, the one-truck ratio stands for it';
 
-/** The loads of a strength target (moment, shear, reaction; `overPier`: negative moment or an interior reaction of a continuous deck). */
-export function strengthLoads(loading: RefinedLoading, overPier: boolean): TargetLoad[] {
+/**
+ * The loads of a strength target (moment, shear, reaction). `overPier`: negative moment or an
+ * interior reaction of a continuous deck; `maxHeadway` (m) the longest gap between the two
+ * trucks there (long enough for the second truck to leave the girder).
+ */
+export function strengthLoads(loading: RefinedLoading, overPier: boolean, maxHeadway = 0): TargetLoad[] {
   if (loading === 'hl93') {
-    const tail = overPier ? `; ${PIER_WORDS}` : '';
-    return [
-      { vehicle: TRUCK_IM, laneLoad: true, reason: `one design truck per loaded lane, ${HL93_WORDS}${tail}` },
-      { vehicle: TANDEM_IM, laneLoad: true, reason: `one design tandem per loaded lane, ${HL93_WORDS}${tail}` },
+    const loads: TargetLoad[] = [
+      { vehicle: TRUCK_IM, laneLoad: true, reason: `one design truck per loaded lane, ${HL93_WORDS}` },
+      { vehicle: TANDEM_IM, laneLoad: true, reason: `one design tandem per loaded lane, ${HL93_WORDS}` },
     ];
+    if (overPier) {
+      const factor = TWO_TRUCK_REDUCTION * WITH_IM;
+      loads.push({
+        vehicle: { ...scaled(twoDesignTrucks(Math.max(maxHeadway, 1)), factor), name: `two design trucks × ${factor.toFixed(3)}` },
+        laneLoad: true,
+        laneIntensity: TWO_TRUCK_REDUCTION * DESIGN_LANE_LOAD,
+        reason: `90 % of two design trucks (14 ft rear spacings, at least 50 ft apart) with ${Math.round(IM_STRENGTH_SERVICE * 100)} % dynamic load allowance and 90 % of the lane load, per loaded lane (Art. 3.6.1.3.1)`,
+      });
+    }
+    return loads;
   }
   return [{ vehicle: DESIGN_TRUCK, laneLoad: false, reason: overPier ? `one design truck per loaded lane; ${PIER_WORDS}` : 'one design truck per loaded lane' }];
 }
@@ -61,7 +79,7 @@ export function strengthLoads(loading: RefinedLoading, overPier: boolean): Targe
 export function beamLineEffect(beam: BeamModel, response: BeamResponse, load: TargetLoad, sense: Sense): number {
   const line = influenceLine(beam, response);
   const vehicle = maxVehicleEffect(line, load.vehicle, sense).value;
-  return load.laneLoad ? vehicle + uniformLoadEffect(line, DESIGN_LANE_LOAD, sense) : vehicle;
+  return load.laneLoad ? vehicle + uniformLoadEffect(line, load.laneIntensity ?? DESIGN_LANE_LOAD, sense) : vehicle;
 }
 
 /** The loading is possible on this roadway: the lane load's 10 ft width fits in a design lane. */
@@ -78,7 +96,7 @@ export function loadingWords(loading: RefinedLoading): { formula: string; note: 
   if (loading === 'hl93') {
     return {
       formula: 'HL-93: (1 + IM)·(design truck or design tandem) + design lane load, in each loaded lane (strength); fatigue truck, one lane, no m (fatigue)',
-      note: 'chosen for this deck (refined loading "hl93"): the same load is on the beam line, so g × the beam line\u2019s LL+IM is the girder\u2019s LL+IM; the lane load spreads more evenly across the deck than the truck does and lowers the ratio a little',
+      note: 'chosen for this deck (refined loading "hl93"): the same load is on the beam line, so g × the beam line\u2019s LL+IM is the girder\u2019s LL+IM; the lane load spreads more evenly across the deck than the truck does and lowers the ratio a little; over interior piers 90 % of two trucks and of the lane load is searched too (Art. 3.6.1.3.1)',
     };
   }
   return {

@@ -37,6 +37,7 @@
  */
 import type { Vehicle } from '../loads/vehicles.js';
 import { PlacementError } from './rules.js';
+import { bestTwoGroupsOnLine } from './twoGroups.js';
 
 /** Width of the ramp to zero beyond a non-zero end ordinate, m. */
 export const RAMP = 1e-6;
@@ -441,7 +442,8 @@ function sweep(xs: Float64Array, vs: Float64Array, X: Float64Array, m: number, c
  * is not active when the effect is positive, since a contributing axle is on the deck). For a candidate family "axle a at breakpoint j" the other axles
  * sit at X[j] + constant, so their ordinates come from forward sweeps, and the rear axle's
  * best ordinate over the interval its spacing sweeps comes from a sliding-window maximum
- * over the stations. Vehicles with several axles behind the gap use the plain form.
+ * over the stations. Vehicles with several axles behind the gap (two rigid groups) use
+ * twoGroups.ts, or the plain form when adverse axles are counted.
  */
 export function bestVehicleOnLine(
   line: StationLine,
@@ -453,8 +455,9 @@ export function bestVehicleOnLine(
   const n = v.weights.length;
   const g = v.gapIndex;
   const variable = g < n;
-  if (variable && n - g !== 1) return bestVehicleOnLineReference(line, v, directions, options);
   const positive = options.countAdverse !== true;
+  // several axles behind the gap (two trucks): two rigid groups, exact by twoGroups.ts
+  if (variable && n - g !== 1) return positive ? bestTwoGroupsOnLine(line, v, directions) : bestVehicleOnLineReference(line, v, directions, options);
   const xs = line.xs;
   const vs = line.values;
   const ns = xs.length;

@@ -611,6 +611,9 @@ function nudged(source: SurfaceLike, lane: LanePlacement, rules: PlacementRules,
   return best;
 }
 
+/** Lane-load tables per sampled surface (laneStrip.ts), kept while the surface lives. */
+const laneTables = new WeakMap<SampledSurface, Map<string, LaneStripTable>>();
+
 /** Adds each lane's lane-load effect (signed, response units) to an evaluated placement, m included. */
 function withLaneLoad(effect: PlacementEffect, laneValues: number[]): void {
   let sum = 0;
@@ -641,8 +644,18 @@ export function governingSurfacePlacement(
   const shape = vehicleShape(vehicle);
   const directions = options.directions ?? [1, -1];
   const reach = wheelReach(rules);
-  const laneOf = (r: ArrayLike<number>[]) => (options.laneLoad ? laneStripTable(xs, ys, r, sgn, rules.gauge, reach.uLo, reach.uHi, options.laneLoad) : null);
-  const lane = laneOf(rows);
+  /** The lane load's table on the sample (or its raised form), shared by every vehicle searched on this surface. */
+  const laneOf = (r: ArrayLike<number>[], raised: boolean) => {
+    const load = options.laneLoad;
+    if (!load) return null;
+    const key = `${raised}|${sgn}|${load.intensity ?? ''}|${load.width ?? ''}|${rules.gauge}|${reach.uLo}|${reach.uHi}`;
+    let tables = laneTables.get(surface);
+    if (!tables) laneTables.set(surface, (tables = new Map()));
+    let t = tables.get(key);
+    if (!t) tables.set(key, (t = laneStripTable(xs, ys, r, sgn, rules.gauge, reach.uLo, reach.uHi, load)));
+    return t;
+  };
+  const lane = laneOf(rows, false);
   const { results, work } = searchSample(xs, ys, rows, surface.extent, rules, shape, sgn, counts, directions, lane);
   const source = options.source ?? surface.source;
   const eps = surface.representationError;
@@ -666,7 +679,7 @@ export function governingSurfacePlacement(
   if (env && eps > 0 && Math.max(...gaps) > (options.tightenAbove ?? 0.005) * Math.abs(g.value)) {
     // Search the sample raised by the envelope: an upper bound of every placement on the surface.
     const raised = raisedRows(surface, sgn) ?? rows.map((row) => row.map((v, i) => v + sgn * env[i]));
-    const raisedLane = laneOf(raised);
+    const raisedLane = laneOf(raised, true);
     const upper = searchSample(xs, ys, raised, surface.extent, rules, shape, sgn, counts, directions, raisedLane);
     work.wheelLineEvaluations += upper.work.wheelLineEvaluations;
     work.exactLanes += upper.work.exactLanes;

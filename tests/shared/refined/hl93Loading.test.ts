@@ -16,6 +16,7 @@ import { assertDeck, DeckInputError } from '../../../shared/deck/schema.js';
 import { computeRefinedFactors } from '../../../shared/grillage/refinedFactors.js';
 import { assertLoadingFits, beamLineEffect, strengthLoads } from '../../../shared/grillage/refinedLoads.js';
 import { influenceLine, maxVehicleEffect } from '../../../shared/loads/influenceLine.js';
+import { twoDesignTrucks } from '../../../shared/loads/beamLine.js';
 import { DESIGN_TANDEM, DESIGN_TRUCK } from '../../../shared/loads/vehicles.js';
 import { placementRules } from '../../../shared/placement/rules.js';
 import { fromUs, toUs } from '../../../shared/units.js';
@@ -44,6 +45,15 @@ describe('the HL-93 load of the refined run on the beam line', () => {
     const [truck] = strengthLoads('hl93', true);
     const vehicle = 1.33 * maxVehicleEffect(influenceLine(beam, response), DESIGN_TRUCK, 'negative').value;
     expect(toUs.kipFt(beamLineEffect(beam, response, truck, 'negative') - vehicle)).toBeRelativelyClose(-0.125 * 0.64 * 100 ** 2, 1e-6);
+    // over the pier a third load: 90 % of two design trucks with IM and 90 % of the lane load (Art. 3.6.1.3.1)
+    const loads = strengthLoads('hl93', true, 4 * L);
+    expect(loads).toHaveLength(3);
+    const two = loads[2];
+    expect(two.vehicle.axles).toHaveLength(6);
+    const twoTrucks = maxVehicleEffect(influenceLine(beam, response), twoDesignTrucks(4 * L), 'negative').value;
+    expect(beamLineEffect(beam, response, two, 'negative')).toBeRelativelyClose(0.9 * 1.33 * twoTrucks + 0.9 * fromUs.kipFt(-0.125 * 0.64 * 100 ** 2), 1e-6);
+    // within a span (positive moment, shear) only the truck and the tandem
+    expect(strengthLoads('hl93', false)).toHaveLength(2);
   });
 });
 
@@ -74,6 +84,23 @@ describe('refined factors under HL-93', () => {
     expect(below).toBeGreaterThan(0);
     const loadsStep = hl93.trace.find((s) => s.label === 'Vehicles of the refined factors')!;
     expect(loadsStep.formula).toContain('(1 + IM)·(design truck or design tandem) + design lane load');
+  });
+
+  it('a continuous deck: negative moment and pier reactions weigh 90 % of two trucks with the lane load too, and name the governing vehicle', () => {
+    const two = assertDeck({ ...quarryCreekDeck(), spans: [{ length: ft(90) }, { length: ft(90) }], continuous: true, supports: [{ skew: 0 }, { skew: 0 }, { skew: 0 }], refinedLoading: 'hl93' } as never);
+    const r = computeRefinedFactors(two, { effects: ['negative-moment', 'reaction'] });
+    const overPier = r.factors.filter((f) => f.point.kind === 'support-moment' || (f.point.kind === 'reaction' && f.point.support === 1));
+    expect(overPier.length).toBe(2 * 6);
+    for (const f of overPier) {
+      expect(f.loads.map((l) => l.vehicle)).toEqual(['design truck × 1.33', 'design tandem × 1.33', 'two design trucks × 1.197']);
+      // the factor is the largest girder effect over the largest beam-line effect of the three loads
+      const sgn = f.sense === 'positive' ? 1 : -1;
+      const eg = Math.max(...f.loads.map((l) => sgn * l.girderEffect));
+      const e1 = Math.max(...f.loads.map((l) => sgn * l.beamLineEffect));
+      expect(f.value).toBeRelativelyClose(eg / e1, 1e-12);
+    }
+    // at the end bearings only the truck and the tandem
+    for (const f of r.factors.filter((x) => x.point.kind === 'reaction' && x.point.support !== 1)) expect(f.loads).toHaveLength(2);
   });
 
   it('equilibrium of the beam line: g × the beam line LL+IM is the girder effect the search found', () => {
