@@ -14,6 +14,8 @@
  * A bad file prints each offending field path and rule and exits with code 1 (2 for a
  * usage error); no stack trace is printed.
  */
+import { showLengths } from '../../shared/quantities/inText.js';
+import type { TraceStep } from '../../shared/trace.js';
 import { readFileSync } from 'node:fs';
 import {
   assertDeck,
@@ -121,6 +123,16 @@ function placementJson(refined: RefinedResult, index: number, units: UnitSystem)
   };
 }
 
+/** Findings with their lengths in the file's units (shared/quantities/inText.ts). */
+function findingsIn<F extends { message: string }>(findings: readonly F[], units: UnitSystem): F[] {
+  return findings.map((f) => ({ ...f, message: showLengths(f.message, units) }));
+}
+
+/** Trace steps with the lengths of their labels and notes in the file's units. */
+function traceIn(steps: readonly TraceStep[], units: UnitSystem): TraceStep[] {
+  return steps.map((s) => ({ ...s, label: showLengths(s.label, units), ...(s.note !== undefined ? { note: showLengths(s.note, units) } : {}) }));
+}
+
 export function jsonDocument(result: CodeFactorResult, units: UnitSystem, refined?: RefinedResult) {
   const d = result.derived;
   const grillageRows = refined
@@ -131,7 +143,7 @@ export function jsonDocument(result: CodeFactorResult, units: UnitSystem, refine
         method: r.method,
         value: r.value,
         governing: false,
-        findings: r.findings,
+        findings: findingsIn(r.findings, units),
         id: r.id,
         girderNumber: r.girderNumber,
         loadedLanes: r.loadedLanes,
@@ -139,7 +151,7 @@ export function jsonDocument(result: CodeFactorResult, units: UnitSystem, refine
         baseValue: r.baseValue,
         skewFactor: r.skewFactor,
         adopted: false,
-        trace: r.trace,
+        trace: traceIn(r.trace, units),
         placement: placementJson(refined, i, units),
       }))
     : [];
@@ -178,7 +190,7 @@ export function jsonDocument(result: CodeFactorResult, units: UnitSystem, refine
       method: r.method,
       value: r.value,
       governing: r.governing,
-      findings: r.findings,
+      findings: findingsIn(r.findings, units),
       id: r.id,
       girderNumber: r.girderNumber,
       loadedLanes: r.loadedLanes,
@@ -186,15 +198,15 @@ export function jsonDocument(result: CodeFactorResult, units: UnitSystem, refine
       baseValue: r.baseValue,
       skewFactor: r.skewFactor,
       adopted: r.adopted,
-      trace: r.trace,
+      trace: traceIn(r.trace, units),
       leverRule: r.leverRule,
       rigidSection: r.rigidSection,
       })),
       ...grillageRows,
     ],
     governing: result.governing.map((g) => ({ ...g, location: { ...g.location, spanLength: quantity(g.location.spanLength, 'length', units) } })),
-    findings: result.findings,
-    trace: result.trace,
+    findings: findingsIn(result.findings, units),
+    trace: traceIn(result.trace, units),
     ...(refined
       ? {
           refined: {
@@ -204,8 +216,8 @@ export function jsonDocument(result: CodeFactorResult, units: UnitSystem, refine
             mesh: refined.mesh,
             stations: refined.stations,
             designLanes: refined.designLanes,
-            findings: refined.findings,
-            trace: refined.trace,
+            findings: findingsIn(refined.findings, units),
+            trace: traceIn(refined.trace, units),
             caution: refined.caution,
           },
         }
@@ -259,7 +271,7 @@ function refinedText(refined: RefinedResult, units: UnitSystem): string[] {
   out.push('Lane edges and wheel lines: y from girder 1, positive right; front axle: x along girder 1 from support line 1 (→ travelling up-station).');
   if (refined.findings.length) {
     out.push('Findings of the refined analysis');
-    for (const f of refined.findings) out.push(`  - [${f.code}] ${f.message}`);
+    for (const f of refined.findings) out.push(`  - [${f.code}] ${showLengths(f.message, units)}`);
   }
   return out;
 }
@@ -309,7 +321,7 @@ export function textReport(result: CodeFactorResult, units: UnitSystem, refined?
   out.push('');
   out.push('Findings');
   if (result.findings.length === 0) out.push('  none');
-  for (const f of result.findings) out.push(`  - [${f.code}] ${f.message} (${f.article})`);
+  for (const f of result.findings) out.push(`  - [${f.code}] ${showLengths(f.message, units)} (${f.article})`);
   if (refined) {
     out.push('');
     out.push(...refinedText(refined, units));

@@ -8,6 +8,7 @@
  * record, the cautions and a signature block. Quantities are printed in the project's unit
  * system; formula inputs also show the unit the code's formula uses when it differs.
  */
+import { showLengths } from '../../shared/quantities/inText.js';
 import PDFDocument from 'pdfkit';
 import { SECTION_TYPE_DESCRIPTIONS, type Deck } from '../../shared/deck/schema.js';
 import { deckGeometry } from '../../shared/deck/geometry.js';
@@ -202,9 +203,9 @@ class Writer {
     const s = stepForDisplay(step);
     const inputs = traceInputsText(s, this.units);
     const lines: { text: string; weight: Weight; color: string }[] = [
-      { text: `${s.label}:  ${s.formula}`, weight: 'regular', color: INK },
+      { text: `${showLengths(s.label, this.units)}:  ${s.formula}`, weight: 'regular', color: INK },
       ...(inputs ? [{ text: `with ${inputs}`, weight: 'regular' as Weight, color: MUTED }] : []),
-      { text: `= ${qty(s.value, s.kind, this.units, { zeroBelowPrecision: true })}   [${s.article}]${s.note ? `   ${s.note}` : ''}`, weight: 'bold', color: ACCENT },
+      { text: `= ${qty(s.value, s.kind, this.units, { zeroBelowPrecision: true })}   [${s.article}]${s.note ? `   ${showLengths(s.note, this.units)}` : ''}`, weight: 'bold', color: ACCENT },
     ];
     this.doc.fontSize(8);
     const w = CONTENT_W - indent - 6;
@@ -517,7 +518,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
       printed.set(signature, rowTitle(r));
       for (const s of r.trace) w.traceStep(s);
     }
-    for (const f of r.findings) w.text(`Finding (${f.code}): ${f.message}${f.message.includes(f.article) ? '' : ` [${f.article}]`}`, { size: 8, color: WHEEL, indent: 10 });
+    for (const f of r.findings) w.text(`Finding (${f.code}): ${showLengths(f.message, data.units)}${f.message.includes(f.article) ? '' : ` [${f.article}]`}`, { size: 8, color: WHEEL, indent: 10 });
     w.y += 4;
   }
 
@@ -544,7 +545,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   // ── 6 Findings ──────────────────────────────────────────────────────────────────────
   w.heading('6  Findings');
   if (data.code.findings.length === 0) w.text('No findings: every formula was used within its range of applicability.', { color: MUTED });
-  else w.table(['Kind', 'Finding', 'Article'], data.code.findings.map((f) => [f.code, f.message, f.article]), [0.13, 0.6, 0.27]);
+  else w.table(['Kind', 'Finding', 'Article'], data.code.findings.map((f) => [f.code, showLengths(f.message, data.units), f.article]), [0.13, 0.6, 0.27]);
 
   // ── 7 Girder effects ────────────────────────────────────────────────────────────────
   w.heading('7  Girder live-load effects (HL-93, LL+IM)');
@@ -577,7 +578,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   for (const i of s.indicators) w.text(`• ${i}`);
   w.heading('Range of applicability, fallbacks and caps', 2);
   if (s.rangeFindings.length === 0) w.text('None: every empirical formula was used within its range.', { color: MUTED });
-  else w.table(['Kind', 'Finding', 'Article'], s.rangeFindings.map((f) => [f.code, f.message, f.article]), [0.13, 0.6, 0.27]);
+  else w.table(['Kind', 'Finding', 'Article'], s.rangeFindings.map((f) => [f.code, showLengths(f.message, data.units), f.article]), [0.13, 0.6, 0.27]);
   w.heading('Skew', 2);
   w.text(s.skew.words);
   if (s.skew.effects.length) {

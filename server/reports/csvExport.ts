@@ -5,6 +5,7 @@
  * unit); the last line carries the caution. Text cells that look like formulas are neutralised;
  * numbers stay numbers.
  */
+import { showLengths } from '../../shared/quantities/inText.js';
 import { toCsv, type CsvCell } from './csvText.js';
 import { toUs, unitSymbol, toDisplay, type QuantityKind, type UnitSystem } from '../../shared/units.js';
 import type { ReportData } from './reportData.js';
@@ -43,11 +44,11 @@ export function factorsCsv(data: ReportData): string {
       r.adopted,
       r.governing,
       factorArticle(r),
-      r.findings.map((f) => f.message).join(' | '),
+      r.findings.map((f) => showLengths(f.message, data.units)).join(' | '),
     ]);
   }
   for (const g of data.refinedRows ?? []) {
-    rows.push([g.id, g.girderKind, g.girderNumber ?? null, g.effect, g.location.description, len(g.location.spanLength), g.lanes, g.loadedLanes ?? null, g.method, g.baseValue, g.skewFactor, g.value, g.adopted, g.governing, data.summary.refined.source, g.findings.map((f) => f.message).join(' | ')]);
+    rows.push([g.id, g.girderKind, g.girderNumber ?? null, g.effect, g.location.description, len(g.location.spanLength), g.lanes, g.loadedLanes ?? null, g.method, g.baseValue, g.skewFactor, g.value, g.adopted, g.governing, data.summary.refined.source, g.findings.map((f) => showLengths(f.message, data.units)).join(' | ')]);
   }
   return csv(rows);
 }

@@ -46,6 +46,7 @@ import { DeckInputError, type Deck } from '../deck/schema.js';
 import type { TraceStep } from '../trace.js';
 import type { GridMember } from './assemble.js';
 import { GrillageInputError } from './errors.js';
+import { lengthInText } from '../quantities/inText.js';
 import { deckStiffness, type DeckStiffness, type StiffnessOptions } from './stiffness.js';
 import { meshQualityFindings, type GrillageFinding } from './quality.js';
 
@@ -291,7 +292,7 @@ function longitudinalLineSpecs(deck: Deck, geom: ReturnType<typeof deckGeometry>
     findings.push({
       code: 'edge-line-skipped',
       severity: 'info',
-      message: `edge members need an overhang of at least ${MIN_EDGE_OVERHANG} m: none on the ${!edgeLeft && !edgeRight ? 'left or right' : !edgeLeft ? 'left' : 'right'}`,
+      message: `edge members need an overhang of at least ${lengthInText(MIN_EDGE_OVERHANG)}: none on the ${!edgeLeft && !edgeRight ? 'left or right' : !edgeLeft ? 'left' : 'right'}`,
     });
   }
   if (edgeLeft) lineSpecs.push({ kind: 'edge', girder: -1, side: 'left', y: geom.deckLeft, label: 'the left edge member' });

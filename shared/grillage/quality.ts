@@ -1,6 +1,7 @@
 /**
  * Findings of the grillage (typed data, never console output) and the mesh-quality checks.
- * Units: lengths m; ratios dimensionless.
+ * Units: lengths m; ratios dimensionless. Lengths inside messages are tokens shown in the
+ * reader's units (shared/quantities/inText.ts).
  *
  * Checks
  * - Panel aspect ratio: longer side / shorter side of each grid panel (between two adjacent
@@ -11,6 +12,7 @@
  *   span (the guidance for beam-slab grids in AASHTO LRFD Art. 4.6.3.3, from memory).
  */
 import type { GrillageMesh } from './mesh.js';
+import { lengthInText } from '../quantities/inText.js';
 
 export type GrillageFindingCode =
   | 'layout'
@@ -86,8 +88,8 @@ export function meshQualityFindings(mesh: GrillageMesh): GrillageFinding[] {
       severity: 'warning',
       message:
         `grid panel aspect ratio ${worst.ratio.toFixed(2)} exceeds ${PANEL_ASPECT_LIMIT} ` +
-        `(span ${worst.span + 1}, between ${mesh.lines[worst.line].label} and ${mesh.lines[worst.line + 1].label}, near x = ${worst.x.toFixed(2)} m: ` +
-        `${worst.longitudinal.toFixed(3)} m along the girders by ${worst.transverse.toFixed(3)} m across); refine or coarsen the mesh density`,
+        `(span ${worst.span + 1}, between ${mesh.lines[worst.line].label} and ${mesh.lines[worst.line + 1].label}, near x = ${lengthInText(worst.x)}: ` +
+        `${lengthInText(worst.longitudinal)} along the girders by ${lengthInText(worst.transverse)} across); refine or coarsen the mesh density`,
       article: 'AASHTO LRFD Art. 4.6.3.3.1',
       values: { ratio: worst.ratio, limit: PANEL_ASPECT_LIMIT, x: worst.x, span: worst.span },
     });

@@ -57,6 +57,7 @@
  * against the surface (search.ts); `tolerance.factor` states it in lanes.
  */
 import { assertDeck, DeckInputError, type Deck } from '../deck/schema.js';
+import { lengthInText } from '../quantities/inText.js';
 import type { TraceStep } from '../trace.js';
 import { effectLocations, type EffectLocation } from '../lrfd/spanLengths.js';
 import { buildFactorRow, RESULT_CAUTION, type FactorEffect, type FactorRow, type GirderKind } from '../lrfd/factors.js';
@@ -522,7 +523,7 @@ function factorTrace(t: Target, outcomes: LoadOutcome[], gov: LoadOutcome, beamG
   const kind = refinedEffectKind(t);
   const article = fatigue ? FATIGUE_ARTICLE : REFINED_ARTICLE;
   const label = responseLabel(t.response);
-  const where = 'x' in t.beamResponse ? `at ${t.beamResponse.x.toFixed(3)} m along the girder` : `at support ${t.beamResponse.support + 1}`;
+  const where = 'x' in t.beamResponse ? `at ${lengthInText(t.beamResponse.x)} along the girder` : `at support ${t.beamResponse.support + 1}`;
   const steps: TraceStep[] = [];
   for (const o of outcomes) {
     const s = o.search;

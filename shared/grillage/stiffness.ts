@@ -26,6 +26,7 @@
 import { deckGeometry } from '../deck/geometry.js';
 import { compositeInertia, derivedSection, eccentricityEg } from '../deck/section.js';
 import { DeckInputError, type Deck } from '../deck/schema.js';
+import { lengthInText } from '../quantities/inText.js';
 import type { TraceStep } from '../trace.js';
 import type { GrillageFinding } from './quality.js';
 import { checkDiaphragmInput, diaphragmModulus, diaphragmStiffness } from './diaphragmStiffness.js';
@@ -239,7 +240,7 @@ function diaphragmTrace(deck: Deck, bays: number[], E: number, Ed: number, facto
       article = 'equivalent beam of a truss cross-frame (common practice, from memory)';
     }
     return {
-      label: `Diaphragm member (${what}, bay of ${S.toFixed(3)} m)`,
+      label: `Diaphragm member (${what}, bay of ${lengthInText(S)})`,
       formula,
       inputs,
       value: p.I,

@@ -30,6 +30,8 @@ describe('factors --refined', () => {
     const plain = runIn([example, '--json']);
     const withRefined = runIn([example, '--json', '--refined']);
     expect(withRefined.code).toBe(0);
+    // lengths inside findings and trace labels are in the file's units (shared/quantities/inText.ts): no token is left
+    expect(withRefined.out).not.toContain('{{len:');
     const a = JSON.parse(plain.out) as { factors: { id: string; value: number; method: string }[] };
     const b = JSON.parse(withRefined.out) as {
       factors: { id: string; girder: number | string; method: string; value: number; lanes: string; effect: string; governing: boolean; placement?: any }[];
