@@ -352,7 +352,7 @@ export function run(argv: string[], write: (s: string) => void, writeError: (s: 
           refined = computeRefinedFactors(deck);
         } catch (e) {
           if (e instanceof DeckInputError) {
-            const lines = e.issues.map((i) => `  ${df.prefix}${i.path.join('.') || '(deck)'}: ${i.message}`);
+            const lines = e.issues.map((i) => `  ${df.prefix}${i.path.join('.') || '(deck)'}: ${showLengths(i.message, df.units)}`);
             throw new CliError(`${file}: the code factors can be computed (run without --refined), but the grillage cannot model this deck\n${lines.join('\n')}`, 1);
           }
           throw e;

@@ -533,7 +533,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   w.text(
     data.summary.refined.available
       ? 'Code methods beside the grillage (refined) value, the largest of the girders of each kind. * adopted value of the lane case; bold rows hold the governing value.'
-      : `Code methods side by side. * adopted value of the lane case; bold rows hold the governing value. ${data.summary.refined.note}`,
+      : `Code methods side by side. * adopted value of the lane case; bold rows hold the governing value. ${showLengths(data.summary.refined.note, data.units)}`,
     { color: MUTED },
   );
   const cmp = comparisonRows(data);
@@ -590,7 +590,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
     );
   }
   w.heading('Refined / code ratios and the possible reduction in girder moment', 2);
-  if (!s.refined.available) w.text(s.refined.note, { color: MUTED });
+  if (!s.refined.available) w.text(showLengths(s.refined.note, data.units), { color: MUTED });
   else {
     w.text(`Loads of the refined factors: ${s.refined.loads}.`, { color: MUTED });
     w.table(

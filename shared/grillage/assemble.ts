@@ -11,6 +11,7 @@
  * left out. For each restrained DOF the coupling row K[r, free] is kept, so that support
  * reactions are R = F_r − K[r, free]·u (and, with the adjoint, influence surfaces of them).
  */
+import { lengthInText } from '../quantities/inText.js';
 import { DOF_PER_NODE, gridMemberStiffness } from './element.js';
 import { BandLDLT, SingularPivotError, SymmetricBandMatrix } from './bandSolver.js';
 import { adjacencyFromEdges, nodeBandwidth, reverseCuthillMcKee } from './numbering.js';
@@ -79,7 +80,7 @@ const DIRS: GridDirection[] = ['w', 'rx', 'ry'];
 function describe(def: GridDefinition, node: number): { where: string; girder?: number } {
   if (def.describeNode) return def.describeNode(node);
   const p = def.nodes[node];
-  return { where: `node ${node} at (x ${p.x.toFixed(3)} m, y ${p.y.toFixed(3)} m)` };
+  return { where: `node ${node} at (x ${lengthInText(p.x)}, y ${lengthInText(p.y)})` };
 }
 
 /** Validates the grid: finite coordinates, positive stiffness, members of non-zero length. */

@@ -308,13 +308,13 @@ function checkMemberLengths(deck: Deck, geom: ReturnType<typeof deckGeometry>, s
       throw new GrillageInputError(
         'degenerate-mesh',
         ['girders', deck.girders.kind === 'offsets' ? 'offsets' : 'spacing', ...(deck.girders.kind === 'offsets' ? [k + 1] : [])],
-        `girders ${k + 1} and ${k + 2} are ${sp.toFixed(4)} m apart: the grillage needs at least ${MIN_GIRDER_SPACING} m between girders`,
+        `girders ${k + 1} and ${k + 2} are ${lengthInText(sp)} apart: the grillage needs at least ${lengthInText(MIN_GIRDER_SPACING)} between girders`,
       );
     }
   });
   spanLengths.forEach((len, j) => {
     if (len < MIN_SPAN_LENGTH) {
-      throw new GrillageInputError('degenerate-mesh', ['spans', j, 'length'], `span ${j + 1} is ${len.toFixed(4)} m long: the grillage needs spans of at least ${MIN_SPAN_LENGTH} m`);
+      throw new GrillageInputError('degenerate-mesh', ['spans', j, 'length'], `span ${j + 1} is ${lengthInText(len)} long: the grillage needs spans of at least ${lengthInText(MIN_SPAN_LENGTH)}`);
     }
   });
 }
@@ -329,7 +329,7 @@ function checkSpansOpen(geom: ReturnType<typeof deckGeometry>, lineSpecs: LineSp
         throw new GrillageInputError(
           'unbuildable-deck',
           ['supports', j + 1, 'skew'],
-          `support lines ${j + 1} and ${j + 2} meet or cross at y = ${y.toFixed(3)} m (span ${j + 1} would be ${len.toFixed(3)} m long there): reduce the difference in skew or lengthen the span`,
+          `support lines ${j + 1} and ${j + 2} meet or cross at y = ${lengthInText(y)} (span ${j + 1} would be ${lengthInText(len)} long there): reduce the difference in skew or lengthen the span`,
         );
       }
     }
@@ -694,7 +694,7 @@ export function describeMeshNode(mesh: GrillageMesh, node: number): { where: str
   const x1 = supportX(mesh, p.span + 1, p.y);
   const f = (p.x - x0) / (x1 - x0);
   return {
-    where: `${line.label} at x = ${p.x.toFixed(3)} m (span ${p.span + 1}, ${f.toFixed(3)} of the span)`,
+    where: `${line.label} at x = ${lengthInText(p.x)} (span ${p.span + 1}, ${f.toFixed(3)} of the span)`,
     girder: line.kind === 'girder' ? line.girder : undefined,
   };
 }

@@ -18,6 +18,7 @@
  *   spans at an interior support: the two bearings of that girder, one per span end, together).
  * Loads: downward positive; a load exactly on a node belongs to the member starting there.
  */
+import { lengthInText } from '../quantities/inText.js';
 import type { AssembledGrid } from './assemble.js';
 import { consistentLoads, simpleSpanMoment } from './element.js';
 import { GrillageInputError } from './errors.js';
@@ -251,7 +252,7 @@ export function analyseLoads(model: GrillageModel, loads: PointLoad[]): Grillage
       throw new GrillageInputError('invalid-load', ['loads', k], `load ${k + 1}: x, y and P must be finite numbers`);
     }
     if (!t.onDeck(ld.x, ld.y)) {
-      throw new GrillageInputError('invalid-load', ['loads', k], `load ${k + 1} at (x ${ld.x.toFixed(3)} m, y ${ld.y.toFixed(3)} m) is off the deck`);
+      throw new GrillageInputError('invalid-load', ['loads', k], `load ${k + 1} at (x ${lengthInText(ld.x)}, y ${lengthInText(ld.y)}) is off the deck`);
     }
     totalLoad += ld.P;
     shares.push(...t.shares(ld.x, ld.y, ld.P));

@@ -227,5 +227,7 @@ describe('the limits of the pool', () => {
     } finally {
       await pool.close();
     }
-  });
+    // Running out of memory takes the worker about 26 s on a quiet 2-core machine (the collector
+    // works harder as the heap fills) and more on a busy one: a generous limit, against a hang only.
+  }, 120_000);
 });

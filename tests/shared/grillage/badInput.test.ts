@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { showLengths } from '../../../shared/quantities/inText.js';
 import { DeckInputError, type DeckInput } from '../../../shared/deck/schema.js';
 import {
   GrillageInputError,
@@ -54,7 +55,9 @@ describe('bad input gives a typed error naming the cause', () => {
     const e = thrown(() => buildGrillage(steelDeck({ girders: 8, skew: 40, spansFt: [60, 60], continuous: true }), { torsionFactor: 0 })) as GrillageMechanismError;
     expect(e).toBeInstanceOf(GrillageMechanismError);
     expect(e.location.direction).toBe('rx');
-    expect(e.location.where).toMatch(/^girder \d at x = [\d.]+ m \(span \d, [\d.]+ of the span\)$/);
+    // the node's x is a length token, shown in the reader's units (shared/quantities/inText.ts)
+    expect(showLengths(e.location.where, 'SI')).toMatch(/^girder \d at x = [\d.]+ m \(span \d, [\d.]+ of the span\)$/);
+    expect(showLengths(e.location.where, 'US')).toMatch(/^girder \d at x = [\d.]+ ft \(span \d, [\d.]+ of the span\)$/);
   });
 
   it('a mechanism in a bare grid: a beam line free to twist names the node and the twist direction', () => {
