@@ -14,8 +14,10 @@
  * positive right). Girders are 0-based in `girder`, 1-based in `girderNumber`.
  *
  * Choices, and why
- * - Vehicle: the design truck alone (8, 32, 32 kip, rear spacing searched 14–30 ft), no
- *   tandem and no lane load. The empirical factors of Art. 4.6.2.2 were calibrated as ratios
+ * - Vehicle (the deck's `refinedLoading`, refinedLoads.ts): by default the design truck alone
+ *   (8, 32, 32 kip, rear spacing searched 14–30 ft), no tandem and no lane load; 'hl93' searches
+ *   (1 + IM)·(truck or tandem) with the lane load instead, and over interior piers 90 % of two
+ *   trucks with 90 % of the lane load too. The empirical factors of Art. 4.6.2.2 were calibrated as ratios
  *   of girder to beam-line effects under truck loading on refined models (the NCHRP 12-26
  *   study behind them; from memory), and the code applies one factor to the whole HL-93
  *   beam-line effect; the ratio under the truck is therefore the like-for-like number. A
@@ -32,11 +34,11 @@
  * - Negative moment: at each interior support of a continuous deck, the girder's moment at its
  *   node on the support line, sought negative (hogging), over one lane's beam-line moment
  *   there. Reactions: every bearing, upward positive (at a line between simple spans, both
- *   bearings of the girder together), over one lane's beam-line reaction. Both under the
- *   design truck: the 90 % two-truck load of Art. 3.6.1.3.1, which governs the beam line over
- *   interior piers of longer spans, is not placed on the grillage (the exact search has no fast
- *   path for several axles behind a variable gap), so the one-truck ratio stands for it; each
- *   such row's trace says so.
+ *   bearings of the girder together), over one lane's beam-line reaction. Under the default
+ *   loading (the design truck alone) the 90 % two-truck load of Art. 3.6.1.3.1, which governs
+ *   the beam line over interior piers of longer spans, is not placed, so the one-truck ratio
+ *   stands for it and each such row's trace says so; under 'hl93' it is one of the loads
+ *   searched (two trucks as two rigid axle groups, shared/placement/twoGroups.ts).
  * - A target may carry several loads; its factor is then the largest girder effect over the
  *   largest beam-line effect, so that g × the governing beam-line effect is the girder's
  *   governing effect.
