@@ -594,10 +594,10 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   else {
     w.text(`Loads of the refined factors: ${s.refined.loads}.`, { color: MUTED });
     w.table(
-      ['Girder', 'Effect', 'Where', 'Grillage g', 'Code g', 'Ratio'],
-      s.refined.ratios.map((r) => [`${r.girder} (${r.girderKind})`, EFFECT_WORDS[r.effect], r.location, factor(r.refined), factor(r.code), r.ratio.toFixed(3)]),
-      [0.18, 0.16, 0.18, 0.16, 0.16, 0.16],
-      { align: ['left', 'left', 'left', 'right', 'right', 'right'] },
+      ['Girder', 'Effect', 'Where', 'Grillage g', 'Governing load', 'Code g', 'Ratio'],
+      s.refined.ratios.map((r) => [`${r.girder} (${r.girderKind})`, EFFECT_WORDS[r.effect], r.location, factor(r.refined), r.vehicle ?? '—', factor(r.code), r.ratio.toFixed(3)]),
+      [0.14, 0.13, 0.16, 0.12, 0.21, 0.12, 0.12],
+      { align: ['left', 'left', 'left', 'right', 'left', 'right', 'right'] },
     );
     w.table(
       ['Girder', 'Where', `Per-lane M (${unitSymbol('moment', u)})`, `Code M (${unitSymbol('moment', u)})`, `Refined M (${unitSymbol('moment', u)})`, 'Reduction', 'Claimable'],

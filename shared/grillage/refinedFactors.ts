@@ -201,7 +201,8 @@ export interface RefinedFactor {
   loads: { vehicle: string; girderEffect: number; beamLineEffect: number; loadedLanes: number }[];
   placement: Placement;
   lanes: RefinedLane[];
-  byLaneCount: { loadedLanes: number; multiplePresence: number; factor: number; girderEffect: number; placement: Placement }[];
+  /** Per number of loaded lanes: the best over the loads, and the load (its vehicle's name) that gives it. */
+  byLaneCount: { loadedLanes: number; multiplePresence: number; factor: number; girderEffect: number; placement: Placement; vehicle: string }[];
   /**
    * The search's bound restated for the factor: `factor` in lanes, `percent` of the value,
    * `text` in those words; `meetsTarget` whether it is within BOUND_TARGET_LANES lanes and
@@ -474,8 +475,9 @@ function factorOfTarget(t: Target, outcomes: LoadOutcome[], girderCount: number)
   const tolerance: ToleranceStatement = { ...search.tolerance, absolute: Math.max(0, excess) };
   const bound = boundInLanes(tolerance, B, value);
   const byLaneCount = search.byLaneCount.map((_, i) => {
-    const best = outcomes.map((o) => o.search.byLaneCount[i]).reduce((a, b) => (sgn * b.value > sgn * a.value ? b : a));
-    return { loadedLanes: best.loadedLanes, multiplePresence: best.multiplePresence, factor: best.value / B, girderEffect: best.value, placement: best.placement };
+    const best = outcomes.reduce((a, b) => (sgn * b.search.byLaneCount[i].value > sgn * a.search.byLaneCount[i].value ? b : a));
+    const c = best.search.byLaneCount[i];
+    return { loadedLanes: c.loadedLanes, multiplePresence: c.multiplePresence, factor: c.value / B, girderEffect: c.value, placement: c.placement, vehicle: best.load.vehicle.name };
   });
   const lanes: RefinedLane[] = search.effect.lanes.map((l, i) => {
     const p = search.placement.lanes[i];
@@ -749,6 +751,7 @@ function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): {
       });
       if (!row.id.endsWith(`/g${f0.girderNumber}`)) row.id = `${row.id}/g${f0.girderNumber}`;
       row.bound = { lanes: bf.tolerance.factor, percent: bf.tolerance.percent, meetsTarget: bf.tolerance.meetsTarget };
+      row.vehicle = best.c.vehicle;
       rows.push(row);
       sources.push({ rowId: row.id, factorIndex: best.i, loadedLanes: best.c.loadedLanes });
     }

@@ -44,6 +44,8 @@ export interface RefinedFactor {
   bound?: FactorRow['bound'];
   /** The row's change at twice the mesh density (absent when not checked). */
   convergence?: FactorRow['convergence'];
+  /** The load that governs it (absent on results stored before rows named it). */
+  vehicle?: string;
 }
 
 /** Why a row's reduction is not claimed. */
@@ -82,6 +84,7 @@ export function governingPerGirder(rows: readonly FactorRow[]): RefinedFactor[] 
         value: r.value,
         ...(r.bound ? { bound: r.bound } : {}),
         ...(r.convergence ? { convergence: r.convergence } : {}),
+        ...(r.vehicle ? { vehicle: r.vehicle } : {}),
       });
     }
   }

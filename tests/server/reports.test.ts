@@ -165,6 +165,7 @@ describe('CSV exports', () => {
     const grillage = all.slice(codeRows.length);
     expect(grillage.length).toBeGreaterThan(0);
     expect(grillage.every((r) => r.method === 'grillage')).toBe(true);
+    expect(all.slice(0, codeRows.length).every((r) => r.governing_load === '')).toBe(true);
     const summary = (await reviewer.get(`/api/reviews/${reviewId}`)).body.summary;
     expect(summary.refined.available).toBe(true);
     // 6 girders × (moment, shear, reaction at each of the 2 supports)
@@ -172,6 +173,10 @@ describe('CSV exports', () => {
     for (const ratio of summary.refined.ratios) {
       const mine = grillage.filter((r) => Number(r.girder_number) === ratio.girder && r.effect === ratio.effect && r.row_id.includes(`/${ratio.locationKey}/`));
       expect(Math.max(...mine.map((r) => Number(r.value))), `${ratio.girder} ${ratio.effect}`).toBe(ratio.refined);
+      // the governing load of the row, the same in the CSV and the summary (the deck's default loading: the design truck)
+      expect(ratio.vehicle).toBe('design truck');
+      const top = mine.reduce((a, b) => (Number(b.value) > Number(a.value) ? b : a));
+      expect(top.governing_load).toBe(ratio.vehicle);
       expect(ratio.ratio).toBeRelativelyClose(ratio.refined / ratio.code, 1e-12);
     }
     // Symmetry of the symmetric deck: girder 1 and girder 6 have the same refined factors.

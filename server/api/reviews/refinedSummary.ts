@@ -59,6 +59,8 @@ export interface RatioRow {
   code: number;
   /** refined / code. */
   ratio: number;
+  /** The load that governs the refined factor (absent on results stored before rows named it). */
+  vehicle?: string;
 }
 
 export interface RefinedSummary {
@@ -158,7 +160,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
       if (!isRatioEffect(f.effect)) continue;
       const c = codeFactorForGirder(code, f.girder, count, f.effect, f.locationKey);
       if (!c || c.value <= 0) continue;
-      ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value });
+      ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value, ...(f.vehicle ? { vehicle: f.vehicle } : {}) });
     }
   }
   const reductions = reductionsOf(code, deck, refined);
