@@ -201,7 +201,7 @@ export interface RefinedFactor {
   loads: { vehicle: string; girderEffect: number; beamLineEffect: number; loadedLanes: number }[];
   placement: Placement;
   lanes: RefinedLane[];
-  /** Per number of loaded lanes: the best over the loads, and the load (its vehicle's name) that gives it. */
+  /** Per number of loaded lanes: the best over the loads, and the load (in words) that gives it. */
   byLaneCount: { loadedLanes: number; multiplePresence: number; factor: number; girderEffect: number; placement: Placement; vehicle: string }[];
   /**
    * The search's bound restated for the factor: `factor` in lanes, `percent` of the value,
@@ -369,7 +369,7 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
   const momentPoints: number[] = [];
   const N = deck.spans.length;
   const truck = strengthLoads(deck.refinedLoading, false);
-  const fatigue: TargetLoad = { vehicle: FATIGUE_TRUCK, laneLoad: false, reason: 'one fatigue truck' };
+  const fatigue: TargetLoad = { vehicle: FATIGUE_TRUCK, label: 'fatigue truck', laneLoad: false, reason: 'one fatigue truck' };
   // the two trucks' headway may reach twice the deck's length: the second truck can always leave the girder
   const overPier = strengthLoads(deck.refinedLoading, true, 2 * deck.spans.reduce((a, sp) => a + sp.length, 0));
   const wants = (e: RefinedEffect) => effects.includes(e);
@@ -477,7 +477,7 @@ function factorOfTarget(t: Target, outcomes: LoadOutcome[], girderCount: number)
   const byLaneCount = search.byLaneCount.map((_, i) => {
     const best = outcomes.reduce((a, b) => (sgn * b.search.byLaneCount[i].value > sgn * a.search.byLaneCount[i].value ? b : a));
     const c = best.search.byLaneCount[i];
-    return { loadedLanes: c.loadedLanes, multiplePresence: c.multiplePresence, factor: c.value / B, girderEffect: c.value, placement: c.placement, vehicle: best.load.vehicle.name };
+    return { loadedLanes: c.loadedLanes, multiplePresence: c.multiplePresence, factor: c.value / B, girderEffect: c.value, placement: c.placement, vehicle: best.load.label };
   });
   const lanes: RefinedLane[] = search.effect.lanes.map((l, i) => {
     const p = search.placement.lanes[i];

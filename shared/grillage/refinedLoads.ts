@@ -31,6 +31,8 @@ import { toUs } from '../units.js';
 /** One load a target is searched under: its vehicle in every loaded lane, with or without the lane load. */
 export interface TargetLoad {
   vehicle: Vehicle;
+  /** The load in a reader's words, for tables ("design truck", "HL-93 truck + lane"). */
+  label: string;
   /** The design lane load in every loaded lane (Art. 3.6.1.2.4). */
   laneLoad: boolean;
   /** The lane load's intensity, N/m (default 0.64 klf; 90 % of it with two trucks). */
@@ -58,13 +60,14 @@ const PIER_WORDS = 'the 90 % two-truck load of Art. 3.6.1.3.1 is not placed on t
 export function strengthLoads(loading: RefinedLoading, overPier: boolean, maxHeadway = 0): TargetLoad[] {
   if (loading === 'hl93') {
     const loads: TargetLoad[] = [
-      { vehicle: TRUCK_IM, laneLoad: true, reason: `one design truck per loaded lane, ${HL93_WORDS}` },
-      { vehicle: TANDEM_IM, laneLoad: true, reason: `one design tandem per loaded lane, ${HL93_WORDS}` },
+      { vehicle: TRUCK_IM, label: 'HL-93 truck + lane', laneLoad: true, reason: `one design truck per loaded lane, ${HL93_WORDS}` },
+      { vehicle: TANDEM_IM, label: 'HL-93 tandem + lane', laneLoad: true, reason: `one design tandem per loaded lane, ${HL93_WORDS}` },
     ];
     if (overPier) {
       const factor = TWO_TRUCK_REDUCTION * WITH_IM;
       loads.push({
         vehicle: { ...scaled(twoDesignTrucks(Math.max(maxHeadway, 1)), factor), name: `two design trucks × ${factor.toFixed(3)}` },
+        label: 'HL-93 90 % of two trucks + lane',
         laneLoad: true,
         laneIntensity: TWO_TRUCK_REDUCTION * DESIGN_LANE_LOAD,
         reason: `90 % of two design trucks (14 ft rear spacings, at least 50 ft apart) with ${Math.round(IM_STRENGTH_SERVICE * 100)} % dynamic load allowance and 90 % of the lane load, per loaded lane (Art. 3.6.1.3.1)`,
@@ -72,7 +75,7 @@ export function strengthLoads(loading: RefinedLoading, overPier: boolean, maxHea
     }
     return loads;
   }
-  return [{ vehicle: DESIGN_TRUCK, laneLoad: false, reason: overPier ? `one design truck per loaded lane; ${PIER_WORDS}` : 'one design truck per loaded lane' }];
+  return [{ vehicle: DESIGN_TRUCK, label: 'design truck', laneLoad: false, reason: overPier ? `one design truck per loaded lane; ${PIER_WORDS}` : 'one design truck per loaded lane' }];
 }
 
 /** One lane of the load on the beam line: the vehicle's extreme plus, with the lane load, q·∫ of the influence line's parts of the sense. */

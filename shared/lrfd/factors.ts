@@ -95,7 +95,7 @@ export interface FactorRow {
   bound?: { lanes: number; percent: number; meetsTarget: boolean };
   /** Refined moment rows: the value at twice the mesh density, its relative change, and whether that is within 1 %. */
   convergence?: { segmentsPerSpan: number; value: number; change: number; within: boolean };
-  /** Refined rows: the load that governs the row's lane case ("design truck", "design tandem × 1.33", …). */
+  /** Refined rows: the load that governs the row's lane case ("design truck", "HL-93 tandem + lane", …). */
   vehicle?: string;
   leverRule?: LeverRuleWorksheet;
   rigidSection?: RigidSectionWorksheet;

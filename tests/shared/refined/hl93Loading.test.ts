@@ -83,7 +83,7 @@ describe('refined factors under HL-93', () => {
     });
     expect(below).toBeGreaterThan(0);
     // every row names the load that governs its lane case
-    for (const r of hl93.rows) expect(r.effect.startsWith('fatigue') ? ['fatigue truck'] : ['design truck × 1.33', 'design tandem × 1.33']).toContain(r.vehicle);
+    for (const r of hl93.rows) expect(r.effect.startsWith('fatigue') ? ['fatigue truck'] : ['HL-93 truck + lane', 'HL-93 tandem + lane']).toContain(r.vehicle);
     for (const r of truck.rows) expect(r.vehicle).toBe(r.effect.startsWith('fatigue') ? 'fatigue truck' : 'design truck');
     const loadsStep = hl93.trace.find((s) => s.label === 'Vehicles of the refined factors')!;
     expect(loadsStep.formula).toContain('(1 + IM)·(design truck or design tandem) + design lane load');
