@@ -38,7 +38,7 @@ export function freePort(): Promise<number> {
   });
 }
 
-function serverEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
+function serverEnv(databaseUrl: string, port: number, extra: Record<string, string> = {}): NodeJS.ProcessEnv {
   return {
     ...process.env,
     NODE_ENV: 'development',
@@ -52,6 +52,7 @@ function serverEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
     LOG_REQUESTS: 'false',
     LOCAL_SMTP_PORT: '0',
     CLIENT_DIST: resolve(databaseUrl, '..', 'no-client'),
+    ...extra,
   };
 }
 
@@ -75,9 +76,10 @@ async function waitForHealth(url: string, child: ChildProcess, output: () => str
   throw new Error(`server did not answer /api/health within ${START_TIMEOUT_MS / 1000} s:\n${output()}`);
 }
 
-export async function startServer(databaseUrl: string): Promise<RunningServer> {
+/** Starts the real server on `databaseUrl`; `env` adds or overrides its settings (e.g. the pool's limits). */
+export async function startServer(databaseUrl: string, env: Record<string, string> = {}): Promise<RunningServer> {
   const port = await freePort();
-  const child = spawn(TSX, ['server/index.ts'], { cwd: REPO_ROOT, env: serverEnv(databaseUrl, port), stdio: ['ignore', 'pipe', 'pipe'], detached: true });
+  const child = spawn(TSX, ['server/index.ts'], { cwd: REPO_ROOT, env: serverEnv(databaseUrl, port, env), stdio: ['ignore', 'pipe', 'pipe'], detached: true });
   let text = '';
   child.stdout!.on('data', (b: Buffer) => (text += b.toString()));
   child.stderr!.on('data', (b: Buffer) => (text += b.toString()));
