@@ -594,10 +594,19 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   else {
     w.text(`Loads of the refined factors: ${s.refined.loads}.`, { color: MUTED });
     w.table(
-      ['Girder', 'Effect', 'Where', 'Grillage g', 'Governing load', 'Code g', 'Ratio'],
-      s.refined.ratios.map((r) => [`${r.girder} (${r.girderKind})`, EFFECT_WORDS[r.effect], r.location, factor(r.refined), r.vehicle ?? '—', factor(r.code), r.ratio.toFixed(3)]),
-      [0.14, 0.13, 0.16, 0.12, 0.21, 0.12, 0.12],
-      { align: ['left', 'left', 'left', 'right', 'left', 'right', 'right'] },
+      ['Girder', 'Effect', 'Where', 'Grillage g', 'Stated bound', 'Governing load', 'Code g', 'Ratio'],
+      s.refined.ratios.map((r) => [
+        `${r.girder} (${r.girderKind})`,
+        EFFECT_WORDS[r.effect],
+        r.location,
+        factor(r.refined),
+        r.bound ? `${r.bound.lanes.toFixed(4)} lanes${r.bound.meetsTarget ? '' : ' ± above target'}` : '—',
+        r.vehicle ?? '—',
+        factor(r.code),
+        r.ratio.toFixed(3),
+      ]),
+      [0.12, 0.11, 0.14, 0.1, 0.16, 0.17, 0.1, 0.1],
+      { align: ['left', 'left', 'left', 'right', 'right', 'left', 'right', 'right'] },
     );
     w.table(
       ['Girder', 'Where', `Per-lane M (${unitSymbol('moment', u)})`, `Code M (${unitSymbol('moment', u)})`, `Refined M (${unitSymbol('moment', u)})`, 'Reduction', 'Claimable'],

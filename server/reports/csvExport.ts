@@ -25,7 +25,7 @@ function csv(rows: CsvCell[][]): string {
 export function factorsCsv(data: ReportData): string {
   const u = data.units;
   const len = (m: number | undefined) => (m === undefined ? null : Number((u === 'US' ? toUs.ft(m) : m).toPrecision(12)));
-  const header = ['row_id', 'girder', 'girder_number', 'effect', 'location', `span_length_${u === 'US' ? 'ft' : 'm'}`, 'lanes', 'loaded_lanes', 'method', 'value_before_skew', 'skew_factor', 'value', 'adopted', 'governing', 'article', 'findings', 'governing_load'];
+  const header = ['row_id', 'girder', 'girder_number', 'effect', 'location', `span_length_${u === 'US' ? 'ft' : 'm'}`, 'lanes', 'loaded_lanes', 'method', 'value_before_skew', 'skew_factor', 'value', 'adopted', 'governing', 'article', 'findings', 'governing_load', 'bound_lanes', 'bound_percent', 'bound_meets_target'];
   const rows: CsvCell[][] = [header];
   for (const r of data.code.factors) {
     rows.push([
@@ -46,10 +46,13 @@ export function factorsCsv(data: ReportData): string {
       factorArticle(r),
       r.findings.map((f) => showLengths(f.message, data.units)).join(' | '),
       null,
+      null,
+      null,
+      null,
     ]);
   }
   for (const g of data.refinedRows ?? []) {
-    rows.push([g.id, g.girderKind, g.girderNumber ?? null, g.effect, g.location.description, len(g.location.spanLength), g.lanes, g.loadedLanes ?? null, g.method, g.baseValue, g.skewFactor, g.value, g.adopted, g.governing, data.summary.refined.source, g.findings.map((f) => showLengths(f.message, data.units)).join(' | '), g.vehicle ?? null]);
+    rows.push([g.id, g.girderKind, g.girderNumber ?? null, g.effect, g.location.description, len(g.location.spanLength), g.lanes, g.loadedLanes ?? null, g.method, g.baseValue, g.skewFactor, g.value, g.adopted, g.governing, data.summary.refined.source, g.findings.map((f) => showLengths(f.message, data.units)).join(' | '), g.vehicle ?? null, g.bound?.lanes ?? null, g.bound?.percent ?? null, g.bound ? g.bound.meetsTarget : null]);
   }
   return csv(rows);
 }

@@ -104,7 +104,7 @@ export interface RefinedSummary {
     source: string;
     /** The loads the refined factors were searched under, in words. */
     loads: string;
-    ratios: { girder: number; girderKind: string; effect: string; locationKey: string; location: string; refined: number; code: number; ratio: number; vehicle?: string }[];
+    ratios: { girder: number; girderKind: string; effect: string; locationKey: string; location: string; refined: number; code: number; ratio: number; vehicle?: string; bound?: { lanes: number; percent: number; meetsTarget: boolean } }[];
     momentReductions: { girder: number; girderKind: string; locationKey: string; location: string; code: number; refined: number; perLaneMoment: number; codeMoment: number; refinedMoment: number; reduction: number; reductionPercent: number; claimable: boolean; claim: string; designGirder: number; withheld: string[]; bound?: { lanes: number; percent: number; meetsTarget: boolean }; convergence?: { segmentsPerSpan: number; value: number; change: number; within: boolean } }[];
     largestReduction: { girder: number; girderKind: string; location: string; reductionPercent: number; reduction: number } | null;
   };

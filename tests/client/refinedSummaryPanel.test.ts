@@ -50,3 +50,41 @@ describe('the refined-analysis panel', () => {
     expect(w.text()).toContain('licensed');
   });
 });
+
+describe('the ratio table marks a bound that misses the target', () => {
+  it('shows each row\'s stated bound and its governing load; a miss reads "above target"', () => {
+    const summary = {
+      caution: 'c',
+      solverVersion: 'test',
+      source: 'computed',
+      deckName: 'd',
+      girderCount: 4,
+      rangeFindings: [],
+      otherFindings: [],
+      skew: { supports: [0, 0], largest: 0, words: 'square', effects: [] },
+      governing: [],
+      refined: {
+        available: true,
+        note: '',
+        source: 'grillage',
+        loads: 'design truck alone (strength); fatigue truck, one lane, no m (fatigue)',
+        ratios: [
+          { girder: 1, girderKind: 'exterior', effect: 'moment', locationKey: 'span1', location: 'span 1 (0.5 of the span)', refined: 0.7, code: 0.8, ratio: 0.875, vehicle: 'design truck', bound: { lanes: 0.002, percent: 0.29, meetsTarget: true } },
+          { girder: 1, girderKind: 'exterior', effect: 'shear', locationKey: 'span1', location: 'span 1 (support 1, right side)', refined: 0.8, code: 0.9, ratio: 0.889, vehicle: 'HL-93 truck + lane', bound: { lanes: 0.3947, percent: 48.79, meetsTarget: false } },
+        ],
+        momentReductions: [],
+        largestReduction: null,
+      },
+      indicators: [],
+    } as unknown as RefinedSummary;
+    const w = mount(RefinedSummaryPanel, { props: { summary, units: 'US' } });
+    const rows = w.findAll('[data-test="ratios"] tbody tr').filter((r) => r.findAll('td').length > 1);
+    expect(rows).toHaveLength(2);
+    expect(rows[0].text()).toContain('0.0020 lanes, 0.3 %');
+    expect(rows[0].text()).not.toContain('above target');
+    expect(rows[1].text()).toContain('0.3947 lanes, 48.8 % ± above target');
+    expect(rows[1].text()).toContain('HL-93 truck + lane');
+    expect(w.get('[data-test="refined-loads"]').text()).toContain('design truck alone');
+    w.unmount();
+  });
+});

@@ -177,6 +177,9 @@ describe('CSV exports', () => {
       expect(ratio.vehicle).toBe('design truck');
       const top = mine.reduce((a, b) => (Number(b.value) > Number(a.value) ? b : a));
       expect(top.governing_load).toBe(ratio.vehicle);
+      // the stated bound is in every table: the summary's ratio row and the CSV's row agree, and a miss is marked
+      expect(Number(top.bound_lanes)).toBeRelativelyClose(ratio.bound.lanes, 1e-9);
+      expect(top.bound_meets_target).toBe(String(ratio.bound.meetsTarget));
       expect(ratio.ratio).toBeRelativelyClose(ratio.refined / ratio.code, 1e-12);
     }
     // Symmetry of the symmetric deck: girder 1 and girder 6 have the same refined factors.

@@ -61,6 +61,8 @@ export interface RatioRow {
   ratio: number;
   /** The load that governs the refined factor (absent on results stored before rows named it). */
   vehicle?: string;
+  /** The refined factor's stated bound (absent on results stored before bounds were kept). */
+  bound?: FactorRow['bound'];
 }
 
 export interface RefinedSummary {
@@ -160,7 +162,7 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
       if (!isRatioEffect(f.effect)) continue;
       const c = codeFactorForGirder(code, f.girder, count, f.effect, f.locationKey);
       if (!c || c.value <= 0) continue;
-      ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value, ...(f.vehicle ? { vehicle: f.vehicle } : {}) });
+      ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value, ...(f.vehicle ? { vehicle: f.vehicle } : {}), ...(f.bound ? { bound: f.bound } : {}) });
     }
   }
   const reductions = reductionsOf(code, deck, refined);
