@@ -27,6 +27,7 @@
  */
 import { DESIGN_LANE_LOAD, LANE_LOAD_WIDTH } from '../loads/vehicles.js';
 import { fromUs } from '../units.js';
+import { cellIndex } from './sampledSurface.js';
 
 /** Spacing of the interpolation knots of Λ̃ across the roadway, 1 ft. */
 export const KNOT_STEP = fromUs.ft(1);
@@ -80,24 +81,12 @@ export function laneStripTable(xs: Float64Array, ys: Float64Array, rows: ArrayLi
     const f1 = rows[j + 1][i];
     return F[i * ny + j] + f0 * t + (0.5 * (f1 - f0) * t * t) / h;
   };
-  const cellOf = (y: number): number => {
-    if (y <= ys[0]) return 0;
-    if (y >= ys[ny - 1]) return ny - 2;
-    let lo = 0;
-    let hi = ny - 1;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1;
-      if (ys[mid] <= y) lo = mid;
-      else hi = mid;
-    }
-    return lo;
-  };
   const exact = (u: number): number => {
     const c = u + gauge / 2;
     const y0 = c - width / 2;
     const y1 = c + width / 2;
-    const j0 = cellOf(y0);
-    const j1 = cellOf(y1);
+    const j0 = cellIndex(ys, y0);
+    const j1 = cellIndex(ys, y1);
     let total = 0;
     let fPrev = sgn * (running(0, y1, j1) - running(0, y0, j0));
     for (let i = 1; i < nx; i++) {
@@ -136,15 +125,9 @@ export function laneStripTable(xs: Float64Array, ys: Float64Array, rows: ArrayLi
     const n = knots.length;
     if (u <= knots[0]) return values[0];
     if (u >= knots[n - 1]) return values[n - 1];
-    let lo = 0;
-    let hi = n - 1;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1;
-      if (knots[mid] <= u) lo = mid;
-      else hi = mid;
-    }
-    const t = (u - knots[lo]) / (knots[lo + 1] - knots[lo]);
-    return values[lo] + t * (values[lo + 1] - values[lo]);
+    const k = cellIndex(knots, u);
+    const t = (u - knots[k]) / (knots[k + 1] - knots[k]);
+    return values[k] + t * (values[k + 1] - values[k]);
   };
   return { knots, values, deviation, at, exact };
 }

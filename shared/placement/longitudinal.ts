@@ -206,7 +206,7 @@ export interface LineMaximum extends LongitudinalPosition {
 const TOL = 1e-9;
 
 /** Stations and zero crossings of a line: the breakpoints of its positive part. */
-function breakpointsOf(line: StationLine, withCrossings: boolean): Float64Array {
+export function breakpointsOf(line: StationLine, withCrossings: boolean): Float64Array {
   if (!withCrossings) return line.xs;
   const X = line.xs;
   const V = line.values;

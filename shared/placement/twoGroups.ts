@@ -28,21 +28,8 @@
  * The position found with a positive effect has a contributing axle, which is on the deck;
  * when nothing is positive the effect is 0 at a legal position (the front axle at a deck end).
  */
-import type { LineMaximum, StationLine, VehicleShape } from './longitudinal.js';
-
-/** Positive-part breakpoints of a line: its stations and the zero crossings between them. */
-function breakpoints(line: StationLine): Float64Array {
-  const X = line.xs;
-  const V = line.values;
-  const out: number[] = [X[0]];
-  for (let j = 1; j < X.length; j++) {
-    const a = V[j - 1];
-    const b = V[j];
-    if ((a > 0 && b < 0) || (a < 0 && b > 0)) out.push(X[j - 1] + ((X[j] - X[j - 1]) * a) / (a - b));
-    out.push(X[j]);
-  }
-  return Float64Array.from(out);
-}
+// a cycle with longitudinal.ts (which dispatches here): only functions cross it, called after both load
+import { breakpointsOf, type LineMaximum, type StationLine, type VehicleShape } from './longitudinal.js';
 
 /** out[j] = Σ_k W_k·ℓ⁺(P[j] + offsets[k]) for increasing P. */
 function groupAt(line: StationLine, P: Float64Array, weights: number[], offsets: number[], out: Float64Array): void {
@@ -95,7 +82,7 @@ export function bestTwoGroupsOnLine(line: StationLine, v: VehicleShape, directio
   const g = v.gapIndex;
   const P = v.basePositions;
   const T = v.sMax - v.sMin;
-  const bp = breakpoints(line);
+  const bp = breakpointsOf(line, true);
   let best: LineMaximum = { value: 0, frontAxleAt: directions[0] === 1 ? line.xMin : line.xMax, direction: directions[0], axleSpacing: v.sMin };
   for (const d of directions) {
     const frontW: number[] = [];
