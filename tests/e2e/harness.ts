@@ -235,15 +235,3 @@ export async function signOut(page: Page): Promise<void> {
   await page.locator('[data-test="sign-out"]').click();
   await page.waitForURL((url) => url.pathname.startsWith('/sign-in'));
 }
-
-/** Calls the API from inside the signed-in page (same cookies, CSRF header from the cookie). */
-export async function api<T>(page: Page, method: string, path: string, body?: unknown): Promise<{ status: number; body: T }> {
-  return page.evaluate(
-    async ({ method, path, body }) => {
-      const csrf = document.cookie.split('; ').find((c) => c.startsWith('ds_csrf='))?.slice(8) ?? '';
-      const res = await fetch(path, { method, headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': decodeURIComponent(csrf) }, body: body === undefined ? undefined : JSON.stringify(body), credentials: 'same-origin' });
-      return { status: res.status, body: (await res.json().catch(() => null)) as T };
-    },
-    { method, path, body },
-  );
-}

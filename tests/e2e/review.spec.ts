@@ -11,7 +11,7 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { api, CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, signIn, signOut, startHarness, type Harness } from './harness';
+import { CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, signIn, signOut, startHarness, type Harness } from './harness';
 import { quarryCreekDeck } from '../fixtures/decks';
 
 const DECK_NAME = `Quarry Creek review deck ${Date.now()}`;
@@ -20,6 +20,18 @@ const DECK_NAME = `Quarry Creek review deck ${Date.now()}`;
 async function choose(page: Page, testId: string, text: string): Promise<void> {
   await page.locator(`[data-test="${testId}"]`).click();
   await page.locator('.ant-select-dropdown:not(.ant-select-dropdown-hidden) .ant-select-item-option', { hasText: text }).first().click();
+}
+
+/** Calls the API from inside the signed-in page (same cookies, CSRF header from the cookie). */
+async function api<T>(page: Page, method: string, path: string, body?: unknown): Promise<{ status: number; body: T }> {
+  return page.evaluate(
+    async ({ method, path, body }) => {
+      const csrf = document.cookie.split('; ').find((c) => c.startsWith('ds_csrf='))?.slice(8) ?? '';
+      const res = await fetch(path, { method, headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': decodeURIComponent(csrf) }, body: body === undefined ? undefined : JSON.stringify(body), credentials: 'same-origin' });
+      return { status: res.status, body: (await res.json().catch(() => null)) as T };
+    },
+    { method, path, body },
+  );
 }
 
 describe('review round trip in the browser', () => {
