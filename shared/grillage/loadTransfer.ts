@@ -370,13 +370,16 @@ export class LoadTransfer {
     return table;
   }
 
-  /** Locates the grid points xs × ys, m; point k = ix·ys.length + iy (row-major by x). */
-  tabulateGrid(xs: ArrayLike<number>, ys: ArrayLike<number>): LoadShareTable {
+  /**
+   * Locates the grid points xs × ys, m; point k = ix·ys.length + iy (row-major by x). With
+   * `shear` c the grid is of a sheared frame: point (ix, iy) is at plan x = xs[ix] + c·ys[iy].
+   */
+  tabulateGrid(xs: ArrayLike<number>, ys: ArrayLike<number>, shear = 0): LoadShareTable {
     const ny = ys.length;
     const table = this.emptyTable(xs.length * ny);
     for (let i = 0; i < xs.length; i++) {
       const x = xs[i];
-      for (let k = 0; k < ny; k++) this.fillSlot(table, i * ny + k, x, ys[k]);
+      for (let k = 0; k < ny; k++) this.fillSlot(table, i * ny + k, x + shear * ys[k], ys[k]);
     }
     return table;
   }

@@ -50,13 +50,18 @@
  *   lines), continuous or simple as the deck; influence lines by the stiffness method
  *   (shared/loads/influenceLine.ts).
  *
- * Sampling. Each surface is sampled on one station grid (`grillageStations`): longitudinally
- * every node of every line, the support crossings with a step of 1 µm on each side (the
- * shear's jump there), the moment points, and at least `stationsPerSegment` stations per
- * girder segment (default 1: the nodes; the surface is cubic along the girders between them); transversely every
- * longitudinal line, the deck edges, the curb faces and `rowsPerStrip` rows per strip
- * between lines. The governing placement is exact on that sample and carries its tolerance
- * against the surface (search.ts); `tolerance.factor` states it in lanes.
+ * Sampling. Each surface is sampled on a station grid (`grillageStations`) in its own frame
+ * s = x − c·y (sampledSurface.ts), c the tan θ of the support line it is read at (shear,
+ * negative moment, reaction) or the load transfer's direction at its moment point, so the
+ * jump or kink along that skewed line lies on a grid line instead of crossing cells:
+ * longitudinally every node of every line (where the lines' nodes share the frame's grid
+ * lines), the support crossings with a step of 1 µm on each side (the shear's jump there),
+ * the moment points, and at least `stationsPerSegment` stations per girder segment (default
+ * 1; the surface is cubic along the girders between nodes); transversely every longitudinal
+ * line, the deck edges, the curb faces and `rowsPerStrip` rows per strip between lines.
+ * The governing placement is exact on that sample and carries its tolerance against the
+ * surface (search.ts); `tolerance.factor` states it in lanes. Surfaces whose factors miss
+ * the bound target are sampled again, denser, up to MAX_REFINEMENTS times (step 4b).
  */
 import { assertDeck, DeckInputError, type Deck } from '../deck/schema.js';
 import { lengthInText } from '../quantities/inText.js';
@@ -68,7 +73,7 @@ import { assertLoadingFits, beamLineEffect, loadingWords, strengthLoads, type Ta
 import type { RefinedLoading } from '../deck/schema.js';
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
 import { placementRulesForDeck, type Placement, type PlacementRules } from '../placement/rules.js';
-import { checkPoints, sampledFromGrid, type SampledSurface } from '../placement/sampledSurface.js';
+import { checkPoints, frameRange, sampledFromGrid, type SampledSurface } from '../placement/sampledSurface.js';
 import { BOUND_TARGET_LANES, BOUND_TARGET_PERCENT, boundInLanes, governingSurfacePlacement, type GoverningPlacement, type ToleranceStatement } from '../placement/search.js';
 import type { Sense } from '../placement/evaluate.js';
 import { influenceSurfaces, type InfluenceSurface } from './influenceSurface.js';
@@ -102,9 +107,9 @@ export interface StationOptions {
    */
   stationsPerSegment?: number;
   /**
-   * Rows per strip between adjacent longitudinal lines (whole number 1–8; default 1 on a right
-   * deck, 2 on a skewed one, where a wheel load's shares follow skewed lines and the surface
-   * is not linear across a strip).
+   * Rows per strip between adjacent longitudinal lines (whole number 1–8; default 1 where the
+   * load transfer follows the sample's frame, so the surface is linear across a strip; else 4
+   * in a skewed frame and 2 in the plan frame: grillageStations).
    */
   rowsPerStrip?: number;
 }
@@ -148,7 +153,7 @@ export interface RefinedOptions extends StationOptions {
 
 /** Where a refined run is: its phase, and in the search, factors found of all. */
 export interface RefinedProgress {
-  phase: 'model' | 'search' | 'convergence';
+  phase: 'model' | 'search' | 'refine' | 'convergence';
   done: number;
   total: number;
 }
@@ -240,31 +245,53 @@ function wholeOption(value: number | undefined, name: string, fallback: number, 
   return value;
 }
 
+/** Largest stations per segment and rows per strip, given or reached by refinement. */
+const MAX_DENSITY = 8;
+/** Rounds of refinement of the surfaces whose factors miss the bound target (grillageStations `level`). */
+export const MAX_REFINEMENTS = 2;
+
 /**
- * The station grid used to sample a model's influence surfaces (see the header), m.
- * `extraX`: further longitudinal stations (e.g. moment points).
+ * The station grid used to sample a model's influence surfaces (see the header), m, in the
+ * frame s = x − shear·y (sampledSurface.ts; shear 0: the plan axes). `extraX`: further
+ * stations of s (e.g. moment points). Rows per strip default to 1 where the load transfer
+ * runs along the frame everywhere (a right deck in the plan frame; the skew-parallel layout
+ * in the frame of its parallel supports), so that ordinates are linear across a strip, to 4
+ * in another skewed frame and to 2 elsewhere. `level`: refinement round, doubling per level
+ * (at most 8) the rows, and the stations too in a frame the transfer follows.
  */
 export function grillageStations(
   model: GrillageModel,
   rules: Pick<PlacementRules, 'curbLeft' | 'curbRight'>,
   options: StationOptions = {},
   extraX: number[] = [],
+  shear = 0,
+  level = 0,
 ): { xs: Float64Array; ys: Float64Array } {
-  const perSegment = wholeOption(options.stationsPerSegment, 'stationsPerSegment', 1, 8);
-  const skewed = model.deck.supports.some((x) => x.skew !== 0);
-  const perStrip = wholeOption(options.rowsPerStrip, 'rowsPerStrip', skewed ? 2 : 1, 8);
+  // Where the transfer follows the frame, refinement doubles both densities (measured on the
+  // example decks: the moment bounds need both); otherwise the split's turn near a skewed
+  // support bends the surface across the strips (most where the frame is skewed), and
+  // refinement doubles the rows only.
+  const along = transferAlongFrame(model, shear);
+  const denser = (n: number, doubles: boolean) => Math.min(MAX_DENSITY, doubles ? n * 2 ** level : n);
+  const perSegment = denser(wholeOption(options.stationsPerSegment, 'stationsPerSegment', 1, MAX_DENSITY), along);
+  const perStrip = denser(wholeOption(options.rowsPerStrip, 'rowsPerStrip', along ? 1 : shear !== 0 ? 4 : 2, MAX_DENSITY), true);
   const mesh = model.mesh;
   const e = model.extent;
-  const xsList: number[] = [e.xMin, e.xMax, ...extraX];
+  const range = frameRange(e, shear);
+  const xsList: number[] = [range.sMin, range.sMax, ...extraX];
+  // a line's nodes are stations where the lines' nodes meet the frame's grid lines together;
+  // elsewhere (the perpendicular layout in a skewed frame) uniform stations stand for them
+  // (a surface is smooth across the nodes of the lines it is not read on)
+  const nodesAligned = shear === 0 || transferAlongFrame(model, shear);
   for (const line of mesh.lines) {
-    for (const x of line.xs) xsList.push(x);
+    if (nodesAligned) for (const x of line.xs) xsList.push(x - shear * line.y);
     for (let j = 0; j <= mesh.spanCount; j++) {
-      const xs = supportX(mesh, j, line.y);
+      const xs = supportX(mesh, j, line.y) - shear * line.y;
       xsList.push(xs - JUMP_STEP, xs, xs + JUMP_STEP);
     }
   }
   const h = Math.min(...mesh.spanLengths) / mesh.segmentsPerSpan / perSegment;
-  const sorted = xsList.filter((x) => x >= e.xMin && x <= e.xMax).sort((a, b) => a - b);
+  const sorted = xsList.filter((x) => x >= range.sMin && x <= range.sMax).sort((a, b) => a - b);
   const xs: number[] = [];
   for (const x of sorted) {
     if (xs.length && x - xs[xs.length - 1] <= 1e-9) continue;
@@ -288,6 +315,45 @@ export function grillageStations(
   const ys: number[] = [];
   for (const y of ysList.filter((v) => v >= e.yMin && v <= e.yMax).sort((a, b) => a - b)) if (!ys.length || y - ys[ys.length - 1] > 1e-9) ys.push(y);
   return { xs: Float64Array.from(xs), ys: Float64Array.from(ys) };
+}
+
+/** Same shear, to rounding (support lines' tan θ from one deck). */
+const sameShear = (a: number, b: number) => Math.abs(a - b) <= 1e-12 * Math.max(1, Math.abs(a), Math.abs(b));
+
+/**
+ * Whether the load transfer splits a wheel load along the frame's direction everywhere
+ * (loadTransfer.ts rule 2), so a surface is linear across a strip at fixed s: the plan frame
+ * of a right deck, or the frame of the supports' skew when they are parallel and the layout
+ * is skew-parallel.
+ */
+function transferAlongFrame(model: GrillageModel, shear: number): boolean {
+  const B = model.mesh.supportB;
+  if (!B.every((b) => sameShear(b, B[0]))) return false;
+  if (B[0] === 0) return shear === 0;
+  return model.layout === 'skew-parallel' && sameShear(shear, B[0]);
+}
+
+/**
+ * The frame a response's surface is sampled in (its shear, sampledSurface.ts): the skew of
+ * the support line it is read at (shear, negative moment, reaction: the surface jumps or
+ * kinks along that line), and for a positive moment at fraction f of a span the direction
+ * the load transfer takes there (skew-parallel layout: the fan between the span's support
+ * lines; perpendicular layout: at right angles to the girders), so the kink through the
+ * moment point runs along a grid line.
+ */
+function responseShear(model: GrillageModel, r: GrillageResponse): number {
+  const B = model.mesh.supportB;
+  switch (r.kind) {
+    case 'girder-shear':
+    case 'reaction':
+      return B[r.support];
+    case 'girder-moment':
+      if (r.fraction === 1) return B[r.span + 1];
+      if (r.fraction === 0) return B[r.span];
+      return model.layout === 'skew-parallel' ? (1 - r.fraction) * B[r.span] + r.fraction * B[r.span + 1] : 0;
+    default:
+      return 0;
+  }
 }
 
 /** The quantity kind of a refined factor's effects: moment (N·m) or force (N). */
@@ -363,10 +429,10 @@ function governingTenthPoint(beam: BeamModel, start: number, L: number): number 
 }
 
 /** Step 2. The responses to compute surfaces for, and the factors (targets) read from them. */
-function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly RefinedEffect[]): { responses: GrillageResponse[]; targets: Target[]; momentPoints: number[] } {
+function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly RefinedEffect[]): { responses: GrillageResponse[]; targets: Target[]; momentPoints: { x: number; y: number }[] } {
   const responses: GrillageResponse[] = [];
   const targets: Target[] = [];
-  const momentPoints: number[] = [];
+  const momentPoints: { x: number; y: number }[] = [];
   const N = deck.spans.length;
   const truck = strengthLoads(deck.refinedLoading, false);
   const fatigue: TargetLoad = { vehicle: FATIGUE_TRUCK, label: 'fatigue truck', laneLoad: false, reason: 'one fatigue truck' };
@@ -383,7 +449,7 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
     for (let s = 0; s < N && (wants('moment') || wants('fatigue-moment')); s++) {
       const f = gb.fractions[s];
       const x = gb.xsup[s] + f * (gb.xsup[s + 1] - gb.xsup[s]);
-      momentPoints.push(x);
+      momentPoints.push({ x, y: gb.y });
       const common = { girder: g, span: s, point: { kind: 'moment' as const, fraction: f, x }, sense: 'positive' as const, beam: gb.beam, beamResponse: { kind: 'moment' as const, x: gb.starts[s] + f * gb.beam.spans[s] } };
       add({ kind: 'girder-moment', girder: g, span: s, fraction: f }, [
         { ...common, effect: 'moment', loads: truck },
@@ -415,14 +481,30 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
   return { responses, targets, momentPoints };
 }
 
-/** Step 3. Every surface sampled on one station grid, with its check points. */
-function sampleSurfaces(model: GrillageModel, surfaces: InfluenceSurface[], rules: PlacementRules, options: StationOptions, momentPoints: number[]) {
-  const st = grillageStations(model, rules, options, momentPoints);
-  const table = model.transfer.tabulateGrid(st.xs, st.ys);
-  const points = checkPoints(st.xs, st.ys);
-  const checkTable = model.transfer.tabulate(points.x, points.y);
-  const sampled = surfaces.map((s) => sampledFromGrid(s, st.xs, st.ys, s.evaluate(table), { points, values: s.evaluate(checkTable) }));
-  return { stations: st, sampled };
+/**
+ * Step 3. Every surface sampled, with its check points: surfaces of one frame (responseShear)
+ * share one station grid and one table of load shares.
+ */
+function sampleSurfaces(model: GrillageModel, responses: GrillageResponse[], surfaces: InfluenceSurface[], rules: PlacementRules, options: StationOptions, momentPoints: { x: number; y: number }[], level = 0) {
+  const frames: { shear: number; members: number[] }[] = [];
+  responses.forEach((r, k) => {
+    const c = responseShear(model, r);
+    const f = frames.find((fr) => sameShear(fr.shear, c));
+    if (f) f.members.push(k);
+    else frames.push({ shear: c, members: [k] });
+  });
+  const sampled: SampledSurface[] = new Array(surfaces.length);
+  let stations: { xs: Float64Array; ys: Float64Array } = { xs: new Float64Array(0), ys: new Float64Array(0) };
+  for (const { shear, members } of frames) {
+    const st = grillageStations(model, rules, options, momentPoints.map((p) => p.x - shear * p.y), shear, level);
+    if (st.xs.length * st.ys.length > stations.xs.length * stations.ys.length) stations = st;
+    const table = model.transfer.tabulateGrid(st.xs, st.ys, shear);
+    const points = checkPoints(st.xs, st.ys);
+    const plan = Float64Array.from(points.x, (s, k) => s + shear * points.y[k]);
+    const checkTable = model.transfer.tabulate(plan, points.y);
+    for (const k of members) sampled[k] = sampledFromGrid(surfaces[k], st.xs, st.ys, surfaces[k].evaluate(table), { points, values: surfaces[k].evaluate(checkTable) }, shear);
+  }
+  return { stations, sampled };
 }
 
 /** One load's search on a target's surface and its one-lane beam-line effect. */
@@ -669,12 +751,13 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
   const beams = girderBeams(model, deck.continuous);
   const { responses, targets, momentPoints } = refinedTargets(deck, beams, effects);
   const surfaces = influenceSurfaces(model, responses);
-  const { stations, sampled } = sampleSurfaces(model, surfaces, rules, options, momentPoints);
+  const { stations, sampled } = sampleSurfaces(model, responses, surfaces, rules, options, momentPoints);
   const beamEffects = new Map<string, number>();
   const factors = targets.map((t, k) => {
     progress({ phase: 'search', done: k, total: targets.length });
     return factorOfTarget(t, searchTarget(t, sampled[t.surface], surfaces[t.surface], rules, beamEffects), model.girderCount);
   });
+  refineLooseBounds({ model, rules, options, responses, surfaces, sampled, targets, factors, momentPoints, beamEffects, progress });
   const { rows, sources: rowSources } = refinedRows(deck, factors, rules.laneCount);
   if (options.checkConvergence && effects.includes('moment')) {
     progress({ phase: 'convergence', done: 0, total: 1 });
@@ -696,6 +779,43 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
     trace: [...model.trace, loadsTrace(rules.laneCount, deck.continuous, deck.refinedLoading)],
     caution: RESULT_CAUTION,
   };
+}
+
+/**
+ * Step 4b. Adaptive refinement: the surfaces of factors whose stated bound misses the target
+ * are sampled again denser (grillageStations `level`, up to MAX_REFINEMENTS rounds, at most 8
+ * stations a segment or 8 rows a strip) and their targets searched again; a factor takes the
+ * new search when its bound is smaller (each search is exact on its own sample and its bound
+ * honest for its own value, so either may stand). Surfaces whose factors all meet the target
+ * are not touched, so the run's time grows only where the surface needs it.
+ */
+function refineLooseBounds(run: {
+  model: GrillageModel;
+  rules: PlacementRules;
+  options: RefinedOptions;
+  responses: GrillageResponse[];
+  surfaces: InfluenceSurface[];
+  sampled: SampledSurface[];
+  targets: Target[];
+  factors: RefinedFactor[];
+  momentPoints: { x: number; y: number }[];
+  beamEffects: Map<string, number>;
+  progress: (p: RefinedProgress) => void;
+}): void {
+  const { targets, factors } = run;
+  for (let level = 1; level <= MAX_REFINEMENTS; level++) {
+    const loose = [...new Set(targets.filter((_, k) => !factors[k].tolerance.meetsTarget).map((t) => t.surface))];
+    if (!loose.length) return;
+    const again = sampleSurfaces(run.model, loose.map((i) => run.responses[i]), loose.map((i) => run.surfaces[i]), run.rules, run.options, run.momentPoints, level);
+    loose.forEach((i, k) => (run.sampled[i] = again.sampled[k]));
+    const redo = targets.map((_, k) => k).filter((k) => loose.includes(targets[k].surface) && !factors[k].tolerance.meetsTarget);
+    redo.forEach((k, n) => {
+      run.progress({ phase: 'refine', done: n, total: redo.length });
+      const t = targets[k];
+      const f = factorOfTarget(t, searchTarget(t, run.sampled[t.surface], run.surfaces[t.surface], run.rules, run.beamEffects), run.model.girderCount);
+      if (f.tolerance.factor < factors[k].tolerance.factor) factors[k] = f;
+    });
+  }
 }
 
 /** The row location of a factor: its span for moment and shear, its support line (with the code's L) for negative moment and reactions. */

@@ -22,6 +22,10 @@
  * from it; with the positive part the measure is an estimate, as the sample's own ε is), and
  * the search adds m·k·deviation to its bound.
  *
+ * On a sample in a sheared frame (sampledSurface.ts) x reads s = x − c·y: the loaded portions
+ * then end on lines of the frame's skew (for a shear or a reaction, parallel to its support
+ * line, so a loaded span ends on its support lines), not at right angles to the girders.
+ *
  * Units: y, u, c and x in m; q in N/m; the surface in response per N; Λ in response units,
  * in the sense sought (never negative).
  */

@@ -7,6 +7,13 @@
  * right); ordinates in response units per unit downward force (N·m/N for a moment, N/N for a
  * shear or reaction). Zero off the deck, i.e. outside [xMin, xMax] × [yMin, yMax].
  *
+ * The sample's frame. The grid is rectangular in the coordinates (s, y), s = x − c·y, with
+ * c = `shear` (dimensionless, dx/dy; 0: the plan axes). With c = tan θ of a skewed support
+ * line (x = A + tan θ·y), that line is the grid line s = A, so a jump or a kink of the
+ * surface along it never crosses a cell. A vehicle at fixed y moves along s as along x, and
+ * a vehicle moved along the direction (c, 1) keeps its wheels' s: the search's exactness
+ * (search.ts) holds in the frame. `xs` are stations of s; `at(x, y)` takes plan points.
+ *
  * Representation error. If the surface is itself bilinear on every cell of the station grid
  * (for a grillage that shares a wheel load among the corner nodes of its panel, when the
  * stations include every node line), the representation is the surface and the search is
@@ -24,11 +31,13 @@ export interface SurfaceLike {
 }
 
 export interface SampledSurface extends SurfaceLike {
-  /** Longitudinal stations, m, strictly increasing, from xMin to xMax. */
+  /** Longitudinal stations of the frame coordinate s = x − shear·y, m, strictly increasing. */
   xs: Float64Array;
+  /** The frame's shear c (s = x − c·y, dimensionless); 0 for the plan axes. */
+  shear: number;
   /** Transverse stations, m, strictly increasing, from yMin to yMax. */
   ys: Float64Array;
-  /** rows[j][i] = ordinate at (xs[i], ys[j]). */
+  /** rows[j][i] = ordinate at s = xs[i], y = ys[j] (plan x = xs[i] + shear·ys[j]). */
   rows: Float64Array[];
   /** Largest |surface − representation| found at cell and edge midpoints (0 when not measured). */
   representationError: number;
@@ -85,14 +94,25 @@ export function cellIndex(s: Float64Array, v: number): number {
 }
 
 /**
- * Sample a surface on the stations given (m; stations outside the extent are dropped and the
- * extent's ends are added). `measure`: also measure the representation error (3 more
- * evaluations of the surface per grid point).
+ * The range of the frame coordinate s = x − shear·y over the rectangle [xMin, xMax] × [yMin, yMax]
+ * (its corners), m.
+ */
+export function frameRange(extent: SurfaceLike['extent'], shear: number): { sMin: number; sMax: number } {
+  const a = -shear * extent.yMin;
+  const b = -shear * extent.yMax;
+  return { sMin: extent.xMin + Math.min(a, b), sMax: extent.xMax + Math.max(a, b) };
+}
+
+/**
+ * Sample a surface on the stations given (m; stations of s = x − shear·y, those outside the
+ * frame's range are dropped and its ends are added). `measure`: also measure the
+ * representation error (3 more evaluations of the surface per grid point). `shear`: the
+ * frame (see the header; default 0).
  */
 export function sampleSurface(
   surface: SurfaceLike,
   stations: { xs: ArrayLike<number>; ys: ArrayLike<number> },
-  options: { measure?: boolean } = {},
+  options: { measure?: boolean; shear?: number } = {},
 ): SampledSurface {
   const e = surface.extent;
   if (!(Number.isFinite(e.xMin) && Number.isFinite(e.xMax) && e.xMax > e.xMin)) {
@@ -101,16 +121,19 @@ export function sampleSurface(
   if (!(Number.isFinite(e.yMin) && Number.isFinite(e.yMax) && e.yMax > e.yMin)) {
     throw new PlacementError([{ path: ['surface', 'extent'], message: 'the surface needs a finite width yMax > yMin' }]);
   }
-  const xs = sortedUnique(stations.xs, e.xMin, e.xMax, 'x');
+  const c = options.shear ?? 0;
+  if (!Number.isFinite(c)) throw new PlacementError([{ path: ['surface', 'shear'], message: 'the sample frame\'s shear must be a finite number' }]);
+  const range = frameRange(e, c);
+  const xs = sortedUnique(stations.xs, range.sMin, range.sMax, 'x');
   const ys = sortedUnique(stations.ys, e.yMin, e.yMax, 'y');
   const ny = ys.length;
   const values = new Float64Array(xs.length * ny);
-  for (let i = 0; i < xs.length; i++) for (let j = 0; j < ny; j++) values[i * ny + j] = surface.at(xs[i], ys[j]);
-  if (!options.measure) return sampledFromGrid(surface, xs, ys, values);
+  for (let i = 0; i < xs.length; i++) for (let j = 0; j < ny; j++) values[i * ny + j] = surface.at(xs[i] + c * ys[j], ys[j]);
+  if (!options.measure) return sampledFromGrid(surface, xs, ys, values, undefined, c);
   const points = checkPoints(xs, ys);
   const truth = new Float64Array(points.x.length);
-  for (let k = 0; k < truth.length; k++) truth[k] = surface.at(points.x[k], points.y[k]);
-  return sampledFromGrid(surface, xs, ys, values, { points, values: truth });
+  for (let k = 0; k < truth.length; k++) truth[k] = surface.at(points.x[k] + c * points.y[k], points.y[k]);
+  return sampledFromGrid(surface, xs, ys, values, { points, values: truth }, c);
 }
 
 /** Cells narrower than this (m) are the steps of a jump (see refinedFactors.ts) and are not checked. */
@@ -118,6 +141,7 @@ export const JUMP_CELL = 1e-5;
 
 /** Points where the representation is checked: cell midpoints and edge midpoints of the grid. */
 export interface CheckPoints {
+  /** The frame coordinate s of each point (plan x = s + shear·y). */
   x: Float64Array;
   y: Float64Array;
   /** Station index i whose envelope each point feeds (its x-cell's left station, or its own column). */
@@ -246,8 +270,8 @@ export function raisedRows(surface: SampledSurface, sgn: 1 | -1): Float64Array[]
 
 /**
  * A sampled surface from ordinates already computed on the grid (values[i·ys.length + j] at
- * (xs[i], ys[j]), row-major by x), and, when given, the surface's ordinates at `check`
- * points to measure the representation error and its envelope.
+ * s = xs[i], y = ys[j], row-major by s), and, when given, the surface's ordinates at `check`
+ * points to measure the representation error and its envelope. `shear`: the frame (header).
  */
 export function sampledFromGrid(
   source: SurfaceLike,
@@ -255,6 +279,7 @@ export function sampledFromGrid(
   ys: Float64Array,
   values: Float64Array,
   check?: { points: CheckPoints; values: Float64Array },
+  shear = 0,
 ): SampledSurface {
   const nx = xs.length;
   const ny = ys.length;
@@ -264,13 +289,14 @@ export function sampledFromGrid(
     const r = new Float64Array(nx);
     for (let i = 0; i < nx; i++) {
       const v = values[i * ny + j];
-      if (!Number.isFinite(v)) throw new PlacementError([{ path: ['surface'], message: `the surface's ordinate at x = ${xs[i]} m, y = ${ys[j]} m is not finite` }]);
+      if (!Number.isFinite(v)) throw new PlacementError([{ path: ['surface'], message: `the surface's ordinate at x = ${xs[i] + shear * ys[j]} m, y = ${ys[j]} m is not finite` }]);
       r[i] = v;
       if (Math.abs(v) > maxOrd) maxOrd = Math.abs(v);
     }
     rows.push(r);
   }
-  const interp = (x: number, y: number): number => {
+  const interp = (xPlan: number, y: number): number => {
+    const x = xPlan - shear * y;
     if (x < xs[0] || x > xs[nx - 1] || y < ys[0] || y > ys[ny - 1]) return 0;
     const i = cellIndex(xs, x);
     const j = cellIndex(ys, y);
@@ -306,6 +332,7 @@ export function sampledFromGrid(
     extent: { ...source.extent },
     xs,
     ys,
+    shear,
     rows,
     representationError: err,
     representationMeasured: !!check,

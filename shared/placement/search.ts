@@ -23,8 +23,15 @@
  * each cell raises its own corners, by its error or to its largest ordinate, so a jump along
  * a skewed line raises only the cells it crosses, not whole columns. ε and E are measured at
  * the midpoints of the grid's cells and edges (a bound for a surface smooth between stations;
- * a jump the grid does not follow, such as a shear's along a skewed support line, shows up as
- * a large ε and a loose bound). `tolerance.absolute` reports the bound.
+ * a jump the grid does not follow shows up as a large ε and a loose bound, which is why a
+ * shear's surface is sampled in the frame of its skewed support line, where the jump is a
+ * grid line). `tolerance.absolute` reports the bound.
+ *
+ * A sheared sample (s = x − c·y, sampledSurface.ts) is searched in its frame: the lane's line
+ * is V(s) = ½(η(s, u) + η(s − c·G, u + G)) on the union of both wheel lines' stations (the
+ * right wheel of an axle stands c·G behind the left one in s), the proof below holds with x
+ * read as s (moving a vehicle along (c, 1) keeps every wheel's s, so step 1 is unchanged),
+ * and a position found is returned in plan (front axle at s + c·u).
  *
  * ─── Proof ────────────────────────────────────────────────────────────────────────────
  * Notation: lane i has left edge p_i ∈ [L0, R0] (L0 the left curb face, R0 the right curb
@@ -522,6 +529,52 @@ function wheelReach(rules: PlacementRules): { uLo: number; uHi: number } {
   return { uLo: L0 + wheelOffsetRange(rules, L0).min, uHi: R0 + wheelOffsetRange(rules, R0).max };
 }
 
+/**
+ * The stations of one lane's line V(s) = ½(η(s, u) + η(s − c·G, u + G)) in the sample's
+ * frame (s the left wheel's frame coordinate, c the shear, G the gauge): each wheel line's
+ * stations with a ramp to zero RAMP beyond its ends (longitudinal.ts), the right one's shifted
+ * by c·G, merged (points closer than 1e-10 m are one). For each merged station, the cell and
+ * weight of each wheel line's interpolation (cell −1: beyond that line, zero). With c = 0 the
+ * two coincide and the line is the stations with their ramps.
+ */
+function laneLineStations(xs: Float64Array, shift: number) {
+  const nx = xs.length;
+  const own = new Float64Array(nx + 2);
+  own[0] = xs[0] - RAMP;
+  own.set(xs, 1);
+  own[nx + 1] = xs[nx - 1] + RAMP;
+  let X: Float64Array;
+  if (shift === 0) X = own;
+  else {
+    const all = Array.from(own);
+    for (const x of own) all.push(x + shift);
+    all.sort((a, b) => a - b);
+    const out: number[] = [];
+    for (const x of all) if (!out.length || x - out[out.length - 1] > 1e-10) out.push(x);
+    X = Float64Array.from(out);
+  }
+  /** Cell of `own` (as index into xs, i.e. own index − 1) holding x and its weight; −2 beyond. */
+  const locate = (x: number): [number, number] => {
+    if (x <= xs[0] || x >= xs[nx - 1]) {
+      if (x === xs[0]) return [0, 0];
+      if (x === xs[nx - 1]) return [nx - 2, 1];
+      return [-2, 0];
+    }
+    const i = cellIndex(xs, x);
+    return [i, (x - xs[i]) / (xs[i + 1] - xs[i])];
+  };
+  const m = X.length;
+  const leftCell = new Int32Array(m);
+  const leftT = new Float64Array(m);
+  const rightCell = new Int32Array(m);
+  const rightT = new Float64Array(m);
+  for (let k = 0; k < m; k++) {
+    [leftCell[k], leftT[k]] = locate(X[k]);
+    [rightCell[k], rightT[k]] = locate(X[k] - shift);
+  }
+  return { X, leftCell, leftT, rightCell, rightT };
+}
+
 /** Steps 1–5 on a sample: the best lane sets per lane count, totals in the maximised sense (m not applied). */
 function searchSample(
   xs: Float64Array,
@@ -534,33 +587,49 @@ function searchSample(
   counts: number[],
   directions: (1 | -1)[],
   lane: LaneStripTable | null = null,
+  shear = 0,
 ) {
   const G = rules.gauge;
-  const nx = xs.length;
-  // Stations with a ramp to zero just beyond each end (longitudinal.ts).
-  const X = new Float64Array(nx + 2);
-  X[0] = xs[0] - RAMP;
-  X.set(xs, 1);
-  X[nx + 1] = xs[nx - 1] + RAMP;
-  const template: StationLine = withLocator(X, new Float64Array(nx + 2), extent.xMin, extent.xMax);
-  const V = new Float64Array(nx + 2);
+  const st = laneLineStations(xs, shear * G);
+  const m = st.X.length;
+  const template: StationLine = withLocator(st.X, new Float64Array(m), extent.xMin, extent.xMax);
+  const V = new Float64Array(m);
   const line: StationLine = { ...template, values: V };
-  const workspace = lineWorkspace(2 * (nx + 2));
+  const workspace = lineWorkspace(2 * m);
   const h = 0.5 * sgn;
   const weights = (y: number): [number, number, number] => {
     const j = cellIndex(ys, y);
     const t = (y - ys[j]) / (ys[j + 1] - ys[j]);
     return [j, 1 - t, t];
   };
-  /** V ← sense × ½(η(·, u) + η(·, u + gauge)) at the stations. */
+  const { leftCell, leftT, rightCell, rightT } = st;
+  /**
+   * V ← sense × ½(η(s, u) + η(s − c·G, u + G)) at the line's stations; the line's deck, where
+   * an axle counts as on it (rules.ts: the extent's x-range in plan), in the frame at u.
+   */
   const fill = (u: number) => {
+    line.xMin = extent.xMin - shear * u;
+    line.xMax = extent.xMax - shear * u;
     const [j1, a1, b1] = weights(u);
     const [j2, a2, b2] = weights(u + G);
     const r1 = rows[j1];
     const s1 = rows[j1 + 1];
     const r2 = rows[j2];
     const s2 = rows[j2 + 1];
-    for (let i = 0; i < nx; i++) V[i + 1] = h * (a1 * r1[i] + b1 * s1[i] + a2 * r2[i] + b2 * s2[i]);
+    for (let k = 0; k < m; k++) {
+      let v = 0;
+      let i = leftCell[k];
+      if (i >= 0) {
+        const t = leftT[k];
+        v += a1 * (r1[i] + t * (r1[i + 1] - r1[i])) + b1 * (s1[i] + t * (s1[i + 1] - s1[i]));
+      }
+      i = rightCell[k];
+      if (i >= 0) {
+        const t = rightT[k];
+        v += a2 * (r2[i] + t * (r2[i + 1] - r2[i])) + b2 * (s2[i] + t * (s2[i + 1] - s2[i]));
+      }
+      V[k] = h * v;
+    }
   };
   const bp: number[] = [];
   for (const y of ys) bp.push(y, y - G);
@@ -572,7 +641,8 @@ function searchSample(
     evaluate: (u) => {
       fill(u);
       const best = bestVehicleOnLine(line, shape, directions, {}, workspace);
-      const detail: LongitudinalPosition = { frontAxleAt: best.frontAxleAt, direction: best.direction };
+      // back to plan: the front axle's left wheel stands at s + c·u
+      const detail: LongitudinalPosition = { frontAxleAt: best.frontAxleAt + shear * u, direction: best.direction };
       if (best.axleSpacing !== undefined) detail.axleSpacing = best.axleSpacing;
       return { value: best.value + laneAt(u), detail };
     },
@@ -580,7 +650,7 @@ function searchSample(
     bound: (u) => {
       fill(u);
       let mx = 0;
-      for (let i = 1; i <= nx; i++) if (V[i] > mx) mx = V[i];
+      for (let k = 0; k < m; k++) if (V[k] > mx) mx = V[k];
       return shape.totalWeight * mx + laneAt(u);
     },
   };
@@ -656,7 +726,7 @@ export function governingSurfacePlacement(
     return t;
   };
   const lane = laneOf(rows, false);
-  const { results, work } = searchSample(xs, ys, rows, surface.extent, rules, shape, sgn, counts, directions, lane);
+  const { results, work } = searchSample(xs, ys, rows, surface.extent, rules, shape, sgn, counts, directions, lane, surface.shear);
   const source = options.source ?? surface.source;
   const eps = surface.representationError;
   const byLaneCount = results.map((r): LaneCountResult => {
@@ -680,7 +750,7 @@ export function governingSurfacePlacement(
     // Search the sample raised by the envelope: an upper bound of every placement on the surface.
     const raised = raisedRows(surface, sgn) ?? rows.map((row) => row.map((v, i) => v + sgn * env[i]));
     const raisedLane = laneOf(raised, true);
-    const upper = searchSample(xs, ys, raised, surface.extent, rules, shape, sgn, counts, directions, raisedLane);
+    const upper = searchSample(xs, ys, raised, surface.extent, rules, shape, sgn, counts, directions, raisedLane, surface.shear);
     work.wheelLineEvaluations += upper.work.wheelLineEvaluations;
     work.exactLanes += upper.work.exactLanes;
     upper.results.forEach((u, i) => {

@@ -150,7 +150,7 @@ export interface ComputeJob {
   runMs: number | null;
   error: string | null;
   /** Where a running refined job is (null when not running, or not said yet). */
-  progress: { phase: 'model' | 'search' | 'convergence'; done: number; total: number } | null;
+  progress: { phase: 'model' | 'search' | 'refine' | 'convergence'; done: number; total: number } | null;
 }
 
 /**

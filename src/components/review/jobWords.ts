@@ -13,6 +13,7 @@ export function jobStep(job: Pick<ComputeJob, 'progress'>): string {
   if (!p) return '';
   if (p.phase === 'model') return 'building the grillage and its influence surfaces.';
   if (p.phase === 'search') return `finding the governing truck positions, ${p.done.toLocaleString('en-US')} of ${p.total.toLocaleString('en-US')} factors done.`;
+  if (p.phase === 'refine') return `sampling denser where a bound was loose, ${p.done.toLocaleString('en-US')} of ${p.total.toLocaleString('en-US')} factors searched again.`;
   return 'checking the moment factors again at twice the mesh density.';
 }
 

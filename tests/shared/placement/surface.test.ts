@@ -220,3 +220,58 @@ describe('jumps of the surface at the deck end', () => {
   });
 });
 
+
+describe('a sample in a sheared frame (s = x − c·y): a jump along a skewed line stays on a grid line', () => {
+  // The surface is bilinear in (s, y) on a random table, with a jump of +1 across the skewed
+  // line s = s_J (x = s_J + c·y, a skewed support line): in the frame of that line the sample
+  // is the surface and the search is exact (search.ts proof, in the frame's coordinates); in
+  // the plan frame the jump crosses cells and the sample cannot follow it. Identity checks,
+  // common practice, no source.
+  it('the frame sample equals the surface, the search beats brute force and random placements, and the plan sample does not follow the jump', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: -Math.tan((60 * Math.PI) / 180), max: Math.tan((60 * Math.PI) / 180), noNaN: true }),
+        fc.array(fc.double({ min: -0.3, max: 1, noNaN: true }), { minLength: 60, maxLength: 60 }),
+        fc.constantFrom(DESIGN_TRUCK, FATIGUE_TRUCK),
+        fc.array(fc.tuple(fc.double({ min: 0, max: 20, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true })), { minLength: 30, maxLength: 30 }),
+        (c, values, vehicle, drags) => {
+          if (Math.abs(c) < 0.05) c = 0.05;
+          const L = ft(60);
+          const w = ft(24);
+          const yMin = -ft(1.5);
+          const yMax = w + ft(1.5);
+          const sJ = ft(20);
+          const ss = [0, ft(8), sJ - 1e-6, sJ, ft(31), ft(45), L];
+          const ys = [yMin, ft(6), ft(13), ft(19), yMax];
+          // zero at both ends (support lines), so the surface is continuous where the frame's range adds cells beyond them
+          const table = ys.map((_, j) => ss.map((s, i) => (i === 0 || i === ss.length - 1 ? 0 : values[(j * ss.length + i) % values.length] + (s >= sJ ? 1 : 0))));
+          const frame = gridSurface(ss, ys, table);
+          const src: SurfaceLike = {
+            extent: { xMin: Math.min(0, c * yMin, c * yMax), xMax: L + Math.max(0, c * yMin, c * yMax), yMin, yMax },
+            at: (x, y) => frame.at(x - c * y, y),
+          };
+          const sampled = sampleSurface(src, { xs: ss, ys }, { measure: true, shear: c });
+          expect(sampled.shear).toBe(c);
+          expect(sampled.representationError).toBeLessThan(1e-10);
+          for (const [x, y] of [[ft(25) + c * ft(7), ft(7)], [ft(3) + c * ft(20), ft(20)]]) expect(sampled.at(x, y)).toBeCloseTo(src.at(x, y), 12);
+          const rules = placementRules({ curbLeft: 0, curbRight: w });
+          const g = governingSurfacePlacement(sampled, rules, vehicle, { laneCounts: [1] });
+          const W = vehicleWeight(vehicle);
+          const slack = 1e-9 * W;
+          // the placement found is legal on the surface and worth what the search says
+          expect(evaluateSurface(src, g.placement, rules, vehicle, {}).value).toBeRelativelyClose(g.value, 1e-9);
+          expect(g.tolerance.absolute).toBeLessThan(1e-9 * W);
+          expect(g.value).toBeGreaterThanOrEqual(bruteSingleLane(src, rules, vehicle, 1, ft(2), ft(1), 1.2) - slack);
+          for (const [left, off, xf] of drags) {
+            const p = clampPlacement({ lanes: [{ left: ft(left) / 2, wheelOffset: off * ft(4), frontAxleAt: src.extent.xMin + xf * (src.extent.xMax - src.extent.xMin + ft(30)), direction: 1, axleSpacing: vehicle.variableSpacing?.min }] }, rules, { vehicle, extent: src.extent });
+            expect(evaluateSurface(src, p, rules, vehicle, {}).value).toBeLessThanOrEqual(g.value + slack);
+          }
+          // the same surface sampled in the plan frame: the jump crosses cells
+          const plan = sampleSurface(src, { xs: ss.map((s) => s + c * ft(12)), ys }, { measure: true });
+          expect(plan.representationError).toBeGreaterThan(0.2);
+        },
+      ),
+      { numRuns: 12, seed: 20261203 },
+    );
+  }, 120000);
+});
