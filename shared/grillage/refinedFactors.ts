@@ -267,14 +267,8 @@ export function grillageStations(
   shear = 0,
   level = 0,
 ): { xs: Float64Array; ys: Float64Array } {
-  // Where the transfer follows the frame, refinement doubles both densities (measured on the
-  // example decks: the moment bounds need both); otherwise the split's turn near a skewed
-  // support bends the surface across the strips (most where the frame is skewed), and
-  // refinement doubles the rows only.
   const along = transferAlongFrame(model, shear);
-  const denser = (n: number, doubles: boolean) => Math.min(MAX_DENSITY, doubles ? n * 2 ** level : n);
-  const perSegment = denser(wholeOption(options.stationsPerSegment, 'stationsPerSegment', 1, MAX_DENSITY), along);
-  const perStrip = denser(wholeOption(options.rowsPerStrip, 'rowsPerStrip', along ? 1 : shear !== 0 ? 4 : 2, MAX_DENSITY), true);
+  const { perSegment, perStrip } = sampleDensity(model, options, shear, level);
   const mesh = model.mesh;
   const e = model.extent;
   const range = frameRange(e, shear);
@@ -282,7 +276,7 @@ export function grillageStations(
   // a line's nodes are stations where the lines' nodes meet the frame's grid lines together;
   // elsewhere (the perpendicular layout in a skewed frame) uniform stations stand for them
   // (a surface is smooth across the nodes of the lines it is not read on)
-  const nodesAligned = shear === 0 || transferAlongFrame(model, shear);
+  const nodesAligned = shear === 0 || along;
   for (const line of mesh.lines) {
     if (nodesAligned) for (const x of line.xs) xsList.push(x - shear * line.y);
     for (let j = 0; j <= mesh.spanCount; j++) {
@@ -315,6 +309,21 @@ export function grillageStations(
   const ys: number[] = [];
   for (const y of ysList.filter((v) => v >= e.yMin && v <= e.yMax).sort((a, b) => a - b)) if (!ys.length || y - ys[ys.length - 1] > 1e-9) ys.push(y);
   return { xs: Float64Array.from(xs), ys: Float64Array.from(ys) };
+}
+
+/**
+ * Stations per segment and rows per strip of a frame's grid at refinement `level`. Where the
+ * transfer follows the frame, refinement doubles both (measured on the example decks: the
+ * moment bounds need both); otherwise the split's turn near a skewed support bends the
+ * surface across the strips (most where the frame is skewed), and it doubles the rows only.
+ */
+function sampleDensity(model: GrillageModel, options: StationOptions, shear: number, level: number): { perSegment: number; perStrip: number } {
+  const along = transferAlongFrame(model, shear);
+  const denser = (n: number, doubles: boolean) => Math.min(MAX_DENSITY, doubles ? n * 2 ** level : n);
+  return {
+    perSegment: denser(wholeOption(options.stationsPerSegment, 'stationsPerSegment', 1, MAX_DENSITY), along),
+    perStrip: denser(wholeOption(options.rowsPerStrip, 'rowsPerStrip', along ? 1 : shear !== 0 ? 4 : 2, MAX_DENSITY), true),
+  };
 }
 
 /** Same shear, to rounding (support lines' tan θ from one deck). */
@@ -786,8 +795,9 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
  * are sampled again denser (grillageStations `level`, up to MAX_REFINEMENTS rounds, at most 8
  * stations a segment or 8 rows a strip) and their targets searched again; a factor takes the
  * new search when its bound is smaller (each search is exact on its own sample and its bound
- * honest for its own value, so either may stand). Surfaces whose factors all meet the target
- * are not touched, so the run's time grows only where the surface needs it.
+ * honest for its own value, so either may stand). Surfaces whose factors all meet the target,
+ * and surfaces whose grid is already at the caps, are not sampled again, so the run's time
+ * grows only where a denser surface can help.
  */
 function refineLooseBounds(run: {
   model: GrillageModel;
@@ -803,12 +813,20 @@ function refineLooseBounds(run: {
   progress: (p: RefinedProgress) => void;
 }): void {
   const { targets, factors } = run;
+  /** Whether a surface's grid at `level` is denser than at the level before (not yet at the caps). */
+  const denserAt = (i: number, level: number) => {
+    const c = responseShear(run.model, run.responses[i]);
+    const a = sampleDensity(run.model, run.options, c, level - 1);
+    const b = sampleDensity(run.model, run.options, c, level);
+    return a.perSegment !== b.perSegment || a.perStrip !== b.perStrip;
+  };
   for (let level = 1; level <= MAX_REFINEMENTS; level++) {
-    const loose = [...new Set(targets.filter((_, k) => !factors[k].tolerance.meetsTarget).map((t) => t.surface))];
-    if (!loose.length) return;
-    const again = sampleSurfaces(run.model, loose.map((i) => run.responses[i]), loose.map((i) => run.surfaces[i]), run.rules, run.options, run.momentPoints, level);
-    loose.forEach((i, k) => (run.sampled[i] = again.sampled[k]));
-    const redo = targets.map((_, k) => k).filter((k) => loose.includes(targets[k].surface) && !factors[k].tolerance.meetsTarget);
+    const loose = new Set(targets.filter((t, k) => !factors[k].tolerance.meetsTarget && denserAt(t.surface, level)).map((t) => t.surface));
+    if (!loose.size) return;
+    const list = [...loose];
+    const again = sampleSurfaces(run.model, list.map((i) => run.responses[i]), list.map((i) => run.surfaces[i]), run.rules, run.options, run.momentPoints, level);
+    list.forEach((i, k) => (run.sampled[i] = again.sampled[k]));
+    const redo = targets.map((_, k) => k).filter((k) => loose.has(targets[k].surface) && !factors[k].tolerance.meetsTarget);
     redo.forEach((k, n) => {
       run.progress({ phase: 'refine', done: n, total: redo.length });
       const t = targets[k];

@@ -553,12 +553,12 @@ function laneLineStations(xs: Float64Array, shift: number) {
     for (const x of all) if (!out.length || x - out[out.length - 1] > 1e-10) out.push(x);
     X = Float64Array.from(out);
   }
-  /** Cell of `own` (as index into xs, i.e. own index − 1) holding x and its weight; −2 beyond. */
+  /** The cell of xs holding x and its weight; cell −1 beyond the stations (the ramps and past them). */
   const locate = (x: number): [number, number] => {
     if (x <= xs[0] || x >= xs[nx - 1]) {
       if (x === xs[0]) return [0, 0];
       if (x === xs[nx - 1]) return [nx - 2, 1];
-      return [-2, 0];
+      return [-1, 0];
     }
     const i = cellIndex(xs, x);
     return [i, (x - xs[i]) / (xs[i + 1] - xs[i])];

@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { DEMO_USERS, signIn, startHarness, type Harness } from './harness';
 import { quarryCreekUs } from '../fixtures/decks';
+import { api } from './pageApi';
 import { deckFromDisplay } from '../../shared/deck/units';
 
 /** Quarry Creek with `count` girders at 8 ft over `spans` continuous 110 ft spans at 30° skew. */
@@ -21,17 +22,6 @@ function widened(count: number, spans: number, name: string) {
   us.continuous = spans > 1;
   us.supports = Array.from({ length: spans + 1 }, () => ({ skew: 30 }));
   return deckFromDisplay(us as never, 'US');
-}
-
-async function api<T>(page: Page, method: string, path: string, body?: unknown): Promise<{ status: number; body: T }> {
-  return page.evaluate(
-    async ({ method, path, body }) => {
-      const csrf = document.cookie.split('; ').find((c) => c.startsWith('ds_csrf='))?.slice(8) ?? '';
-      const res = await fetch(path, { method, headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': decodeURIComponent(csrf) }, body: body === undefined ? undefined : JSON.stringify(body), credentials: 'same-origin' });
-      return { status: res.status, body: (await res.json().catch(() => null)) as T };
-    },
-    { method, path, body },
-  );
 }
 
 describe('refined jobs in the browser', () => {

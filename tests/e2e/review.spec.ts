@@ -13,6 +13,7 @@ import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, signIn, signOut, startHarness, type Harness } from './harness';
 import { quarryCreekDeck } from '../fixtures/decks';
+import { api } from './pageApi';
 
 const DECK_NAME = `Quarry Creek review deck ${Date.now()}`;
 
@@ -23,17 +24,6 @@ async function choose(page: Page, testId: string, text: string): Promise<void> {
 }
 
 /** Calls the API from inside the signed-in page (same cookies, CSRF header from the cookie). */
-async function api<T>(page: Page, method: string, path: string, body?: unknown): Promise<{ status: number; body: T }> {
-  return page.evaluate(
-    async ({ method, path, body }) => {
-      const csrf = document.cookie.split('; ').find((c) => c.startsWith('ds_csrf='))?.slice(8) ?? '';
-      const res = await fetch(path, { method, headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': decodeURIComponent(csrf) }, body: body === undefined ? undefined : JSON.stringify(body), credentials: 'same-origin' });
-      return { status: res.status, body: (await res.json().catch(() => null)) as T };
-    },
-    { method, path, body },
-  );
-}
-
 describe('review round trip in the browser', () => {
   let h: Harness;
   let designer: Page;
