@@ -362,10 +362,11 @@ export interface LineWorkspace {
   X: Float64Array;
   acc: Float64Array;
   tmp: Float64Array;
-  fLo: Float64Array;
-  fHi: Float64Array;
   argX: Float64Array;
   deque: Int32Array;
+  /** Sweeps of the current call by their shift (sweepOnce), `shifts.length` of them in use. */
+  sweeps: Float64Array[];
+  shifts: number[];
 }
 
 export function lineWorkspace(capacity = 64): LineWorkspace {
@@ -374,11 +375,26 @@ export function lineWorkspace(capacity = 64): LineWorkspace {
     X: new Float64Array(capacity),
     acc: new Float64Array(capacity),
     tmp: new Float64Array(capacity),
-    fLo: new Float64Array(capacity),
-    fHi: new Float64Array(capacity),
     argX: new Float64Array(capacity),
     deque: new Int32Array(capacity),
+    sweeps: [],
+    shifts: [],
   };
+}
+
+/**
+ * `sweep` of the line at X[j] + c, computed once per shift c within one call of
+ * bestVehicleOnLine (the truck's axle pairs repeat shifts: 0 for every axle on its own
+ * breakpoint, ±(P_a − P_b) for a pair either way); the array returned is read only.
+ */
+function sweepOnce(xs: Float64Array, vs: Float64Array, X: Float64Array, m: number, c: number, positive: boolean, w: LineWorkspace): Float64Array {
+  const k = w.shifts.indexOf(c);
+  if (k >= 0) return w.sweeps[k];
+  const n = w.shifts.length;
+  if (w.sweeps.length <= n || w.sweeps[n].length < m) w.sweeps[n] = new Float64Array(w.capacity);
+  w.shifts.push(c);
+  sweep(xs, vs, X, m, c, positive, w.sweeps[n]);
+  return w.sweeps[n];
 }
 
 /**
@@ -469,7 +485,8 @@ export function bestVehicleOnLine(
     const xf = d0 === 1 ? line.xMin : line.xMax;
     return variable ? { value: 0, frontAxleAt: xf, direction: d0, axleSpacing: v.sMin } : { value: 0, frontAxleAt: xf, direction: d0 };
   }
-  const { X, acc, tmp, fLo, fHi, argX, deque } = work;
+  work.shifts.length = 0;
+  const { X, acc, tmp, argX, deque } = work;
   const W = v.weights;
   const P = v.basePositions;
   const lo = line.xMin - TOL;
@@ -492,9 +509,9 @@ export function bestVehicleOnLine(
     for (let a = 0; a < ahead; a++) {
       for (let j = 0; j < m; j++) acc[j] = 0;
       for (let b = 0; b < ahead; b++) {
-        sweep(xs, vs, X, m, d * (P[a] - P[b]), positive, tmp);
+        const t = sweepOnce(xs, vs, X, m, d * (P[a] - P[b]), positive, work);
         const w = W[b];
-        for (let j = 0; j < m; j++) acc[j] += w * tmp[j];
+        for (let j = 0; j < m; j++) acc[j] += w * t[j];
       }
       if (variable) {
         // rear axle r = g: at spacing s its x is X[j] + c0 − d·(s − sMin)
@@ -502,8 +519,8 @@ export function bestVehicleOnLine(
         const c1 = c0 - d * (v.sMax - v.sMin);
         const cl = Math.min(c0, c1);
         const ch = Math.max(c0, c1);
-        sweep(xs, vs, X, m, cl, positive, fLo);
-        sweep(xs, vs, X, m, ch, positive, fHi);
+        const fLo = sweepOnce(xs, vs, X, m, cl, positive, work);
+        const fHi = sweepOnce(xs, vs, X, m, ch, positive, work);
         // sliding maximum of station ordinates strictly inside (X[j] + cl, X[j] + ch)
         let head = 0;
         let tail = 0;
@@ -564,13 +581,13 @@ export function bestVehicleOnLine(
     // (B) the rear axle at breakpoint j with the spacing at a bound.
     if (variable) {
       for (const s of [v.sMin, v.sMax]) {
-        sweep(xs, vs, X, m, 0, positive, acc);
+        const own = sweepOnce(xs, vs, X, m, 0, positive, work);
         const wr = W[g];
-        for (let j = 0; j < m; j++) acc[j] *= wr;
+        for (let j = 0; j < m; j++) acc[j] = wr * own[j];
         for (let b = 0; b < g; b++) {
-          sweep(xs, vs, X, m, d * (P[g] + s - v.sMin - P[b]), positive, tmp);
+          const t = sweepOnce(xs, vs, X, m, d * (P[g] + s - v.sMin - P[b]), positive, work);
           const w = W[b];
-          for (let j = 0; j < m; j++) acc[j] += w * tmp[j];
+          for (let j = 0; j < m; j++) acc[j] += w * t[j];
         }
         for (let j = 0; j < m; j++) {
           if (!(acc[j] > bestV)) continue;

@@ -607,7 +607,11 @@ function searchSample(
    * V ← sense × ½(η(s, u) + η(s − c·G, u + G)) at the line's stations; the line's deck, where
    * an axle counts as on it (rules.ts: the extent's x-range in plan), in the frame at u.
    */
+  let filledAt = NaN;
   const fill = (u: number) => {
+    // the bound and then the exact value are often asked at the same u
+    if (u === filledAt) return;
+    filledAt = u;
     line.xMin = extent.xMin - shear * u;
     line.xMax = extent.xMax - shear * u;
     const [j1, a1, b1] = weights(u);
