@@ -55,13 +55,16 @@
  * negative moment, reaction) or the load transfer's direction at its moment point, so the
  * jump or kink along that skewed line lies on a grid line instead of crossing cells:
  * longitudinally every node of every line (where the lines' nodes share the frame's grid
- * lines), the support crossings with a step of 1 µm on each side (the shear's jump there),
- * the moment points, and at least `stationsPerSegment` stations per girder segment (default
- * 1; the surface is cubic along the girders between nodes); transversely every longitudinal
- * line, the deck edges, the curb faces and `rowsPerStrip` rows per strip between lines.
- * The governing placement is exact on that sample and carries its tolerance against the
- * surface (search.ts); `tolerance.factor` states it in lanes. Surfaces whose factors miss
- * the bound target are sampled again, denser, up to MAX_REFINEMENTS times (step 4b).
+ * lines), the support crossings with a step of 1 µm on each side (the shear's jump there;
+ * in the frame of the line's own skew the crossing is s = A exactly), the moment points as a
+ * 1 µm pair either side (a jump under the overhangs), the ends of the perpendicular layout's
+ * turning zones, and at least `stationsPerSegment` stations per girder segment (default 1;
+ * the surface is cubic along the girders between nodes); transversely every longitudinal
+ * line, the deck edges, the curb faces and `rowsPerStrip` rows per strip between lines
+ * (baseDensity). The governing placement is exact on that sample and carries its tolerance
+ * against the surface (search.ts); `tolerance.factor` states it in lanes. Surfaces whose
+ * factors miss the bound target are sampled again, denser where their measured error lies,
+ * up to MAX_REFINEMENTS times (step 4b).
  */
 import { assertDeck, DeckInputError, type Deck } from '../deck/schema.js';
 import { lengthInText } from '../quantities/inText.js';
@@ -109,7 +112,8 @@ export interface StationOptions {
   /**
    * Rows per strip between adjacent longitudinal lines (whole number 1–8; default 1 where the
    * load transfer follows the sample's frame, so the surface is linear across a strip; else 4
-   * in a skewed frame and 2 in the plan frame: grillageStations).
+   * or 8 in a skewed frame, by the skew and the strip width, and 2 in the plan frame:
+   * baseDensity).
    */
   rowsPerStrip?: number;
 }
@@ -247,17 +251,21 @@ function wholeOption(value: number | undefined, name: string, fallback: number, 
 
 /** Largest stations per segment and rows per strip, given or reached by refinement. */
 const MAX_DENSITY = 8;
-/** Rounds of refinement of the surfaces whose factors miss the bound target (grillageStations `level`). */
-export const MAX_REFINEMENTS = 2;
+/** Rounds of refinement of the surfaces whose factors miss the bound target (refineLooseBounds). */
+export const MAX_REFINEMENTS = 3;
 
 /**
  * The station grid used to sample a model's influence surfaces (see the header), m, in the
  * frame s = x − shear·y (sampledSurface.ts; shear 0: the plan axes). `extraX`: further
- * stations of s (e.g. moment points). Rows per strip default to 1 where the load transfer
+ * stations of s (e.g. moment points), each as the pair 1 µm before and after it (an
+ * overhang's load reaches its line with a couple, loadTransfer.ts, whose moment jumps where it
+ * passes the moment point, so the exterior strips' moment surface jumps there; the pair holds
+ * the two sides, whereas a station on the point itself would take, point by point, whichever
+ * side x = s + c·y rounds to). Rows per strip default to 1 where the load transfer
  * runs along the frame everywhere (a right deck in the plan frame; the skew-parallel layout
  * in the frame of its parallel supports), so that ordinates are linear across a strip, to 4
- * in another skewed frame and to 2 elsewhere. `level`: refinement round, doubling per level
- * (at most 8) the rows, and the stations too in a frame the transfer follows.
+ * or 8 in another skewed frame and to 2 elsewhere (baseDensity). `density`: another density
+ * (a refinement's, nextDensity).
  */
 export function grillageStations(
   model: GrillageModel,
@@ -265,25 +273,32 @@ export function grillageStations(
   options: StationOptions = {},
   extraX: number[] = [],
   shear = 0,
-  level = 0,
+  density: SampleDensity = baseDensity(model, options, shear),
 ): { xs: Float64Array; ys: Float64Array } {
   const along = transferAlongFrame(model, shear);
-  const { perSegment, perStrip } = sampleDensity(model, options, shear, level);
+  const { perSegment, perStrip } = density;
   const mesh = model.mesh;
   const e = model.extent;
   const range = frameRange(e, shear);
-  const xsList: number[] = [range.sMin, range.sMax, ...extraX];
+  const xsList: number[] = [range.sMin, range.sMax, ...extraX.flatMap((x) => [x - JUMP_STEP, x + JUMP_STEP])];
   // a line's nodes are stations where the lines' nodes meet the frame's grid lines together;
   // elsewhere (the perpendicular layout in a skewed frame) uniform stations stand for them
   // (a surface is smooth across the nodes of the lines it is not read on)
   const nodesAligned = shear === 0 || along;
+  // in the frame of a support line's own skew the line is s = A exactly (not A + B·y − c·y to
+  // rounding), so a point on it evaluates, as x = A + c·y, bitwise where loadTransfer.ts puts
+  // the support and falls on the span that starts there; line nodes on it are snapped to it
+  const onSupport = (j: number, y: number) => (shear === mesh.supportB[j] ? mesh.supportA[j] : supportX(mesh, j, y) - shear * y);
   for (const line of mesh.lines) {
-    if (nodesAligned) for (const x of line.xs) xsList.push(x - shear * line.y);
-    for (let j = 0; j <= mesh.spanCount; j++) {
-      const xs = supportX(mesh, j, line.y) - shear * line.y;
-      xsList.push(xs - JUMP_STEP, xs, xs + JUMP_STEP);
+    const supports = Array.from({ length: mesh.spanCount + 1 }, (_, j) => onSupport(j, line.y));
+    for (const xs of supports) xsList.push(xs - JUMP_STEP, xs, xs + JUMP_STEP);
+    if (!nodesAligned) continue;
+    for (const x of line.xs) {
+      const s = x - shear * line.y;
+      xsList.push(supports.find((a) => Math.abs(a - s) <= 1e-9) ?? s);
     }
   }
+  xsList.push(...endZoneStations(model, shear));
   const h = Math.min(...mesh.spanLengths) / mesh.segmentsPerSpan / perSegment;
   const sorted = xsList.filter((x) => x >= range.sMin && x <= range.sMax).sort((a, b) => a - b);
   const xs: number[] = [];
@@ -312,17 +327,90 @@ export function grillageStations(
 }
 
 /**
- * Stations per segment and rows per strip of a frame's grid at refinement `level`. Where the
- * transfer follows the frame, refinement doubles both (measured on the example decks: the
- * moment bounds need both); otherwise the split's turn near a skewed support bends the
- * surface across the strips (most where the frame is skewed), and it doubles the rows only.
+ * In the perpendicular layout, the frame coordinates (s, m) where a strip's end zone ends
+ * (loadTransfer.ts rule 2: within strip width × |tan θ| of a skewed support line the split's
+ * direction turns to the line's; the surface kinks where the turn starts). In the frame of
+ * that support line's own skew the zone's end is the line s = A ± width·|tan θ| across the
+ * strip, one station per strip width; in other frames it runs obliquely and is not listed.
  */
-function sampleDensity(model: GrillageModel, options: StationOptions, shear: number, level: number): { perSegment: number; perStrip: number } {
+function endZoneStations(model: GrillageModel, shear: number): number[] {
+  const mesh = model.mesh;
+  if (model.layout !== 'perpendicular') return [];
+  const ys = [mesh.deckLeft, ...mesh.lines.map((l) => l.y), mesh.deckRight].sort((a, b) => a - b);
+  const widths: number[] = [];
+  for (let i = 0; i + 1 < ys.length; i++) {
+    const w = ys[i + 1] - ys[i];
+    if (w > 1e-9 && !widths.some((v) => Math.abs(v - w) <= 1e-9)) widths.push(w);
+  }
+  const out: number[] = [];
+  for (let j = 0; j <= mesh.spanCount; j++) {
+    const B = mesh.supportB[j];
+    if (B === 0 || shear !== B) continue;
+    for (const w of widths) {
+      if (j < mesh.spanCount) out.push(mesh.supportA[j] + w * Math.abs(B));
+      if (j > 0) out.push(mesh.supportA[j] - w * Math.abs(B));
+    }
+  }
+  return out;
+}
+
+/** Stations per girder segment and rows per strip of a sample grid (grillageStations). */
+export interface SampleDensity {
+  perSegment: number;
+  perStrip: number;
+}
+
+/**
+ * The first density of a frame's grid: the options' or the defaults (grillageStations): one
+ * station per segment; rows per strip 1 where the transfer follows the frame, 2 in the plan
+ * frame of a skewed deck, and in another skewed frame enough that the girders' node lines,
+ * which cross each strip obliquely there (s = x_node − c·y), move at most half a station
+ * spacing per row: 2·|c|·w / h for the widest strip w and station spacing h, taken as 4 or
+ * 8 (measured on the benchmark's 45° deck: 4 rows miss the bound target on 42 of 64 factors,
+ * 8 meet it on all). Powers of two: rows then often fall a gauge apart (6 ft in 1 ft or 2 ft
+ * rows of an 8 ft strip), so a lane's two wheel lines share their transverse breakpoints
+ * and the search has about half as many to try (7 rows took 485 ms, 8 rows 406 ms there).
+ */
+export function baseDensity(model: GrillageModel, options: StationOptions, shear: number): SampleDensity {
   const along = transferAlongFrame(model, shear);
-  const denser = (n: number, doubles: boolean) => Math.min(MAX_DENSITY, doubles ? n * 2 ** level : n);
+  const perSegment = wholeOption(options.stationsPerSegment, 'stationsPerSegment', 1, MAX_DENSITY);
+  let rows = along ? 1 : 2;
+  if (!along && shear !== 0) {
+    const mesh = model.mesh;
+    const ys = [mesh.deckLeft, ...mesh.lines.map((l) => l.y), mesh.deckRight].sort((a, b) => a - b);
+    let w = 0;
+    for (let i = 0; i + 1 < ys.length; i++) w = Math.max(w, ys[i + 1] - ys[i]);
+    const h = Math.min(...mesh.spanLengths) / mesh.segmentsPerSpan / perSegment;
+    rows = (2 * Math.abs(shear) * w) / h <= 4 + 1e-9 ? 4 : MAX_DENSITY;
+  }
+  return { perSegment, perStrip: wholeOption(options.rowsPerStrip, 'rowsPerStrip', rows, MAX_DENSITY) };
+}
+
+/**
+ * The next density of a surface whose factors miss the bound target, from where its sample's
+ * measured error lies (adaptive refinement): the stations double where the error along the
+ * rows is at least half the error across them, the rows where the error across is at least
+ * half the error along, each up to MAX_DENSITY (the other one grows when one is at its cap).
+ * Null when both are at the caps. Measured on the example decks and random skewed decks:
+ * moment bounds need both; the shear at a skewed end of the perpendicular layout needs the
+ * rows, the pier shear of a narrow-strip deck in that layout the stations (there the girders'
+ * node lines cross the frame's cells).
+ */
+export function nextDensity(d: SampleDensity, sample: Pick<SampledSurface, 'errorAlong' | 'errorAcross'>): SampleDensity | null {
+  const along = sample.errorAlong ?? 0;
+  const across = sample.errorAcross ?? 0;
+  const canS = d.perSegment < MAX_DENSITY;
+  const canR = d.perStrip < MAX_DENSITY;
+  if (!canS && !canR) return null;
+  let growS = canS && along >= 0.5 * across;
+  let growR = canR && across >= 0.5 * along;
+  if (!growS && !growR) {
+    growS = canS;
+    growR = !canS;
+  }
   return {
-    perSegment: denser(wholeOption(options.stationsPerSegment, 'stationsPerSegment', 1, MAX_DENSITY), along),
-    perStrip: denser(wholeOption(options.rowsPerStrip, 'rowsPerStrip', along ? 1 : shear !== 0 ? 4 : 2, MAX_DENSITY), true),
+    perSegment: growS ? Math.min(MAX_DENSITY, 2 * d.perSegment) : d.perSegment,
+    perStrip: growR ? Math.min(MAX_DENSITY, 2 * d.perStrip) : d.perStrip,
   };
 }
 
@@ -492,28 +580,42 @@ function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly Refin
 
 /**
  * Step 3. Every surface sampled, with its check points: surfaces of one frame (responseShear)
- * share one station grid and one table of load shares.
+ * and one density share one station grid and one table of load shares. `densities`: each
+ * surface's density (default: its frame's baseDensity; a refinement's: nextDensity).
  */
-function sampleSurfaces(model: GrillageModel, responses: GrillageResponse[], surfaces: InfluenceSurface[], rules: PlacementRules, options: StationOptions, momentPoints: { x: number; y: number }[], level = 0) {
-  const frames: { shear: number; members: number[] }[] = [];
+export function sampleSurfaces(
+  model: GrillageModel,
+  responses: GrillageResponse[],
+  surfaces: InfluenceSurface[],
+  rules: PlacementRules,
+  options: StationOptions,
+  momentPoints: { x: number; y: number }[],
+  densities?: SampleDensity[],
+) {
+  const groups: { shear: number; density: SampleDensity; members: number[] }[] = [];
   responses.forEach((r, k) => {
     const c = responseShear(model, r);
-    const f = frames.find((fr) => sameShear(fr.shear, c));
-    if (f) f.members.push(k);
-    else frames.push({ shear: c, members: [k] });
+    const d = densities?.[k] ?? baseDensity(model, options, c);
+    const g = groups.find((fr) => sameShear(fr.shear, c) && fr.density.perSegment === d.perSegment && fr.density.perStrip === d.perStrip);
+    if (g) g.members.push(k);
+    else groups.push({ shear: c, density: d, members: [k] });
   });
   const sampled: SampledSurface[] = new Array(surfaces.length);
+  const used: SampleDensity[] = new Array(surfaces.length);
   let stations: { xs: Float64Array; ys: Float64Array } = { xs: new Float64Array(0), ys: new Float64Array(0) };
-  for (const { shear, members } of frames) {
-    const st = grillageStations(model, rules, options, momentPoints.map((p) => p.x - shear * p.y), shear, level);
+  for (const { shear, density, members } of groups) {
+    const st = grillageStations(model, rules, options, momentPoints.map((p) => p.x - shear * p.y), shear, density);
     if (st.xs.length * st.ys.length > stations.xs.length * stations.ys.length) stations = st;
     const table = model.transfer.tabulateGrid(st.xs, st.ys, shear);
     const points = checkPoints(st.xs, st.ys);
     const plan = Float64Array.from(points.x, (s, k) => s + shear * points.y[k]);
     const checkTable = model.transfer.tabulate(plan, points.y);
-    for (const k of members) sampled[k] = sampledFromGrid(surfaces[k], st.xs, st.ys, surfaces[k].evaluate(table), { points, values: surfaces[k].evaluate(checkTable) }, shear);
+    for (const k of members) {
+      sampled[k] = sampledFromGrid(surfaces[k], st.xs, st.ys, surfaces[k].evaluate(table), { points, values: surfaces[k].evaluate(checkTable) }, shear);
+      used[k] = density;
+    }
   }
-  return { stations, sampled };
+  return { stations, sampled, densities: used };
 }
 
 /** One load's search on a target's surface and its one-lane beam-line effect. */
@@ -760,13 +862,13 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
   const beams = girderBeams(model, deck.continuous);
   const { responses, targets, momentPoints } = refinedTargets(deck, beams, effects);
   const surfaces = influenceSurfaces(model, responses);
-  const { stations, sampled } = sampleSurfaces(model, responses, surfaces, rules, options, momentPoints);
+  const { stations, sampled, densities } = sampleSurfaces(model, responses, surfaces, rules, options, momentPoints);
   const beamEffects = new Map<string, number>();
   const factors = targets.map((t, k) => {
     progress({ phase: 'search', done: k, total: targets.length });
     return factorOfTarget(t, searchTarget(t, sampled[t.surface], surfaces[t.surface], rules, beamEffects), model.girderCount);
   });
-  refineLooseBounds({ model, rules, options, responses, surfaces, sampled, targets, factors, momentPoints, beamEffects, progress });
+  refineLooseBounds({ model, rules, options, responses, surfaces, sampled, densities, targets, factors, momentPoints, beamEffects, progress });
   const { rows, sources: rowSources } = refinedRows(deck, factors, rules.laneCount);
   if (options.checkConvergence && effects.includes('moment')) {
     progress({ phase: 'convergence', done: 0, total: 1 });
@@ -792,8 +894,9 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
 
 /**
  * Step 4b. Adaptive refinement: the surfaces of factors whose stated bound misses the target
- * are sampled again denser (grillageStations `level`, up to MAX_REFINEMENTS rounds, at most 8
- * stations a segment or 8 rows a strip) and their targets searched again; a factor takes the
+ * are sampled again denser (nextDensity: the stations, the rows or both, by where the sample's
+ * measured error lies; up to MAX_REFINEMENTS rounds, at most 8 stations a segment or 8 rows a
+ * strip) and their targets searched again; a factor takes the
  * new search when its bound is smaller (each search is exact on its own sample and its bound
  * honest for its own value, so either may stand). Surfaces whose factors all meet the target,
  * and surfaces whose grid is already at the caps, are not sampled again, so the run's time
@@ -806,6 +909,7 @@ function refineLooseBounds(run: {
   responses: GrillageResponse[];
   surfaces: InfluenceSurface[];
   sampled: SampledSurface[];
+  densities: SampleDensity[];
   targets: Target[];
   factors: RefinedFactor[];
   momentPoints: { x: number; y: number }[];
@@ -813,20 +917,21 @@ function refineLooseBounds(run: {
   progress: (p: RefinedProgress) => void;
 }): void {
   const { targets, factors } = run;
-  /** Whether a surface's grid at `level` is denser than at the level before (not yet at the caps). */
-  const denserAt = (i: number, level: number) => {
-    const c = responseShear(run.model, run.responses[i]);
-    const a = sampleDensity(run.model, run.options, c, level - 1);
-    const b = sampleDensity(run.model, run.options, c, level);
-    return a.perSegment !== b.perSegment || a.perStrip !== b.perStrip;
-  };
-  for (let level = 1; level <= MAX_REFINEMENTS; level++) {
-    const loose = new Set(targets.filter((t, k) => !factors[k].tolerance.meetsTarget && denserAt(t.surface, level)).map((t) => t.surface));
-    if (!loose.size) return;
-    const list = [...loose];
-    const again = sampleSurfaces(run.model, list.map((i) => run.responses[i]), list.map((i) => run.surfaces[i]), run.rules, run.options, run.momentPoints, level);
-    list.forEach((i, k) => (run.sampled[i] = again.sampled[k]));
-    const redo = targets.map((_, k) => k).filter((k) => loose.has(targets[k].surface) && !factors[k].tolerance.meetsTarget);
+  for (let round = 1; round <= MAX_REFINEMENTS; round++) {
+    const next = new Map<number, SampleDensity>();
+    targets.forEach((t, k) => {
+      if (factors[k].tolerance.meetsTarget || next.has(t.surface)) return;
+      const d = nextDensity(run.densities[t.surface], run.sampled[t.surface]);
+      if (d) next.set(t.surface, d);
+    });
+    if (!next.size) return;
+    const list = [...next.keys()];
+    const again = sampleSurfaces(run.model, list.map((i) => run.responses[i]), list.map((i) => run.surfaces[i]), run.rules, run.options, run.momentPoints, list.map((i) => next.get(i)!));
+    list.forEach((i, k) => {
+      run.sampled[i] = again.sampled[k];
+      run.densities[i] = again.densities[k];
+    });
+    const redo = targets.map((_, k) => k).filter((k) => next.has(targets[k].surface) && !factors[k].tolerance.meetsTarget);
     redo.forEach((k, n) => {
       run.progress({ phase: 'refine', done: n, total: redo.length });
       const t = targets[k];

@@ -60,6 +60,13 @@ export interface SampledSurface extends SurfaceLike {
    * when not measured. `raisedRows` builds the upper (or lower) sample from them.
    */
   cells?: { error: Float64Array; lo: Float64Array; hi: Float64Array };
+  /**
+   * Largest |surface − representation| at the points checked on the rows between stations
+   * (the error of interpolating along s), and at those on the columns between rows (across y);
+   * absent when not measured. Tells a refinement which way to sample denser.
+   */
+  errorAlong?: number;
+  errorAcross?: number;
 }
 
 function sortedUnique(values: ArrayLike<number>, lo: number, hi: number, what: string): Float64Array {
@@ -220,12 +227,13 @@ function cellCorners(rows: Float64Array[], nx: number, ny: number): NonNullable<
 function markCells(cells: NonNullable<SampledSurface['cells']>, nx: number, ny: number, p: CheckPoints, k: number, d: number, v: number): void {
   const i = p.cellX[k];
   const j = p.cellY[k];
-  const iList = p.inCell[k] ? [i] : [p.column[k] - 1, p.column[k]];
-  const jList = p.ty[k] === 0 ? [j - 1, j] : p.ty[k] === 1 ? [j, j + 1] : [j];
-  for (const a of iList) {
-    if (a < 0 || a >= nx - 1) continue;
-    for (const b of jList) {
-      if (b < 0 || b >= ny - 1) continue;
+  const a0 = p.inCell[k] ? i : p.column[k] - 1;
+  const a1 = p.inCell[k] ? i : p.column[k];
+  const ty = p.ty[k];
+  const b0 = ty === 0 ? j - 1 : j;
+  const b1 = ty === 1 ? j + 1 : j;
+  for (let a = a0 < 0 ? 0 : a0; a <= a1 && a < nx - 1; a++) {
+    for (let b = b0 < 0 ? 0 : b0; b <= b1 && b < ny - 1; b++) {
       const c = b * (nx - 1) + a;
       if (d > cells.error[c]) cells.error[c] = d;
       if (v < cells.lo[c]) cells.lo[c] = v;
@@ -307,6 +315,8 @@ export function sampledFromGrid(
     return a + ty * (b - a);
   };
   let err = 0;
+  let along = 0;
+  let across = 0;
   let envelope: Float64Array | undefined;
   let cells: SampledSurface['cells'];
   if (check) {
@@ -321,6 +331,9 @@ export function sampledFromGrid(
       const b = r1[i0] + p.tx[k] * (r1[i0 + 1] - r1[i0]);
       const d = Math.abs(check.values[k] - (a + p.ty[k] * (b - a)));
       if (d > err) err = d;
+      if (!p.inCell[k]) {
+        if (d > across) across = d;
+      } else if ((p.ty[k] === 0 || p.ty[k] === 1) && d > along) along = d;
       const i = p.column[k];
       if (d > envelope[i]) envelope[i] = d;
       if (p.inCell[k] && d > envelope[i + 1]) envelope[i + 1] = d;
@@ -340,6 +353,10 @@ export function sampledFromGrid(
     source,
   };
   if (envelope) out.errorEnvelope = envelope;
-  if (cells) out.cells = cells;
+  if (cells) {
+    out.cells = cells;
+    out.errorAlong = along;
+    out.errorAcross = across;
+  }
   return out;
 }

@@ -92,7 +92,7 @@ function checkFactor(f: RefinedFactor, surface: SurfaceLike, rules: PlacementRul
 }
 
 describe('refined factors: no legal placement beats a factor by more than its stated bound', () => {
-  it('holds on random decks (skew 0–60°, 3–12 girders, 1–3 spans)', () => {
+  it('holds on random decks (skew 0–60°, 3–12 girders at 6–10 ft, 1–3 spans), and every bound meets the target', () => {
     fc.assert(
       fc.property(
         fc.integer({ min: 0, max: 60 }),
@@ -102,7 +102,7 @@ describe('refined factors: no legal placement beats a factor by more than its st
         fc.integer({ min: 6, max: 10 }),
         (skew, girders, spanCount, spanFt, spacingFt) => {
           const deck = steelGirderDeck({ girders, spacingFt, skew, spansFt: new Array(spanCount).fill(spanFt), continuous: spanCount > 1 });
-          const model = buildGrillage(deck, { segmentsPerSpan: 6 });
+          const model = buildGrillage(deck, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN }); // the mesh of a product run
           const rules = placementRulesForDeck(deck);
           const r = computeRefinedFactors(deck, { model });
           const jumpXs = (y: number) => Array.from({ length: spanCount + 1 }, (_, j) => supportX(model.mesh, j, y));
@@ -116,6 +116,9 @@ describe('refined factors: no legal placement beats a factor by more than its st
           const responses = [...picks].map((f) => f.response);
           const surfaces = influenceSurfaces(model, responses);
           [...picks].forEach((f, i) => checkFactor(f, surfaces[i], rules, jumpXs));
+          // and every stated bound meets the target (issue target; measured on 42 further
+          // random decks of this family: 4,928 of 4,928 factors, the largest 0.0042 lanes, 0.50 %)
+          expect(r.factors.filter((f) => !f.tolerance.meetsTarget).map((f) => `${f.label} ${f.effect}: ${f.tolerance.factor.toFixed(4)} lanes, ${f.tolerance.percent.toFixed(2)} %`)).toEqual([]);
         },
       ),
       { numRuns: 6, seed: 20261203 },
