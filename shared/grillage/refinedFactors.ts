@@ -104,13 +104,13 @@ export const JUMP_STEP = 1e-6;
 
 export interface StationOptions {
   /**
-   * Longitudinal stations per girder segment, at least (whole number 1–8; default 1). The
+   * Longitudinal stations per girder segment, at least (whole number 1–16; default 1). The
    * factors found hardly depend on it (0.004 % between 1 and 4 on the test decks); the stated
    * bound does: about 0.2–0.3 % of the factor at 1, 0.02–0.05 % at 4 on right decks.
    */
   stationsPerSegment?: number;
   /**
-   * Rows per strip between adjacent longitudinal lines (whole number 1–8; default 1 where the
+   * Rows per strip between adjacent longitudinal lines (whole number 1–16; default 1 where the
    * load transfer follows the sample's frame, so the surface is linear across a strip; else 4
    * or 8 in a skewed frame, by the skew and the strip width, and 2 in the plan frame:
    * baseDensity).
@@ -249,10 +249,18 @@ function wholeOption(value: number | undefined, name: string, fallback: number, 
   return value;
 }
 
-/** Largest stations per segment and rows per strip, given or reached by refinement. */
-const MAX_DENSITY = 8;
+/**
+ * Largest stations per segment and rows per strip, given or reached by refinement (16: a
+ * 16 ft strip at 60° needs 16 rows of 1 ft before its moment bounds meet the target).
+ */
+const MAX_DENSITY = 16;
+/**
+ * Largest sample grid a refinement makes (stations × rows): its tables of load shares take
+ * about 400 bytes a point with the check points, so 200,000 points stay near 80 MB.
+ */
+const MAX_SAMPLE_POINTS = 200_000;
 /** Rounds of refinement of the surfaces whose factors miss the bound target (refineLooseBounds). */
-export const MAX_REFINEMENTS = 3;
+export const MAX_REFINEMENTS = 4;
 
 /**
  * The station grid used to sample a model's influence surfaces (see the header), m, in the
@@ -381,7 +389,7 @@ export function baseDensity(model: GrillageModel, options: StationOptions, shear
     let w = 0;
     for (let i = 0; i + 1 < ys.length; i++) w = Math.max(w, ys[i + 1] - ys[i]);
     const h = Math.min(...mesh.spanLengths) / mesh.segmentsPerSpan / perSegment;
-    rows = (2 * Math.abs(shear) * w) / h <= 4 + 1e-9 ? 4 : MAX_DENSITY;
+    rows = (2 * Math.abs(shear) * w) / h <= 4 + 1e-9 ? 4 : 8;
   }
   return { perSegment, perStrip: wholeOption(options.rowsPerStrip, 'rowsPerStrip', rows, MAX_DENSITY) };
 }
@@ -390,17 +398,18 @@ export function baseDensity(model: GrillageModel, options: StationOptions, shear
  * The next density of a surface whose factors miss the bound target, from where its sample's
  * measured error lies (adaptive refinement): the stations double where the error along the
  * rows is at least half the error across them, the rows where the error across is at least
- * half the error along, each up to MAX_DENSITY (the other one grows when one is at its cap).
- * Null when both are at the caps. Measured on the example decks and random skewed decks:
+ * half the error along, each up to MAX_DENSITY (the other one grows when one is at its cap),
+ * and the grid up to MAX_SAMPLE_POINTS. Null when nothing may grow. Measured on the example decks and random skewed decks:
  * moment bounds need both; the shear at a skewed end of the perpendicular layout needs the
  * rows, the pier shear of a narrow-strip deck in that layout the stations (there the girders'
  * node lines cross the frame's cells).
  */
-export function nextDensity(d: SampleDensity, sample: Pick<SampledSurface, 'errorAlong' | 'errorAcross'>): SampleDensity | null {
+export function nextDensity(d: SampleDensity, sample: Pick<SampledSurface, 'errorAlong' | 'errorAcross' | 'xs' | 'ys'>): SampleDensity | null {
   const along = sample.errorAlong ?? 0;
   const across = sample.errorAcross ?? 0;
-  const canS = d.perSegment < MAX_DENSITY;
-  const canR = d.perStrip < MAX_DENSITY;
+  const points = sample.xs.length * sample.ys.length;
+  const canS = d.perSegment < MAX_DENSITY && 2 * points <= MAX_SAMPLE_POINTS;
+  const canR = d.perStrip < MAX_DENSITY && 2 * points <= MAX_SAMPLE_POINTS;
   if (!canS && !canR) return null;
   let growS = canS && along >= 0.5 * across;
   let growR = canR && across >= 0.5 * along;
@@ -408,6 +417,7 @@ export function nextDensity(d: SampleDensity, sample: Pick<SampledSurface, 'erro
     growS = canS;
     growR = !canS;
   }
+  if (growS && growR && 4 * points > MAX_SAMPLE_POINTS) growR = false;
   return {
     perSegment: growS ? Math.min(MAX_DENSITY, 2 * d.perSegment) : d.perSegment,
     perStrip: growR ? Math.min(MAX_DENSITY, 2 * d.perStrip) : d.perStrip,
@@ -895,7 +905,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
 /**
  * Step 4b. Adaptive refinement: the surfaces of factors whose stated bound misses the target
  * are sampled again denser (nextDensity: the stations, the rows or both, by where the sample's
- * measured error lies; up to MAX_REFINEMENTS rounds, at most 8 stations a segment or 8 rows a
+ * measured error lies; up to MAX_REFINEMENTS rounds, at most 16 stations a segment or 16 rows a
  * strip) and their targets searched again; a factor takes the
  * new search when its bound is smaller (each search is exact on its own sample and its bound
  * honest for its own value, so either may stand). Surfaces whose factors all meet the target,

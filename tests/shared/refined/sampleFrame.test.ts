@@ -67,14 +67,18 @@ describe('refined sample: no cell straddles a jump of the surface', () => {
 
 describe('refined sample: a refinement samples denser where the error lies', () => {
   const d = { perSegment: 1, perStrip: 4 };
+  const grid = (nx: number, ny: number) => ({ xs: new Float64Array(nx), ys: new Float64Array(ny) });
   it('doubles the stations when the error is along the rows, the rows when it is across, both when comparable', () => {
-    expect(nextDensity(d, { errorAlong: 1e-2, errorAcross: 1e-15 })).toEqual({ perSegment: 2, perStrip: 4 });
-    expect(nextDensity(d, { errorAlong: 1e-15, errorAcross: 1e-2 })).toEqual({ perSegment: 1, perStrip: 8 });
-    expect(nextDensity(d, { errorAlong: 1e-2, errorAcross: 0.6e-2 })).toEqual({ perSegment: 2, perStrip: 8 });
+    expect(nextDensity(d, { errorAlong: 1e-2, errorAcross: 1e-15, ...grid(100, 30) })).toEqual({ perSegment: 2, perStrip: 4 });
+    expect(nextDensity(d, { errorAlong: 1e-15, errorAcross: 1e-2, ...grid(100, 30) })).toEqual({ perSegment: 1, perStrip: 8 });
+    expect(nextDensity(d, { errorAlong: 1e-2, errorAcross: 0.6e-2, ...grid(100, 30) })).toEqual({ perSegment: 2, perStrip: 8 });
   });
-  it('grows the other way at a cap, and stops at both caps', () => {
-    expect(nextDensity({ perSegment: 8, perStrip: 2 }, { errorAlong: 1, errorAcross: 0 })).toEqual({ perSegment: 8, perStrip: 4 });
-    expect(nextDensity({ perSegment: 8, perStrip: 8 }, { errorAlong: 1, errorAcross: 1 })).toBeNull();
+  it('grows the other way at a cap, and stops at both caps and at the largest grid', () => {
+    expect(nextDensity({ perSegment: 16, perStrip: 2 }, { errorAlong: 1, errorAcross: 0, ...grid(100, 30) })).toEqual({ perSegment: 16, perStrip: 4 });
+    expect(nextDensity({ perSegment: 16, perStrip: 16 }, { errorAlong: 1, errorAcross: 1, ...grid(100, 30) })).toBeNull();
+    // 80,000 points may double once more (one way), 120,000 not at all (200,000 at most)
+    expect(nextDensity(d, { errorAlong: 1, errorAcross: 1, ...grid(1000, 80) })).toEqual({ perSegment: 2, perStrip: 4 });
+    expect(nextDensity(d, { errorAlong: 1, errorAcross: 1, ...grid(1000, 120) })).toBeNull();
   });
   it('starts a skewed frame of the perpendicular layout with rows enough for the node lines crossing its strips', () => {
     // 2·|tan θ|·w/h: 25°, 10 ft strips, 2.5 ft stations → 3.7 → 4 rows; 45°, 8 ft, 2.5 ft → 6.4 → 8 rows
