@@ -1,3 +1,3 @@
 /** Version of the solver in `shared/`; stored beside every computed result. Raise it when a
  *  change alters any computed number. */
-export const SOLVER_VERSION = '1.1.0';
+export const SOLVER_VERSION = '1.2.0';
