@@ -23,7 +23,7 @@ import { projectRouter } from './api/projects/projectRouter.js';
 import { deckRouter, projectDecksRouter } from './api/decks/deckRouter.js';
 import { userRouter } from './api/users/userRouter.js';
 import { errorHandler, notFoundHandler } from './middleware/errors.js';
-import { SOLVER_VERSION } from '../shared/version.js';
+import { PRODUCT_VERSION, SOLVER_VERSION } from '../shared/version.js';
 import { disabledMailer, type Mailer } from './mail/mailer.js';
 import { invitationRouter } from './api/mail/invitationRouter.js';
 import { mailRouter } from './api/mail/mailRouter.js';
@@ -107,7 +107,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   // who: anyone
   api.get('/health', (_req, res) => {
     db.get(sql`select 1`);
-    res.json({ status: 'ok', version: SOLVER_VERSION, database: 'ok' });
+    res.json({ status: 'ok', version: PRODUCT_VERSION, solverVersion: SOLVER_VERSION, database: 'ok' });
   });
   api.use('/auth', authRouter(db, config, pp));
   api.use('/invitations', invitationRouter(db, config, pp, mailer)); // token routes need no session

@@ -17,6 +17,7 @@ import { stepForDisplay, zeroIfNegligible, type TraceStep } from '../../shared/t
 import { fromUs, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '../../shared/units.js';
 import { baseFont, fitLine, heightOf, registerFonts, write, type Weight } from './pdfFonts.js';
 import type { ReportData } from './reportData.js';
+import { PRODUCT_VERSION } from '../../shared/version.js';
 
 export const PACKAGE_CAUTION = 'Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
 
@@ -459,7 +460,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
       ['Review status', statusNote],
       ['Refined analysis', data.refinedDecision ? `${data.refinedDecision.justified ? 'justified' : 'not justified'} — ${data.refinedDecision.reason}` : 'no decision recorded'],
       ['Units', u === 'US' ? 'US customary (ft, in, kip)' : 'SI (m, mm, kN)'],
-      ['Solver', `Deckshare solver ${data.solverVersion} (${data.resultSource === 'stored' ? 'results stored with the version' : 'computed from the version'})`],
+      ['Software', `Deckshare ${PRODUCT_VERSION}, solver ${data.solverVersion} (${data.resultSource === 'stored' ? 'results stored with the version' : 'computed from the version'})`],
       ['Printed', `${data.generatedAt.slice(0, 16).replace('T', ' ')} UTC`],
     ],
     0.26,

@@ -2,13 +2,14 @@
  *  compared with the API's values and with a hand calculation of the HL-93 midspan moment). */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Papa from 'papaparse';
 import { deckFromDisplay } from '../../shared/deck/units.js';
 import type { DeckInput } from '../../shared/deck/schema.js';
 import { quarryCreekDeck } from '../fixtures/decks.js';
+import { SOLVER_VERSION } from '../../shared/version.js';
 import { demo, signIn, type Agent } from './helpers.js';
 import { makeWorkflowApp, otherFirm, send, userId, type WorkflowContext } from './workflowHelpers.js';
 
@@ -84,6 +85,9 @@ describe('calculation package (PDF)', () => {
     for (const s of ['Calculation package', 'Quarry Creek Overpass', 'Harlow County Highway Department', 'Quarry Creek Overpass — main span — version 1', 'Author Dana Okonkwo', 'Reviewer Ruth Castellanos', 'Review status approved']) {
       expect(text, s).toContain(s);
     }
+    // the product's version from package.json (its one source), beside the solver's
+    const pkg = JSON.parse(readFileSync('package.json', 'utf8')) as { version: string };
+    expect(text.replace(/\s+/g, ' ')).toContain(`Software Deckshare ${pkg.version}, solver ${SOLVER_VERSION}`);
   });
 
   it('prints every governing factor and its article, the findings and the decision', () => {

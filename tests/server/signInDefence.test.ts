@@ -8,6 +8,7 @@
  */
 import { afterAll, afterEach, describe, expect, it, vi } from 'vitest';
 import { execFileSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import request from 'supertest';
 import bcrypt from 'bcryptjs';
 import { demo, DEMO_PASSWORD, makeTestApp, type TestContext } from './helpers.js';
@@ -15,6 +16,7 @@ import { loadConfig, defaultPasswordHashThreads, DEFAULT_PASSWORD_HASH_QUEUE } f
 import { closePasswordHashing, configurePasswordHashing, DUMMY_HASH, hashPassword, verifyPassword } from '../../server/auth/password.js';
 import { PasswordPool } from '../../server/auth/passwordPool.js';
 import { signInRefusals } from '../../server/db/schema.js';
+import { SOLVER_VERSION } from '../../shared/version.js';
 
 const open: TestContext[] = [];
 async function app(overrides: Parameters<typeof makeTestApp>[0] = {}) {
@@ -205,6 +207,15 @@ describe('password hashing off the request thread, bounded', () => {
     const script = "import { hashPassword, verifyPassword } from './server/auth/password.ts'; const h = await hashPassword('cli-password-1'); console.log(await verifyPassword('cli-password-1', h), await verifyPassword('other', h));";
     const out = execFileSync('node_modules/.bin/tsx', ['--input-type=module', '-e', script], { encoding: 'utf8', timeout: 20000 });
     expect(out.trim()).toBe('true false');
+  });
+});
+
+describe('health', () => {
+  it('names the product version from package.json, its one source, and the solver version apart', async () => {
+    const ctx = await app();
+    const res = await request(ctx.app).get('/api/health');
+    const pkg = JSON.parse(readFileSync('package.json', 'utf8')) as { version: string };
+    expect(res.body).toEqual({ status: 'ok', version: pkg.version, solverVersion: SOLVER_VERSION, database: 'ok' });
   });
 });
 
