@@ -165,6 +165,16 @@ export function authRouter(db: Db, config: Config, pp: passport.PassportStatic):
     res.json({ user: publicUser(req.user!) });
   });
 
+  // who: anyone. The page's question "is anybody signed in here?": 200 with the user, or with
+  // null when there is no valid session (no error, so the sign-in page logs none); /me stays
+  // the 401 answer for API clients that need a session.
+  r.get('/session', (req, res, next) => {
+    pp.authenticate('jwt', { session: false }, (err: unknown, user: Express.User | false) => {
+      if (err) return next(err);
+      res.json({ user: user ? publicUser(user) : null });
+    })(req, res, next);
+  });
+
   // who: any signed-in user (also with a temporary password)
   r.post('/password', authenticate(pp), requireCsrf, validate({ body: passwordBody }), async (req, res) => {
     const { currentPassword, newPassword } = res.locals.body as z.infer<typeof passwordBody>;

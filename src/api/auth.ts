@@ -11,8 +11,9 @@ export async function logout(): Promise<void> {
   await http.post<void>('/api/auth/logout');
 }
 
-export async function fetchMe(): Promise<SessionUser> {
-  const { user } = await http.get<{ user: SessionUser }>('/api/auth/me');
+/** Who is signed in, or null for nobody (the session route answers 200 either way). */
+export async function fetchSession(): Promise<SessionUser | null> {
+  const { user } = await http.get<{ user: SessionUser | null }>('/api/auth/session');
   return user;
 }
 

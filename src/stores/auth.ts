@@ -36,10 +36,10 @@ export const useAuthStore = defineStore('auth', () => {
   /** Read a project's audit trail (API: admin, reviewer, designer, instructor). */
   const canSeeAudit = computed(() => hasAnyRole(['admin', 'reviewer', 'designer', 'instructor']));
 
-  /** Asks the server who is signed in; 401 simply means nobody. */
+  /** Asks the server who is signed in (null: nobody; a 401 from an older server means the same). */
   async function refresh(): Promise<void> {
     try {
-      me.value = await authApi.fetchMe();
+      me.value = await authApi.fetchSession();
       loadError.value = null;
     } catch (error) {
       me.value = null;

@@ -96,7 +96,7 @@ describe('the router with its guards', () => {
     answer(me(['trainee']));
     await navigation;
     expect(fetchMock).toHaveBeenCalledTimes(1);
-    expect(fetchMock.mock.calls[0]![0]).toBe('/api/auth/me');
+    expect(fetchMock.mock.calls[0]![0]).toBe('/api/auth/session');
     expect(router.currentRoute.value.name).toBe('not-allowed');
     expect(router.currentRoute.value.query.from).toBe('/admin/users');
   });

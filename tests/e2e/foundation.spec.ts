@@ -50,10 +50,19 @@ describe('foundation in the browser', () => {
     await page.close();
   });
 
-  it('sends a visitor to sign in and shows the caution line', async () => {
+  it('sends a visitor to sign in and shows the caution line, with nothing logged as an error', async () => {
     const { page } = h;
+    const consoleErrors: string[] = [];
+    const onConsole = (m: { type(): string; text(): string }) => {
+      if (m.type() === 'error') consoleErrors.push(m.text());
+    };
+    page.on('console', onConsole);
     await page.goto(h.url('/projects'));
     await page.waitForURL(/\/sign-in\?redirect=(%2F|\/)projects$/);
+    await page.locator('button[data-test="sign-in"]').waitFor();
+    page.off('console', onConsole);
+    // asking whether anybody is signed in is not an error (GET /api/auth/session answers 200)
+    expect(consoleErrors).toEqual([]);
     await expect(page.locator('h1', { hasText: 'Deckshare' }).isVisible()).resolves.toBe(true);
     await expect(page.getByText(CAUTION).isVisible()).resolves.toBe(true);
     // The form's own check, before anything is sent.

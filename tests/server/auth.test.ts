@@ -51,6 +51,20 @@ describe('sign-in', () => {
     expect(anon.status).toBe(401);
     expect(anon.body.error.code).toBe('unauthenticated');
   });
+
+  it('answers /session with the user, or with null and no error when nobody is signed in', async () => {
+    const agent = await signIn(ctx.app, demo.reviewer);
+    const mine = await agent.get('/api/auth/session');
+    expect(mine.status).toBe(200);
+    expect(mine.body.user.roles).toEqual(['reviewer']);
+    const anon = await request(ctx.app).get('/api/auth/session');
+    expect(anon.status).toBe(200);
+    expect(anon.body).toEqual({ user: null });
+    // a forged or stale cookie is nobody too
+    const stale = await request(ctx.app).get('/api/auth/session').set('Cookie', 'ds_session=not-a-token');
+    expect(stale.status).toBe(200);
+    expect(stale.body).toEqual({ user: null });
+  });
 });
 
 describe('tokens', () => {

@@ -17,6 +17,7 @@ const OPEN_OR_SELF = new Set([
   'POST /api/auth/login',
   'POST /api/auth/logout',
   'GET /api/auth/me',
+  'GET /api/auth/session',
   'POST /api/auth/password',
   // the invitation token is the secret that grants access; it names no firm id
   'GET /api/invitations/:token',

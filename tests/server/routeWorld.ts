@@ -107,6 +107,7 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'POST /api/auth/login': { anonymous: true, body: { email: 'nobody@larchmont-ridge.example', password: 'wrong-password-1' } },
     'POST /api/auth/logout': { anonymous: true },
     'GET /api/auth/me': {},
+    'GET /api/auth/session': {},
     // The current password is wrong on purpose: a mutated body can never change the password.
     'POST /api/auth/password': { body: { currentPassword: 'not-the-password-1', newPassword: 'a-new-long-password-2' } },
     'GET /api/invitations': {},
