@@ -6,7 +6,8 @@
  * - `analyse`: the code-method factors, the grillage model (mesh + banded factorisation),
  *   the placement rules and the beam-line (one design lane) HL-93 envelopes.
  * - `study`: influence surfaces of every girder's moment (at the studied point of the studied
- *   span) and shear (just inside the span's first support), sampled for the fast path.
+ *   span) and shear (just inside the span's first support), sampled for the search as the
+ *   refined run samples them (each in the frame of its skew).
  * - `evaluate`: the drag path — every girder's share of the current placement, in lanes:
  *     share_g = m(k) · Σ_lanes Σ_axles ½·W·(η_g(x, y_left) + η_g(x, y_right)) / E₁
  *   with E₁ the largest beam-line effect of one lane of the same vehicle at the same point
@@ -29,7 +30,6 @@ import {
   evaluateSurface,
   governingSurfacePlacement,
   placementRulesForDeck,
-  sampleSurface,
   type LanePlacement,
   type Placement,
   type PlacementRules,
@@ -40,7 +40,8 @@ import { influenceLine, maxVehicleEffect, type BeamModel } from '../../shared/lo
 import { hl93BeamLineEffects, type BeamLineEffects } from '../../shared/loads/beamLine';
 import { girderLiveLoadEffects } from '../../shared/loads/girderEffects';
 import { deckGirderEffects } from '../../shared/loads/deckEffects';
-import { REFINED_SEGMENTS_PER_SPAN, computeRefinedFactors, grillageStations, type RefinedResult } from '../../shared/grillage/refinedFactors';
+import { REFINED_SEGMENTS_PER_SPAN, computeRefinedFactors, sampleSurfaces, type RefinedResult } from '../../shared/grillage/refinedFactors';
+import { supportX } from '../../shared/grillage/mesh';
 import { compareFactors, type FactorComparison } from '../../shared/grillage/compare';
 
 export type VehicleKey = 'design truck' | 'design tandem' | 'fatigue truck';
@@ -207,6 +208,19 @@ function momentFractionFor(deck: Deck, span: number): number {
   return 0.5;
 }
 
+/**
+ * Each girder's moment point at `fraction` of span `span`, in plan (m): on the girder's line,
+ * between its crossings of the span's support lines (where refinedFactors.ts puts it).
+ */
+function girderMomentPoints(model: GrillageModel, span: number, fraction: number): { x: number; y: number }[] {
+  const lines = model.mesh.lines.filter((l) => l.kind === 'girder').sort((a, b) => a.girder - b.girder);
+  return lines.map((l) => {
+    const x0 = supportX(model.mesh, span, l.y);
+    const x1 = supportX(model.mesh, span + 1, l.y);
+    return { x: x0 + fraction * (x1 - x0), y: l.y };
+  });
+}
+
 export class SolverSession {
   private deck: Deck | null = null;
   private code: CodeFactorResult | null = null;
@@ -320,22 +334,20 @@ export class SolverSession {
     const surfaces = influenceSurfaces(model, responses);
     await ctx.checkpoint();
     const raw = { moment: surfaces.slice(0, Nb), shear: surfaces.slice(Nb) };
-    // The refined run's station grid (every node line, the support crossings either side of
-    // the shear's jump, the moment point), so the governing values agree with its factors.
-    const spanLengths = deck.spans.map((s) => s.length);
-    const studiedX = spanLengths.slice(0, span).reduce((a, b) => a + b, 0) + fraction * spanLengths[span];
-    const st = grillageStations(model, rules, {}, [studiedX]);
+    // Sampled as the refined run samples them (refinedFactors.ts, step 3): each surface in the
+    // frame of the skew it is read at (the shear along its support line, the moment along the
+    // load transfer at its moment point), with the moment points stepped either side, so the
+    // governing values and their stated bounds agree with the refined factors. Every sample's
+    // representation error is measured, so each governing placement's tolerance statement is a
+    // true bound (shared/placement/search.ts).
+    const momentPoints = girderMomentPoints(model, span, fraction);
     const sampled: Record<StudyEffect, SampledSurface[]> = { moment: [], shear: [] };
-    // Every sample's representation error is measured, so that each governing placement's
-    // tolerance statement is a true bound (shared/placement/search.ts).
     const sampleRelativeError: Record<StudyEffect, number> = { moment: 0, shear: 0 };
-    for (let k = 0; k < surfaces.length; k++) {
-      const s = sampleSurface(surfaces[k], st, { measure: true });
-      const effect: StudyEffect = k < Nb ? 'moment' : 'shear';
-      sampled[effect].push(s);
-      if (s.maxOrdinate > 0) sampleRelativeError[effect] = Math.max(sampleRelativeError[effect], s.representationError / s.maxOrdinate);
-      ctx.progress('sampling the surfaces', 0.1 + (0.85 * (k + 1)) / surfaces.length);
-      if ((k + 1) % 2 === 0) await ctx.checkpoint();
+    for (const [effect, from] of [['moment', 0], ['shear', Nb]] as const) {
+      ctx.progress(`sampling the ${effect} surfaces`, effect === 'moment' ? 0.1 : 0.5);
+      await ctx.checkpoint();
+      sampled[effect] = sampleSurfaces(model, responses.slice(from, from + Nb), surfaces.slice(from, from + Nb), rules, {}, momentPoints).sampled;
+      for (const s of sampled[effect]) if (s.maxOrdinate > 0) sampleRelativeError[effect] = Math.max(sampleRelativeError[effect], s.representationError / s.maxOrdinate);
     }
     const spans = deck.spans.map((s) => s.length);
     const beam: BeamModel = { spans, continuous: deck.continuous };

@@ -18,6 +18,7 @@ import { SolverSession } from '@/workers/solverCore';
 import { checkPlacement, type LanePlacement } from '@shared/placement/rules';
 import { DESIGN_TRUCK } from '@shared/loads/vehicles';
 import { deckTemplate } from '@/components/deck/deckTemplates';
+import { BOUND_TARGET_LANES, BOUND_TARGET_PERCENT, REFINED_SEGMENTS_PER_SPAN } from '@shared/grillage/refinedFactors';
 
 /** The workspace's one-span precast starting deck (six girders, 110 ft, 20° skew). */
 const quarryCreekDeck = () => deckTemplate('precast-one-span').build();
@@ -79,6 +80,31 @@ describe('drag-path shares on a right deck (statics)', () => {
     const b = s.evaluate([mirrored], 'moment').shares;
     a.forEach((v, g) => expect(b[a.length - 1 - g]).toBeCloseTo(v, 4));
   }, 60_000);
+});
+
+describe('governing placements on a skewed deck agree with the refined run', () => {
+  // One value, one number (common practice, no source): the workspace's governing shear just
+  // inside a 40° support and the refined factor of the same girder, effect and point are the
+  // same search on samples built by the same rule (refinedFactors.ts, sampleSurfaces), so they
+  // differ by no more than their stated bounds, and those bounds meet the refined target. Before
+  // the workspace sampled in the plan frame, where the shear's jump along the skewed support
+  // crossed its cells and the stated tolerance was tens of % of the factor.
+  it('shear at the skewed support and moment, every girder: within the stated bounds, each bound within the target', async () => {
+    const deck = { ...quarryCreekDeck(), supports: [{ skew: 40 }, { skew: 40 }] };
+    const s = new SolverSession();
+    await s.analyse(deck, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN });
+    await s.study(0, 'design truck');
+    const refined = s.refinedComparison().refined;
+    for (const effect of ['shear', 'moment'] as const) {
+      for (let g = 0; g < refined.girderCount; g++) {
+        const w = s.governing(g, effect);
+        const f = refined.factors.find((x) => x.girder === g && x.effect === effect && (effect === 'shear' ? x.point.kind === 'shear' && x.point.support === 0 : x.span === 0))!;
+        expect(Math.abs(w.factor - f.value), `girder ${g + 1} ${effect}`).toBeLessThanOrEqual(Math.max(w.toleranceFactor, f.tolerance.factor) + 1e-9);
+        expect(w.toleranceFactor, `girder ${g + 1} ${effect} bound`).toBeLessThanOrEqual(BOUND_TARGET_LANES);
+        expect(w.toleranceFactor / w.factor, `girder ${g + 1} ${effect} bound %`).toBeLessThanOrEqual(BOUND_TARGET_PERCENT / 100);
+      }
+    }
+  }, 120_000);
 });
 
 describe('governing placements', () => {
