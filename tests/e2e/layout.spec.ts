@@ -1,0 +1,68 @@
+/**
+ * The deck workspace's results fit the screen from 1280 px up (common practice, no source: a
+ * checker must see every column and every tab without hunting for them): at 1280 and 1920 px
+ * wide, every tab of the results is in view (none folded into the tab bar's "…" menu), and
+ * the comparison table, both ways of listing it, ends inside its card with nothing to scroll
+ * to (its last column, the grillage ÷ code ratio, in the viewport).
+ *
+ * Screenshots go to tests/e2e/screenshots/layout-*.png.
+ */
+import { afterAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { DEMO_USERS, signIn, startHarness, type Harness } from './harness';
+
+async function openNewDeck(h: Harness): Promise<Page> {
+  const page = h.page;
+  await signIn(page, h.baseUrl, DEMO_USERS.designer);
+  await page.goto(h.url('/projects'));
+  await page.locator('[data-test="projects-table"] tbody tr a', { hasText: 'Quarry Creek Overpass' }).first().click();
+  await page.locator('[data-test="new-deck"]').click();
+  await page.locator('[data-test="deck-scene"][data-ready="true"]').waitFor({ timeout: 60_000 });
+  await page.locator('[data-test="results-tabs"] .ant-tabs-tab', { hasText: 'Comparison of methods' }).click();
+  await page.locator('.ds-compare-bar', { hasText: 'Refined run:' }).waitFor({ timeout: 120_000 });
+  await page.locator('[data-test="solver-progress"]').waitFor({ state: 'detached', timeout: 120_000 });
+  return page;
+}
+
+/** The comparison's scroll box: how wide its content is, how wide it shows, and where its last header cell ends. */
+async function tableFit(page: Page): Promise<{ scrollWidth: number; clientWidth: number; lastRight: number }> {
+  return page.evaluate(() => {
+    const box = document.querySelector<HTMLElement>('[data-test="comparison"] .ds-compare-scroll');
+    if (!box) throw new Error('no comparison table');
+    const ths = box.querySelectorAll('thead th');
+    const last = ths[ths.length - 1];
+    return { scrollWidth: box.scrollWidth, clientWidth: box.clientWidth, lastRight: last.getBoundingClientRect().right };
+  });
+}
+
+describe.each([1280, 1920])('the workspace at %i px wide', (width) => {
+  let h: Harness | undefined;
+
+  afterAll(async () => {
+    await h?.stop();
+  });
+
+  it('shows every results tab and the whole comparison table', async () => {
+    h = await startHarness({ viewport: { width, height: 1000 } });
+    const page = await openNewDeck(h);
+    const tabs = await page.locator('[data-test="results-tabs"] .ant-tabs-tab').evaluateAll((els) =>
+      els.map((e) => ({ text: e.textContent ?? '', right: e.getBoundingClientRect().right, visible: getComputedStyle(e).visibility !== 'hidden' })),
+    );
+    expect(tabs.map((t) => t.text)).toEqual(['Comparison of methods', 'Influence surface', 'Girder envelopes', 'Lever rule and rigid section', 'Findings and model']);
+    for (const t of tabs) {
+      expect(t.visible, t.text).toBe(true);
+      expect(t.right, t.text).toBeLessThanOrEqual(width);
+    }
+    // antd folds tabs that do not fit into a "…" menu, hidden when every tab fits
+    expect(await page.locator('[data-test="results-tabs"] .ant-tabs-nav-operations:not(.ant-tabs-nav-operations-hidden)').count()).toBe(0);
+
+    for (const mode of ['Interior and exterior', 'Every girder']) {
+      await page.locator('[data-test="comparison-mode"] label', { hasText: mode }).click();
+      await page.waitForTimeout(300);
+      const fit = await tableFit(page);
+      expect(fit.scrollWidth, mode).toBeLessThanOrEqual(fit.clientWidth + 1);
+      expect(fit.lastRight, mode).toBeLessThanOrEqual(width);
+      await h.screenshot(`layout-${width}-${mode === 'Every girder' ? 'every-girder' : 'kinds'}`);
+    }
+  }, 240_000);
+});
