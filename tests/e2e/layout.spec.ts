@@ -3,7 +3,8 @@
  * checker must see every column and every tab without hunting for them): at 1280 and 1920 px
  * wide, every tab of the results is in view (none folded into the tab bar's "…" menu), and
  * the comparison table, both ways of listing it, ends inside its card with nothing to scroll
- * to (its last column, the grillage ÷ code ratio, in the viewport).
+ * to (its last column, the grillage ÷ code ratio, in the viewport). On a 390 px phone the
+ * header's user menu stays in view and the page never scrolls sideways.
  *
  * Screenshots go to tests/e2e/screenshots/layout-*.png.
  */
@@ -65,4 +66,28 @@ describe.each([1280, 1920])('the workspace at %i px wide', (width) => {
       await h.screenshot(`layout-${width}-${mode === 'Every girder' ? 'every-girder' : 'kinds'}`);
     }
   }, 240_000);
+});
+
+describe('a phone, 390 px wide', () => {
+  let h: Harness | undefined;
+
+  afterAll(async () => {
+    await h?.stop();
+  });
+
+  it('keeps the header’s user menu in view, and the page does not scroll sideways (the projects table scrolls in its box)', async () => {
+    h = await startHarness({ viewport: { width: 390, height: 800 } });
+    const page = h.page;
+    await signIn(page, h.baseUrl, DEMO_USERS.designer);
+    await page.goto(h.url('/projects'));
+    await page.locator('[data-test="projects-table"] tbody tr a', { hasText: 'Quarry Creek Overpass' }).first().waitFor();
+    const menu = await page.locator('[data-test="user-menu"]').boundingBox();
+    expect(menu).not.toBeNull();
+    expect(menu!.x + menu!.width).toBeLessThanOrEqual(390);
+    expect(await page.locator('[data-test="user-menu"]').getAttribute('aria-label')).toBe('Account menu for Dana Okonkwo');
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await page.locator('[data-test="user-menu"]').click();
+    await page.getByText('Sign out').waitFor();
+    await h.screenshot('layout-390-projects');
+  }, 120_000);
 });
