@@ -88,7 +88,11 @@ describe('refined jobs in the browser', () => {
     const summary = page.locator('[data-test="refined-summary"]');
     await summary.waitFor({ timeout: 120_000 });
     expect(await page.locator('[data-test="refined-job"]').count()).toBe(0);
-    expect(await summary.innerText()).toContain('licensed engineer');
+    // the caution, once on the screen and in view beside the factors (the shell's footer)
+    const caution = page.locator('[data-test="caution-footer"]');
+    expect(await caution.innerText()).toContain('licensed engineer');
+    expect(await caution.isVisible()).toBe(true);
+    expect(await page.getByText('licensed engineer').count()).toBe(1);
     const [download] = await Promise.all([page.waitForEvent('download', { timeout: 60_000 }), page.locator('[data-test="download-pdf"]').click()]);
     expect(download.suggestedFilename()).toMatch(/-v1-calculation-package\.pdf$/);
     expect((await readFile(await download.path())).subarray(0, 5).toString()).toBe('%PDF-');

@@ -4,7 +4,8 @@
  * wide, every tab of the results is in view (none folded into the tab bar's "…" menu), and
  * the comparison table, both ways of listing it, ends inside its card with nothing to scroll
  * to (its last column, the grillage ÷ code ratio, in the viewport). On a 390 px phone the
- * header's user menu stays in view and the page never scrolls sideways.
+ * header's user menu stays in view and the page never scrolls sideways. The caution shows once
+ * per screen and stays in view (the shell's sticky footer).
  *
  * Screenshots go to tests/e2e/screenshots/layout-*.png.
  */
@@ -64,6 +65,15 @@ describe.each([1280, 1920])('the workspace at %i px wide', (width) => {
       expect(fit.scrollWidth, mode).toBeLessThanOrEqual(fit.clientWidth + 1);
       expect(fit.lastRight, mode).toBeLessThanOrEqual(width);
       await h.screenshot(`layout-${width}-${mode === 'Every girder' ? 'every-girder' : 'kinds'}`);
+    }
+    // the caution: once on the screen, and in view wherever the page is scrolled to
+    expect(await page.getByText('licensed engineer').count()).toBe(1);
+    for (const y of [0, 2000]) {
+      await page.evaluate((top) => window.scrollTo(0, top), y);
+      const box = await page.locator('[data-test="caution-footer"]').boundingBox();
+      expect(box, `scrolled to ${y}`).not.toBeNull();
+      expect(box!.y + box!.height, `scrolled to ${y}`).toBeLessThanOrEqual(1000 + 0.5);
+      expect(box!.y, `scrolled to ${y}`).toBeGreaterThanOrEqual(0);
     }
   }, 240_000);
 });

@@ -85,7 +85,11 @@ describe('review round trip in the browser', () => {
     const summary = reviewer.locator('[data-test="refined-summary"]');
     await summary.waitFor();
     expect(await summary.locator('[data-test="skew-words"]').innerText()).toContain('support 1: 20.0°');
-    expect(await summary.innerText()).toContain('licensed engineer');
+    // the caution, once on the screen and in view beside the factors (the shell's footer)
+    const caution = reviewer.locator('[data-test="caution-footer"]');
+    expect(await caution.innerText()).toContain('licensed engineer');
+    expect(await caution.isVisible()).toBe(true);
+    expect(await reviewer.getByText('licensed engineer').count()).toBe(1);
     expect(await summary.locator('[data-test="no-range-findings"]').count()).toBe(1);
 
     await reviewer.locator('[data-test="comment-body"]').fill('Check the lever-rule wheel position over girder 1.');
