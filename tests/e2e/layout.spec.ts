@@ -58,6 +58,13 @@ describe.each([1280, 1920])('the workspace at %i px wide', (width) => {
     // antd folds tabs that do not fit into a "…" menu, hidden when every tab fits
     expect(await page.locator('[data-test="results-tabs"] .ant-tabs-nav-operations:not(.ant-tabs-nav-operations-hidden)').count()).toBe(0);
 
+    // the 3D view's legend sits below the drawing, never over it (it hid G6's label in the plan)
+    await page.locator('[data-test="scene-view"] label', { hasText: 'Plan' }).click();
+    const canvas = await page.locator('[data-test="scene-canvas"]').boundingBox();
+    const legend = await page.locator('[data-test="deck-scene"] .ds-scene-legend').boundingBox();
+    expect(legend!.y).toBeGreaterThanOrEqual(canvas!.y + canvas!.height - 0.5);
+    await page.locator('[data-test="scene-view"] label', { hasText: '3D' }).click();
+
     for (const mode of ['Interior and exterior', 'Every girder']) {
       await page.locator('[data-test="comparison-mode"] label', { hasText: mode }).click();
       await page.waitForTimeout(300);
