@@ -554,7 +554,7 @@ export class SolverSession {
     const series: GirderEnvelopeSeries[] = [];
     series.push({
       girder,
-      label: `code factors (${kind} girder)`,
+      label: `code factors (${kind} girders, span 1, the governing lane case)`,
       factors: { moment: first('moment'), shear: first('shear'), source: 'code' },
       x: codeEffects.points.map((p) => p.x),
       momentMax: codeEffects.points.map((p) => p.moment.max.value),
@@ -566,7 +566,9 @@ export class SolverSession {
       const refinedEffects = girderLiveLoadEffects(this.beamLine, { moment: refined.moment, shear: refined.shear });
       series.push({
         girder,
-        label: `grillage factors (girder ${girder + 1})`,
+        label: this.studyState
+          ? `grillage factors of girder ${girder + 1} alone (moment at ${this.studyState.summary.momentFraction} of span ${this.studyState.summary.span + 1}, shear just inside support ${this.studyState.summary.shearSupport + 1}; the comparison's ${kind} rows take the largest of the ${kind} girders and of both span ends)`
+          : `grillage factors of girder ${girder + 1} alone`,
         factors: { ...refined, source: 'grillage' },
         x: refinedEffects.points.map((p) => p.x),
         momentMax: refinedEffects.points.map((p) => p.moment.max.value),

@@ -104,6 +104,13 @@ describe('governing placements on a skewed deck agree with the refined run', () 
         expect(w.toleranceFactor / w.factor, `girder ${g + 1} ${effect} bound %`).toBeLessThanOrEqual(BOUND_TARGET_PERCENT / 100);
       }
     }
+    // the envelope tab says whose factors it uses and where they were read (a kind's row in the
+    // comparison takes the largest of that kind's girders and of both span ends)
+    const m = s.governing(0, 'moment');
+    const v = s.governing(0, 'shear');
+    const labels = s.envelopes(0, { moment: m.factor, shear: v.factor }).map((e) => e.label);
+    expect(labels[0]).toBe('code factors (exterior girders, span 1, the governing lane case)');
+    expect(labels[1]).toContain('grillage factors of girder 1 alone (moment at 0.5 of span 1, shear just inside support 1;');
   }, 120_000);
 });
 
