@@ -18,6 +18,10 @@ import { fromUs, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } fro
 import { baseFont, fitLine, heightOf, registerFonts, write, type Weight } from './pdfFonts.js';
 import type { ReportData } from './reportData.js';
 import { PRODUCT_VERSION } from '../../shared/version.js';
+import { FINDING_LEVEL_WORDS, findingLevel } from '../../shared/findings/levels.js';
+
+/** A finding's level in words, with its code (shared/findings/levels.ts). */
+const levelWords = (f: { code: string; severity?: string }) => `${FINDING_LEVEL_WORDS[findingLevel(f)]} (${f.code})`;
 
 export const PACKAGE_CAUTION = 'Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
 
@@ -519,7 +523,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
       printed.set(signature, rowTitle(r));
       for (const s of r.trace) w.traceStep(s);
     }
-    for (const f of r.findings) w.text(`Finding (${f.code}): ${showLengths(f.message, data.units)}${f.message.includes(f.article) ? '' : ` [${f.article}]`}`, { size: 8, color: WHEEL, indent: 10 });
+    for (const f of r.findings) w.text(`Finding, ${levelWords(f)}: ${showLengths(f.message, data.units)}${f.message.includes(f.article) ? '' : ` [${f.article}]`}`, { size: 8, color: WHEEL, indent: 10 });
     w.y += 4;
   }
 
@@ -546,7 +550,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   // ── 6 Findings ──────────────────────────────────────────────────────────────────────
   w.heading('6  Findings');
   if (data.code.findings.length === 0) w.text('No findings: every formula was used within its range of applicability.', { color: MUTED });
-  else w.table(['Kind', 'Finding', 'Article'], data.code.findings.map((f) => [f.code, showLengths(f.message, data.units), f.article]), [0.13, 0.6, 0.27]);
+  else w.table(['Level', 'Finding', 'Article'], data.code.findings.map((f) => [levelWords(f), showLengths(f.message, data.units), f.article]), [0.17, 0.56, 0.27]);
 
   // ── 7 Girder effects ────────────────────────────────────────────────────────────────
   w.heading('7  Girder live-load effects (HL-93, LL+IM)');
@@ -579,7 +583,7 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
   for (const i of s.indicators) w.text(`• ${i}`);
   w.heading('Range of applicability, fallbacks and caps', 2);
   if (s.rangeFindings.length === 0) w.text('None: every empirical formula was used within its range.', { color: MUTED });
-  else w.table(['Kind', 'Finding', 'Article'], s.rangeFindings.map((f) => [f.code, showLengths(f.message, data.units), f.article]), [0.13, 0.6, 0.27]);
+  else w.table(['Level', 'Finding', 'Article'], s.rangeFindings.map((f) => [levelWords(f), showLengths(f.message, data.units), f.article]), [0.17, 0.56, 0.27]);
   w.heading('Skew', 2);
   w.text(s.skew.words);
   if (s.skew.effects.length) {

@@ -6,6 +6,7 @@
  * numbers stay numbers.
  */
 import { showLengths } from '../../shared/quantities/inText.js';
+import { FINDING_LEVEL_WORDS, findingLevel } from '../../shared/findings/levels.js';
 import { toCsv, type CsvCell } from './csvText.js';
 import { toUs, unitSymbol, toDisplay, type QuantityKind, type UnitSystem } from '../../shared/units.js';
 import type { ReportData } from './reportData.js';
@@ -44,7 +45,7 @@ export function factorsCsv(data: ReportData): string {
       r.adopted,
       r.governing,
       factorArticle(r),
-      r.findings.map((f) => showLengths(f.message, data.units)).join(' | '),
+      r.findings.map((f) => `${FINDING_LEVEL_WORDS[findingLevel(f)]}: ${showLengths(f.message, data.units)}`).join(' | '),
       null,
       null,
       null,
@@ -52,7 +53,7 @@ export function factorsCsv(data: ReportData): string {
     ]);
   }
   for (const g of data.refinedRows ?? []) {
-    rows.push([g.id, g.girderKind, g.girderNumber ?? null, g.effect, g.location.description, len(g.location.spanLength), g.lanes, g.loadedLanes ?? null, g.method, g.baseValue, g.skewFactor, g.value, g.adopted, g.governing, data.summary.refined.source, g.findings.map((f) => showLengths(f.message, data.units)).join(' | '), g.vehicle ?? null, g.bound?.lanes ?? null, g.bound?.percent ?? null, g.bound ? g.bound.meetsTarget : null]);
+    rows.push([g.id, g.girderKind, g.girderNumber ?? null, g.effect, g.location.description, len(g.location.spanLength), g.lanes, g.loadedLanes ?? null, g.method, g.baseValue, g.skewFactor, g.value, g.adopted, g.governing, data.summary.refined.source, g.findings.map((f) => `${FINDING_LEVEL_WORDS[findingLevel(f)]}: ${showLengths(f.message, data.units)}`).join(' | '), g.vehicle ?? null, g.bound?.lanes ?? null, g.bound?.percent ?? null, g.bound ? g.bound.meetsTarget : null]);
   }
   return csv(rows);
 }

@@ -73,6 +73,14 @@ describe.each([1280, 1920])('the workspace at %i px wide', (width) => {
       expect(fit.lastRight, mode).toBeLessThanOrEqual(width);
       await h.screenshot(`layout-${width}-${mode === 'Every girder' ? 'every-girder' : 'kinds'}`);
     }
+    // findings are marked by level, with a legend; the template deck is within every range, so
+    // its marks are notes and assumptions only (shared/findings/levels.ts)
+    expect(await page.locator('[data-test="finding-legend"] [data-level]').evaluateAll((els) => els.map((e) => e.getAttribute('data-level')))).toEqual(['note', 'assumption', 'warning', 'out-of-range']);
+    await page.locator('[data-test="comparison-mode"] label', { hasText: 'Interior and exterior' }).click();
+    const levels = await page.locator('[data-test="comparison"] [data-test="finding-mark"]').evaluateAll((els) => [...new Set(els.map((e) => e.getAttribute('data-level')))]);
+    expect(levels.length).toBeGreaterThan(0);
+    expect(levels.every((l) => l === 'note' || l === 'assumption')).toBe(true);
+
     // the caution: once on the screen, and in view wherever the page is scrolled to
     expect(await page.getByText('licensed engineer').count()).toBe(1);
     for (const y of [0, 2000]) {

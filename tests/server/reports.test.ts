@@ -10,6 +10,7 @@ import { deckFromDisplay } from '../../shared/deck/units.js';
 import type { DeckInput } from '../../shared/deck/schema.js';
 import { quarryCreekDeck } from '../fixtures/decks.js';
 import { SOLVER_VERSION } from '../../shared/version.js';
+import { FINDING_LEVEL_WORDS, findingLevel } from '../../shared/findings/levels.js';
 import { demo, signIn, type Agent } from './helpers.js';
 import { makeWorkflowApp, otherFirm, send, userId, type WorkflowContext } from './workflowHelpers.js';
 
@@ -20,7 +21,7 @@ let trainee: Agent;
 let outsider: Agent;
 let deckId: number;
 let projectId: number;
-let codeRows: { id: string; value: number; adopted: boolean; governing: boolean }[];
+let codeRows: { id: string; value: number; adopted: boolean; governing: boolean; findings: { code: string; severity?: string }[] }[];
 let governing: { girder: string; effect: string; value: number }[];
 let reviewId: number;
 
@@ -93,6 +94,8 @@ describe('calculation package (PDF)', () => {
   it('prints every governing factor and its article, the findings and the decision', () => {
     for (const g of governing) expect(text, `${g.girder} ${g.effect}`).toContain(g.value.toFixed(4));
     for (const r of codeRows) expect(text, r.id).toContain(r.value.toFixed(4));
+    // findings with their levels (shared/findings/levels.ts), as everywhere else
+    expect(text.replace(/\s+/g, ' ')).toContain('note (not-applicable)');
     for (const s of ['Table 4.6.2.2.2b-1', 'Table 4.6.2.2.3a-1', 'Art. 4.6.2.2.1 (lever rule)', 'Kg = n · (I + A · eg²)', 'θ = 20.0° is below 30°', 'Governing placements on the cross-section', 'Lane 1', 'A refined analysis is not justified', 'Every formula within its range; skew below 30°.']) {
       expect(text, s).toContain(s);
     }
@@ -161,7 +164,12 @@ describe('CSV exports', () => {
       expect(Number(r.value)).toBe(codeRows[i].value);
       expect(r.adopted).toBe(String(codeRows[i].adopted));
       expect(r.governing).toBe(String(codeRows[i].governing));
+      // each finding with its level, as the workspace, the review and the package mark it
+      const findings = r.findings ? r.findings.split(' | ') : [];
+      expect(findings.length).toBe(codeRows[i].findings.length);
+      findings.forEach((text, k) => expect(text.startsWith(`${FINDING_LEVEL_WORDS[findingLevel(codeRows[i].findings[k])]}: `), text).toBe(true));
     });
+    expect(rows.some((r) => r.findings !== '')).toBe(true);
     expect(Number(rows[0].span_length_ft)).toBe(110);
 
     // Then the grillage rows: the largest of each girder, effect and place is the refined
