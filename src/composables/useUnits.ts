@@ -27,6 +27,33 @@ export function formatInput(value: number | undefined | null, kind: QuantityKind
 }
 
 /**
+ * Decimals an engineer writes a typed value to, per unit system and kind (ft to 3, in to 2,
+ * kip-ft to 1; m to 3, mm to 1): an input box shows a value so while it is not being edited.
+ */
+const SHOWN_INPUT_DECIMALS: Record<UnitSystem, Partial<Record<QuantityKind, number>>> = {
+  US: { length: 3, dimension: 2, area: 2, lengthSquared: 2, inertia: 1, stress: 2, unitWeight: 4, force: 2, moment: 1, lineLoad: 4, angle: 2, none: 4 },
+  SI: { length: 3, dimension: 1, area: 0, lengthSquared: 3, inertia: 0, stress: 1, unitWeight: 2, force: 2, moment: 1, lineLoad: 3, angle: 2, none: 4 },
+};
+
+/**
+ * An internal value → the text an input box shows while it is not being edited: at the
+ * decimals an engineer writes (SHOWN_INPUT_DECIMALS), trailing zeros dropped. The stored value
+ * is never rounded; `formatInput` gives its every digit (shown while editing). `rounded` says
+ * whether the two differ.
+ */
+export function formatInputShown(value: number | undefined | null, kind: QuantityKind, system: UnitSystem): { text: string; rounded: boolean } {
+  const full = formatInput(value, kind, system);
+  if (value === undefined || value === null || !Number.isFinite(value)) return { text: full, rounded: false };
+  const d = SHOWN_INPUT_DECIMALS[system][kind] ?? 4;
+  const shown = toDisplay(value, kind, system);
+  const abs = Math.abs(shown);
+  // tiny values keep their significant digits rather than read 0
+  if (abs !== 0 && abs < 10 ** -d) return { text: full, rounded: false };
+  const text = String(Number(shown.toFixed(d)));
+  return { text, rounded: Number(text) !== Number(full) };
+}
+
+/**
  * The text of an input box in `system` → an internal value. Empty text gives undefined;
  * text that is not a number gives NaN (the schema then names the field and the rule).
  * Accepts a decimal comma, spaces and thin spaces as digit groups, and a leading "+".

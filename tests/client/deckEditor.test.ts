@@ -88,8 +88,11 @@ describe('validation beside each field', () => {
     await wrapper.find('[data-test="girder-layout-kind"] input[value="offsets"]').setValue(true);
     await flushPromises();
     expect(store.draft.girders.kind).toBe('offsets');
-    // The table starts from the equal spacing: 0, 9.667, 19.333 … ft.
-    expect(input('girders.offsets.2').element.value).toBe('19.33333');
+    // The table starts from the equal spacing: 0, 9.667, 19.333 … ft (shown to 3 decimals
+    // as an engineer writes feet; the value kept has every digit, given in the tooltip).
+    expect(input('girders.offsets.2').element.value).toBe('19.333');
+    expect(input('girders.offsets.2').attributes('title')).toContain('the value kept is 19.33333 ft');
+    expect(store.draft.girders.kind === 'offsets' && store.draft.girders.offsets[2]).toBeRelativelyClose(2 * (9 + 8 / 12) * 0.3048, 1e-12);
     await type('girders.offsets.2', '5');
     // Girder 3 moved to 5 ft, left of girder 2 at 9.667 ft: the message sits on girder 3.
     expect(messageOf('girders.offsets.2')).toContain('girder 3 must lie to the right of girder 2');
@@ -160,8 +163,11 @@ describe('units switch', () => {
     expect(store.draft.slab.thickness).toBeRelativelyClose(0.215, 1e-15);
     store.units = 'US';
     await flushPromises();
-    // 215 mm / 25.4 = 8.464567 in.
-    expect(input('slab.thickness').element.value).toBe('8.464567');
+    // 215 mm / 25.4 = 8.464567 in, shown as 8.46 in (inches to 2 decimals) while the value
+    // kept stays 215 mm exactly
+    expect(input('slab.thickness').element.value).toBe('8.46');
+    expect(input('slab.thickness').attributes('title')).toContain('the value kept is 8.464567 in');
+    expect(store.draft.slab.thickness).toBeRelativelyClose(0.215, 1e-15);
     store.units = 'SI';
     await flushPromises();
     expect(input('slab.thickness').element.value).toBe('215');
