@@ -2,6 +2,7 @@
  * The product's e-mail notices, each as plain text and simple HTML (every value escaped).
  * Links point at the client's routes under `publicUrl`.
  */
+import { formatTimestamp } from '../../shared/time/timestamps.js';
 import type { MailKind, MailMessage } from './mailer.js';
 
 const CAUTION = 'Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
@@ -58,7 +59,7 @@ export function invitationMessage(p: { firmId: number; firmName: string; to: Per
     greeting: `Hello ${p.to.name},`,
     paragraphs: [
       `${p.invitedBy} has given you an account at ${p.firmName} in Deckshare, the firm's tool for live-load distribution factors of slab-on-girder decks.`,
-      `Choose your password with the link below. The link works once and expires on ${p.expiresAt.slice(0, 16).replace('T', ' ')} UTC.`,
+      `Choose your password with the link below. The link works once and expires on ${formatTimestamp(p.expiresAt, 'UTC')}.`,
     ],
     link: { label: 'Set your password', url: p.link },
   });
@@ -122,7 +123,7 @@ export function assignmentGivenMessage(p: { firmId: number; to: Person; instruct
     greeting: `Hello ${p.to.name},`,
     paragraphs: [
       `${p.instructor} has given you an exercise: ${p.question}`,
-      `Due ${p.dueAt.slice(0, 16).replace('T', ' ')} UTC. Work it by hand, then enter your values and steps in Deckshare.`,
+      `Due ${formatTimestamp(p.dueAt, 'UTC')}. Work it by hand, then enter your values and steps in Deckshare.`,
     ],
     link: { label: 'Open the exercise', url: p.link },
   });

@@ -18,6 +18,7 @@ import { fromUs, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } fro
 import { baseFont, fitLine, heightOf, registerFonts, write, type Weight } from './pdfFonts.js';
 import type { ReportData } from './reportData.js';
 import { PRODUCT_VERSION } from '../../shared/version.js';
+import { formatTimestamp } from '../../shared/time/timestamps.js';
 import { FINDING_LEVEL_WORDS, findingLevel } from '../../shared/findings/levels.js';
 
 /** A finding's level in words, with its code (shared/findings/levels.ts). */
@@ -458,14 +459,14 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
       ['Owner agency', data.project.ownerAgency || '—'],
       ['Location', data.project.location || '—'],
       ['Deck', data.deck.name],
-      ['Version', `${data.version.number}: ${data.version.message} (saved ${data.version.createdAt.slice(0, 16).replace('T', ' ')} UTC)`],
+      ['Version', `${data.version.number}: ${data.version.message} (saved ${formatTimestamp(data.version.createdAt, 'UTC')})`],
       ['Author', data.author.name],
       ['Reviewer', data.reviewer ? data.reviewer.name : 'not submitted for review'],
       ['Review status', statusNote],
       ['Refined analysis', data.refinedDecision ? `${data.refinedDecision.justified ? 'justified' : 'not justified'} — ${data.refinedDecision.reason}` : 'no decision recorded'],
       ['Units', u === 'US' ? 'US customary (ft, in, kip)' : 'SI (m, mm, kN)'],
       ['Software', `Deckshare ${PRODUCT_VERSION}, solver ${data.solverVersion} (${data.resultSource === 'stored' ? 'results stored with the version' : 'computed from the version'})`],
-      ['Printed', `${data.generatedAt.slice(0, 16).replace('T', ' ')} UTC`],
+      ['Printed', formatTimestamp(data.generatedAt, 'UTC')],
     ],
     0.26,
   );

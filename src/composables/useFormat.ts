@@ -1,18 +1,11 @@
-/** Display formats shared by the views (dates in the reader's locale, relative when recent). */
+/** Display formats shared by the views (moments as the e-mails and reports write them, in the reader's zone). */
+import { formatTimestamp } from '@shared/time/timestamps';
 
-const dateTime = new Intl.DateTimeFormat(undefined, {
-  year: 'numeric',
-  month: 'short',
-  day: 'numeric',
-  hour: '2-digit',
-  minute: '2-digit',
-});
-const dateOnly = new Intl.DateTimeFormat(undefined, { year: 'numeric', month: 'short', day: 'numeric' });
+const dateOnly = new Intl.DateTimeFormat('en-US', { year: 'numeric', month: 'short', day: 'numeric' });
 
-/** "12 Mar 2026, 14:05" style; an unreadable timestamp is shown as given. */
+/** "Dec 5, 2026, 14:09 GMT+1" in the reader's zone, named: the e-mails' and reports' way (shared/time/timestamps.ts). */
 export function formatDateTime(iso: string): string {
-  const date = new Date(iso);
-  return Number.isNaN(date.getTime()) ? iso : dateTime.format(date);
+  return formatTimestamp(iso);
 }
 
 export function formatDate(iso: string): string {

@@ -4,6 +4,7 @@
  * `INVITATION_HOURS`, and a newer invitation replaces an older one. Setting the password
  * signs the user in and ends their other sessions.
  */
+import { formatTimestamp } from '../../../shared/time/timestamps.js';
 import { randomBytes } from 'node:crypto';
 import { and, desc, eq, isNull } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
@@ -70,7 +71,7 @@ export function inviteUser(db: Db, mailer: Mailer, publicUrl: string, actor: Act
       .where(and(eq(invitations.userId, userId), isNull(invitations.usedAt), isNull(invitations.replacedAt)))
       .run();
     const row = tx.insert(invitations).values({ firmId: actor.firmId, userId, tokenHash: sha256(token), expiresAt, createdBy: actor.id }).returning().get();
-    recordAudit(tx, { firmId: actor.firmId, actorId: actor.id, action: 'invite', entityType: 'user', entityId: userId, summary: `sent ${u.email} an invitation to set a password (expires ${expiresAt.slice(0, 16).replace('T', ' ')} UTC)` });
+    recordAudit(tx, { firmId: actor.firmId, actorId: actor.id, action: 'invite', entityType: 'user', entityId: userId, summary: `sent ${u.email} an invitation to set a password (expires ${formatTimestamp(expiresAt, 'UTC')})` });
     return row;
   });
   const link = `${publicUrl.replace(/\/$/, '')}/set-password/${token}`;
