@@ -57,6 +57,9 @@ export function isSavedPlacements(value: unknown): value is SavedPlacements {
 
 export type WorkspaceMode = 'new' | 'edit' | 'read-only';
 
+/** The name a new deck is computed under until the user names it (never saved). */
+export const UNNAMED_DECK = 'New deck (not named yet)';
+
 export const useDeckStore = defineStore('deck', () => {
   /** The deck being edited, internal units. Number fields may hold NaN/undefined while typed. */
   const draft = ref<DeckInput>(deckTemplate('precast-one-span').build());
@@ -65,11 +68,19 @@ export const useDeckStore = defineStore('deck', () => {
 
   const validation = computed(() => validateDeck(draft.value));
   const issues = computed(() => validation.value.issues);
+  /** Whether the draft can be saved (every field, its name included). */
   const valid = computed(() => validation.value.deck !== null);
-  /** The last deck that passed validation: what the 3D view and the solver show. */
-  const lastValidDeck = shallowRef(validation.value.deck);
+  /**
+   * The draft as the solver and the views take it: a deck needs a name to be saved, not to be
+   * computed, so a new deck whose name is still empty is computed as UNNAMED_DECK.
+   */
+  const computableValidation = computed(() => (draft.value.name?.trim() ? validation.value : validateDeck({ ...draft.value, name: UNNAMED_DECK })));
+  /** Whether the draft can be computed (its name aside). */
+  const computable = computed(() => computableValidation.value.deck !== null);
+  /** The last deck that could be computed: what the 3D view and the solver show. */
+  const lastValidDeck = shallowRef(computableValidation.value.deck);
   watch(
-    () => validation.value.deck,
+    () => computableValidation.value.deck,
     (deck) => {
       if (deck) lastValidDeck.value = deck;
     },
@@ -131,7 +142,8 @@ export const useDeckStore = defineStore('deck', () => {
     versionsPage.value = null;
     version.value = null;
     basedOnVersionId.value = null;
-    draft.value = deckTemplate(template).build();
+    // a new deck's name starts empty: the user names it (the template's name is no name of theirs)
+    draft.value = { ...deckTemplate(template).build(), name: '' };
     templateKey.value = template;
     units.value = system;
     savedJson.value = null;
@@ -140,13 +152,12 @@ export const useDeckStore = defineStore('deck', () => {
     resetPlacement();
   }
 
+  /** Starts the draft from another template; the name typed so far (or none) is kept. */
   function useTemplate(template: DeckTemplateKey): void {
     if (mode.value === 'read-only') return;
     const name = draft.value.name;
-    const typed = name !== deckTemplate(templateKey.value).build().name;
-    draft.value = deckTemplate(template).build();
+    draft.value = { ...deckTemplate(template).build(), name };
     templateKey.value = template;
-    if (typed && name) draft.value.name = name;
     resetPlacement();
   }
 
@@ -271,6 +282,8 @@ export const useDeckStore = defineStore('deck', () => {
     draft,
     units,
     validation,
+    computableValidation,
+    computable,
     issues,
     valid,
     lastValidDeck,

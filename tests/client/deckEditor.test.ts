@@ -22,6 +22,12 @@ async function mountEditor(): Promise<void> {
   await flushPromises();
 }
 
+/** The editor with the new deck named, as a user names it first. */
+async function mountNamedEditor(): Promise<void> {
+  await mountEditor();
+  await type('name', 'Main span');
+}
+
 function input(key: string) {
   const el = wrapper.find<HTMLInputElement>(`input[data-test="field-${key}"]`);
   if (!el.exists()) throw new Error(`no input for ${key}`);
@@ -51,7 +57,29 @@ async function type(key: string, text: string): Promise<void> {
 
 beforeEach(async () => {
   document.body.innerHTML = '';
-  await mountEditor();
+  await mountNamedEditor();
+});
+
+describe('a new deck', () => {
+  it('starts with an empty name: it computes, and cannot be saved until it is named', async () => {
+    document.body.innerHTML = '';
+    await mountEditor();
+    expect(input('name').element.value).toBe('');
+    expect(input('name').attributes('placeholder')).toBe('e.g. Main span');
+    expect(store.computable).toBe(true);
+    expect(store.valid).toBe(false);
+    expect(messageOf('name')).toContain('deck name is required');
+    expect(wrapper.find('[data-test="deck-problems"]').text()).toContain('1 problem to fix before the deck can be saved');
+    // another starting deck keeps the name typed so far, or none
+    store.useTemplate('steel-three-span');
+    await flushPromises();
+    expect(store.draft.name).toBe('');
+    await type('name', 'North approach');
+    store.useTemplate('precast-one-span');
+    await flushPromises();
+    expect(store.draft.name).toBe('North approach');
+    expect(store.valid).toBe(true);
+  });
 });
 
 describe('validation beside each field', () => {
