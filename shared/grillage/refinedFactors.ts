@@ -255,8 +255,9 @@ function wholeOption(value: number | undefined, name: string, fallback: number, 
  */
 const MAX_DENSITY = 16;
 /**
- * Largest sample grid a refinement makes (stations × rows): its tables of load shares take
- * about 400 bytes a point with the check points, so 200,000 points stay near 80 MB.
+ * Largest sample grid a refinement makes (stations × rows). A point's load shares take 168
+ * bytes (LoadShareTable: 2 slots of 12 + 8 doubles and an index), four times over with its
+ * three check points, so 200,000 points hold about 135 MB of tables while they are sampled.
  */
 const MAX_SAMPLE_POINTS = 200_000;
 /** Rounds of refinement of the surfaces whose factors miss the bound target (refineLooseBounds). */
@@ -334,6 +335,14 @@ export function grillageStations(
   return { xs: Float64Array.from(xs), ys: Float64Array.from(ys) };
 }
 
+/** Widths of the strips across the deck (m): between the deck edges and the longitudinal lines, edge to edge. */
+function stripWidths(mesh: GrillageModel['mesh']): number[] {
+  const ys = [mesh.deckLeft, ...mesh.lines.map((l) => l.y), mesh.deckRight].sort((a, b) => a - b);
+  const out: number[] = [];
+  for (let i = 0; i + 1 < ys.length; i++) if (ys[i + 1] - ys[i] > 1e-9) out.push(ys[i + 1] - ys[i]);
+  return out;
+}
+
 /**
  * In the perpendicular layout, the frame coordinates (s, m) where a strip's end zone ends
  * (loadTransfer.ts rule 2: within strip width × |tan θ| of a skewed support line the split's
@@ -344,12 +353,8 @@ export function grillageStations(
 function endZoneStations(model: GrillageModel, shear: number): number[] {
   const mesh = model.mesh;
   if (model.layout !== 'perpendicular') return [];
-  const ys = [mesh.deckLeft, ...mesh.lines.map((l) => l.y), mesh.deckRight].sort((a, b) => a - b);
   const widths: number[] = [];
-  for (let i = 0; i + 1 < ys.length; i++) {
-    const w = ys[i + 1] - ys[i];
-    if (w > 1e-9 && !widths.some((v) => Math.abs(v - w) <= 1e-9)) widths.push(w);
-  }
+  for (const w of stripWidths(mesh)) if (!widths.some((v) => Math.abs(v - w) <= 1e-9)) widths.push(w);
   const out: number[] = [];
   for (let j = 0; j <= mesh.spanCount; j++) {
     const B = mesh.supportB[j];
@@ -385,9 +390,7 @@ export function baseDensity(model: GrillageModel, options: StationOptions, shear
   let rows = along ? 1 : 2;
   if (!along && shear !== 0) {
     const mesh = model.mesh;
-    const ys = [mesh.deckLeft, ...mesh.lines.map((l) => l.y), mesh.deckRight].sort((a, b) => a - b);
-    let w = 0;
-    for (let i = 0; i + 1 < ys.length; i++) w = Math.max(w, ys[i + 1] - ys[i]);
+    const w = Math.max(...stripWidths(mesh));
     const h = Math.min(...mesh.spanLengths) / mesh.segmentsPerSpan / perSegment;
     rows = (2 * Math.abs(shear) * w) / h <= 4 + 1e-9 ? 4 : 8;
   }
@@ -399,8 +402,8 @@ export function baseDensity(model: GrillageModel, options: StationOptions, shear
  * measured error lies (adaptive refinement): the stations double where the error along the
  * rows is at least half the error across them, the rows where the error across is at least
  * half the error along, each up to MAX_DENSITY (the other one grows when one is at its cap),
- * and the grid up to MAX_SAMPLE_POINTS. Null when nothing may grow. Measured on the example decks and random skewed decks:
- * moment bounds need both; the shear at a skewed end of the perpendicular layout needs the
+ * and the grid up to MAX_SAMPLE_POINTS. Null when nothing may grow. Measured on the example
+ * decks and random skewed decks: moment bounds need both; the shear at a skewed end of the perpendicular layout needs the
  * rows, the pier shear of a narrow-strip deck in that layout the stations (there the girders'
  * node lines cross the frame's cells).
  */
@@ -499,6 +502,19 @@ interface GirderBeam {
 }
 
 /** Step 1. Each girder's beam line (its own spans), with the tenth point where one lane's truck moment is largest. */
+/**
+ * Girder g's moment point at `fraction` of span `span`, in plan (m): on its line, between its
+ * crossings of the span's support lines, as refinedTargets places it from girderBeams (for
+ * callers without those beams: the workspace study).
+ */
+export function girderMomentPoint(model: GrillageModel, girder: number, span: number, fraction: number): { x: number; y: number } {
+  const mesh = model.mesh;
+  const y = mesh.lines[mesh.girderLine[girder]].y;
+  const x0 = supportX(mesh, span, y);
+  const x1 = supportX(mesh, span + 1, y);
+  return { x: x0 + fraction * (x1 - x0), y };
+}
+
 function girderBeams(model: GrillageModel, continuous: boolean): GirderBeam[] {
   const mesh = model.mesh;
   const N = model.spanCount;

@@ -40,8 +40,7 @@ import { influenceLine, maxVehicleEffect, type BeamModel } from '../../shared/lo
 import { hl93BeamLineEffects, type BeamLineEffects } from '../../shared/loads/beamLine';
 import { girderLiveLoadEffects } from '../../shared/loads/girderEffects';
 import { deckGirderEffects } from '../../shared/loads/deckEffects';
-import { REFINED_SEGMENTS_PER_SPAN, computeRefinedFactors, sampleSurfaces, type RefinedResult } from '../../shared/grillage/refinedFactors';
-import { supportX } from '../../shared/grillage/mesh';
+import { REFINED_SEGMENTS_PER_SPAN, computeRefinedFactors, girderMomentPoint, sampleSurfaces, type RefinedResult } from '../../shared/grillage/refinedFactors';
 import { compareFactors, type FactorComparison } from '../../shared/grillage/compare';
 
 export type VehicleKey = 'design truck' | 'design tandem' | 'fatigue truck';
@@ -208,19 +207,6 @@ function momentFractionFor(deck: Deck, span: number): number {
   return 0.5;
 }
 
-/**
- * Each girder's moment point at `fraction` of span `span`, in plan (m): on the girder's line,
- * between its crossings of the span's support lines (where refinedFactors.ts puts it).
- */
-function girderMomentPoints(model: GrillageModel, span: number, fraction: number): { x: number; y: number }[] {
-  const lines = model.mesh.lines.filter((l) => l.kind === 'girder').sort((a, b) => a.girder - b.girder);
-  return lines.map((l) => {
-    const x0 = supportX(model.mesh, span, l.y);
-    const x1 = supportX(model.mesh, span + 1, l.y);
-    return { x: x0 + fraction * (x1 - x0), y: l.y };
-  });
-}
-
 export class SolverSession {
   private deck: Deck | null = null;
   private code: CodeFactorResult | null = null;
@@ -340,7 +326,7 @@ export class SolverSession {
     // governing values and their stated bounds agree with the refined factors. Every sample's
     // representation error is measured, so each governing placement's tolerance statement is a
     // true bound (shared/placement/search.ts).
-    const momentPoints = girderMomentPoints(model, span, fraction);
+    const momentPoints = Array.from({ length: Nb }, (_, g) => girderMomentPoint(model, g, span, fraction));
     const sampled: Record<StudyEffect, SampledSurface[]> = { moment: [], shear: [] };
     const sampleRelativeError: Record<StudyEffect, number> = { moment: 0, shear: 0 };
     for (const [effect, from] of [['moment', 0], ['shear', Nb]] as const) {
