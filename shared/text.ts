@@ -75,3 +75,14 @@ export function personText(what: string, max: number, options: { multiline?: boo
   if (options.min !== undefined) s = s.min(options.min, options.minMessage ?? `${what} is required`);
   return s.max(max, `${what} must be at most ${max} characters`);
 }
+
+/**
+ * A message written for the API (lower-case start, no full stop, "e-mail or password is wrong")
+ * as a sentence on a screen: first letter upper-case, a full stop unless it ends in one already.
+ */
+export function asSentence(message: string): string {
+  const text = message.trim();
+  if (!text) return text;
+  const first = text[0].toLocaleUpperCase('en-US') + text.slice(1);
+  return /[.!?…:)”"]$/.test(first) ? first : `${first}.`;
+}

@@ -8,6 +8,7 @@
  *    `ApiError`, and a failed connection or an unreadable answer into an `ApiError` with a
  *    sentence a person can act on.
  */
+import { asSentence } from '@shared/text';
 
 /** Error codes the API documents, plus the two the client itself produces. */
 export type ApiErrorCode =
@@ -316,8 +317,8 @@ export function describeError(error: unknown): string {
     if (error.details.length > 0 && (error.code === 'validation_failed' || error.code === 'bad_request')) {
       return error.details.map((d) => (fieldOf(d.path) ? `${fieldOf(d.path)}: ${d.message}` : d.message)).join('; ');
     }
-    return error.message;
+    return asSentence(error.message);
   }
-  if (error instanceof Error && error.message) return error.message;
+  if (error instanceof Error && error.message) return asSentence(error.message);
   return 'Something went wrong. Please try again.';
 }

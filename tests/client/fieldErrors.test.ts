@@ -33,7 +33,7 @@ describe('useFieldErrors', () => {
     expect(fe.errors.name).toBeUndefined();
     expect(fe.formError.value).toBe('A project with this name exists.');
     fe.apply(new Error('boom'));
-    expect(fe.formError.value).toBe('boom');
+    expect(fe.formError.value).toBe('Boom.');
   });
 
   it('clears a field message when that field is edited, and only that one', async () => {

@@ -138,6 +138,13 @@ describe('error mapping', () => {
     expect([second.status, second.code, second.message]).toEqual([409, 'conflict', 'You cannot remove your own admin role.']);
   });
 
+  it('shows an API message written in lower case as a sentence (the sign-in failure)', () => {
+    // The server's messages read as clauses ("e-mail or password is wrong"); a screen shows sentences.
+    const error = errorFromResponse(401, { error: { code: 'unauthenticated', message: 'e-mail or password is wrong, or the account is disabled' } });
+    expect(describeError(error)).toBe('E-mail or password is wrong, or the account is disabled.');
+    expect(describeError(errorFromResponse(409, { error: { code: 'conflict', message: 'Already sent.' } }))).toBe('Already sent.');
+  });
+
   it('gives a readable message when a 500 or 502 carries no envelope (empty or HTML body)', async () => {
     fetchMock.mockResolvedValueOnce(new Response('', { status: 500 }));
     fetchMock.mockResolvedValueOnce(new Response('<html><body>Bad Gateway</body></html>', { status: 502 }));
