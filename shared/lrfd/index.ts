@@ -29,3 +29,4 @@ export {
   type GoverningFactor,
   type DerivedValues,
 } from './factors.js';
+export { governingChoice, type Candidate, type GoverningChoice } from './choice.js';

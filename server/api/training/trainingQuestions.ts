@@ -14,11 +14,11 @@
  */
 import type { Deck } from '../../../shared/deck/schema.js';
 import { deckGeometry } from '../../../shared/deck/geometry.js';
-import type { CodeFactorResult, FactorRow } from '../../../shared/lrfd/index.js';
+import { governingChoice, type Candidate, type CodeFactorResult, type FactorRow } from '../../../shared/lrfd/index.js';
 import type { TraceStep } from '../../../shared/trace.js';
 import { checkPlacement, evaluateTransverse, governingTransversePlacement, leverRuleLine, placementRulesForDeck, rigidSectionLine, wheelLines, type Placement } from '../../../shared/placement/index.js';
-import { toUs } from '../../../shared/units.js';
 import { ApiError } from '../../middleware/errors.js';
+import { lengthInText } from '../../../shared/quantities/inText.js';
 import { factorArticle } from '../reviews/versionResults.js';
 import type { FactorParams, PlacementInput, SubmissionBody, TruckPositionParams } from './trainingModel.js';
 
@@ -28,6 +28,8 @@ export interface ExpectedAnswer {
   value: number;
   article: string;
   trace: TraceStep[];
+  /** Governing-value questions: every candidate and what became of it (shared/lrfd/choice.ts). */
+  candidates?: Candidate[];
   /** Code row id (factor questions). */
   rowId?: string;
   method?: string;
@@ -83,11 +85,14 @@ export function expectedFactor(code: CodeFactorResult, p: FactorParams): Expecte
     if (p.location && !locations.includes(p.location)) throw paramsError(`no ${EFFECT_WORDS[p.effect]} factor at ${p.location}: choose one of ${locations.join(', ')}`);
     throw paramsError(`this deck version has no ${factorQuestion(p, p.location ?? locations[0])}: the code does not use that method for that case here`);
   }
+  // A governing value is the pick among candidates: show them all and the rule that picked it.
+  const choice = p.method === 'governing' ? governingChoice(code.factors, { girder: p.girder, effect: p.effect, locationKey: row.location.key }, p.lanes) : null;
   return {
     question: factorQuestion(p, row.location.description),
     value: row.value,
     article: factorArticle(row),
-    trace: row.trace,
+    trace: choice && choice.candidates.length > 1 ? [...row.trace, choice.step] : row.trace,
+    ...(choice && choice.candidates.length > 1 ? { candidates: choice.candidates } : {}),
     rowId: row.id,
     method: row.method,
     lanes: row.lanes,
@@ -108,7 +113,8 @@ function lineFor(deck: Deck, p: TruckPositionParams) {
   return { g, rules, line };
 }
 
-const ft = (m: number) => `${toUs.ft(m).toFixed(2)} ft`;
+/** A length in a trace label, shown in the reader's units (shared/quantities/inText.ts). */
+const len = lengthInText;
 
 export function expectedTruckPosition(deck: Deck, p: TruckPositionParams): ExpectedAnswer {
   const { g, rules, line } = lineFor(deck, p);
@@ -120,7 +126,7 @@ export function expectedTruckPosition(deck: Deck, p: TruckPositionParams): Expec
   const wl = best.placement.lanes.map((l) => wheelLines(rules, l));
   const what = p.line === 'lever-rule' ? 'lever rule' : 'rigid-section method';
   const trace: TraceStep[] = best.effect.lanes.map((l, i) => ({
-    label: `Lane ${i + 1}: edges ${ft(l.left)} to ${ft(l.right)} from girder 1, wheel lines at ${ft(l.wheelLines[0])} and ${ft(l.wheelLines[1])}`,
+    label: `Lane ${i + 1}: edges ${len(l.left)} to ${len(l.right)} from girder 1, wheel lines at ${len(l.wheelLines[0])} and ${len(l.wheelLines[1])}`,
     formula: '½ (r(y₁) + r(y₂)), r the reaction of the girder per unit load at y',
     inputs: [
       { symbol: 'y₁', description: 'left wheel line', value: l.wheelLines[0], kind: 'length' as const },
