@@ -437,6 +437,12 @@ export const assignments = sqliteTable(
     dueAt: text('due_at').notNull(),
     /** The product's answer with its trace, JSON, computed when the assignment was made. */
     expectedJson: text('expected_json').notNull(),
+    /**
+     * When the instructor opened the exercise to all: from then on its version's results and
+     * the product's answer are shown to every trainee, submitted or not. Null while closed.
+     */
+    resultsOpenedAt: text('results_opened_at'),
+    resultsOpenedBy: integer('results_opened_by').references(() => users.id),
     createdBy: integer('created_by')
       .notNull()
       .references(() => users.id),

@@ -115,6 +115,8 @@ export interface Exercise {
   version: { id: number; number: number };
   createdBy: PersonRef;
   createdAt: string;
+  /** Set once the instructor opened the exercise to all: the answer and the version's results are shown to every trainee. */
+  openedToAll: { at: string; by: PersonRef | null } | null;
   roadway: Roadway | null;
   expected: ExpectedAnswer | null;
   caution: string;
@@ -135,6 +137,14 @@ export interface InstructorExercise extends Exercise {
 
 export interface TraineeExercise extends Exercise {
   submissions: Submission[];
+}
+
+/** What an instructor may change on an exercise (openToAll cannot be undone). */
+export interface ExerciseChanges {
+  dueAt?: string;
+  instructions?: string;
+  addTraineeIds?: number[];
+  openToAll?: true;
 }
 
 export interface NewExercise {
@@ -173,7 +183,7 @@ export async function getExercise(id: number): Promise<InstructorExercise> {
   return assignment;
 }
 
-export async function updateExercise(id: number, changes: { dueAt?: string; instructions?: string; addTraineeIds?: number[] }): Promise<InstructorExercise> {
+export async function updateExercise(id: number, changes: ExerciseChanges): Promise<InstructorExercise> {
   const { assignment } = await http.patch<{ assignment: InstructorExercise }>(`/api/training/assignments/${id}`, changes);
   return assignment;
 }

@@ -2,7 +2,7 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import * as trainingApi from '@/api/training';
-import type { ExerciseListItem, InstructorExercise, LanePlacement, NewExercise, QuestionPreset, Submission, SubmissionStep, TraineeExercise } from '@/api/training';
+import type { ExerciseChanges, ExerciseListItem, InstructorExercise, LanePlacement, NewExercise, QuestionPreset, Submission, SubmissionStep, TraineeExercise } from '@/api/training';
 
 export const useTrainingStore = defineStore('training', () => {
   const exercises = ref<ExerciseListItem[]>([]);
@@ -38,7 +38,7 @@ export const useTrainingStore = defineStore('training', () => {
     instructorExercise.value = await trainingApi.getExercise(id);
   }
 
-  async function update(id: number, changes: { dueAt?: string; instructions?: string; addTraineeIds?: number[] }): Promise<void> {
+  async function update(id: number, changes: ExerciseChanges): Promise<void> {
     instructorExercise.value = await trainingApi.updateExercise(id, changes);
   }
 

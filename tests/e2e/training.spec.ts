@@ -3,7 +3,9 @@
  * contexts: the instructor makes a "governing truck position" exercise from a saved deck
  * version; the trainee drags the lane on the cross-section sketch, sets the wheels 2 ft from
  * the barrier face, enters the factor and a step, and is graded; the instructor sees the grade;
- * the notices are in the outbox. Screenshots go to tests/e2e/screenshots/.
+ * the notices are in the outbox. Before submitting, the trainee sees the deck version's inputs
+ * and lanes but none of its results (screen or API); an exercise opened to all shows its whole
+ * trace, every candidate of a governing value included. Screenshots go to tests/e2e/screenshots/.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtemp, rm } from 'node:fs/promises';
@@ -84,8 +86,33 @@ describe('training exercise in the browser', () => {
     expect(Math.abs(expected - LEVER) / LEVER).toBeLessThan(1e-4);
   });
 
-  it('the trainee places the truck, enters the factor and a step, and is graded', async () => {
+  it('before submitting, the trainee sees the deck and its lanes but no result of its version, on screen or through the API', async () => {
     await signIn(trainee, h.baseUrl, DEMO_USERS.trainee);
+    await trainee.goto(exerciseUrl);
+    await trainee.locator('[data-test="placement-sketch"]').waitFor();
+    expect(await trainee.locator('[data-test="expected-answer"]').count()).toBe(0);
+    // The exercise links to its deck version: the workspace shows the inputs and the deck, no factor.
+    await trainee.locator('.ant-descriptions a', { hasText: DECK_NAME }).click();
+    await trainee.locator('[data-test="results-withheld"]').waitFor();
+    await trainee.locator('[data-test="deck-inputs-scene"] [data-test="deck-scene"][data-ready="true"]').waitFor({ timeout: 60_000 });
+    expect(await trainee.locator('[data-test="workspace-analysis"]').count()).toBe(0);
+    expect(await trainee.locator('[data-test="results-tabs"], [data-test="comparison-table"]').count()).toBe(0);
+    await h.screenshot('training-02a-withheld-workspace', trainee);
+    const deckId = Number(/\/decks\/(\d+)/.exec(trainee.url())![1]);
+    const answers = await trainee.evaluate(async (id) => {
+      const out: Record<string, number> = {};
+      for (const u of [`/api/decks/${id}/versions/1?include=results`, `/api/reports/decks/${id}/versions/1/package.pdf`, `/api/reports/decks/${id}/versions/1/factors.csv`]) out[u] = (await fetch(u)).status;
+      const plain = await (await fetch(`/api/decks/${id}/versions/1`)).json();
+      out.resultHeadings = plain.version.results.length;
+      return out;
+    }, deckId);
+    expect(answers[`/api/decks/${deckId}/versions/1?include=results`]).toBe(403);
+    expect(answers[`/api/reports/decks/${deckId}/versions/1/package.pdf`]).toBe(403);
+    expect(answers[`/api/reports/decks/${deckId}/versions/1/factors.csv`]).toBe(403);
+    expect(answers.resultHeadings).toBe(0);
+  });
+
+  it('the trainee places the truck, enters the factor and a step, and is graded', async () => {
     await trainee.goto(h.url('/training'));
     const row = trainee.locator('[data-test="exercises-table"] tbody tr', { hasText: DECK_NAME.slice(0, 8) }).first();
     await row.waitFor();
@@ -120,10 +147,47 @@ describe('training exercise in the browser', () => {
     expect(await trainee.locator('[data-test="check-placement"]').innerText()).toContain('within');
     await trainee.locator('[data-test="trace-comparison"] [data-test="step-matched"]').first().waitFor();
     await h.screenshot('training-03-graded', trainee);
+    // Graded: the version's results are the trainee's to read now.
+    await trainee.locator('.ant-descriptions a', { hasText: DECK_NAME }).click();
+    await trainee.locator('[data-test="workspace-analysis"]').waitFor();
+    expect(await trainee.locator('[data-test="results-withheld"]').count()).toBe(0);
+  });
+
+  it('an exercise opened to all shows a trainee who has not answered the whole trace, every candidate included', async () => {
+    // A governing-value question on the same version (AASHTO LRFD Art. 4.6.2.2.2d: on this deck the
+    // exterior girder's two-lane value is the larger of the formula and the rigid-section check).
+    const id = await instructor.evaluate(async (name) => {
+      const csrf = decodeURIComponent(document.cookie.split('; ').find((c) => c.startsWith('ds_csrf='))!.slice(8));
+      const projects = await (await fetch('/api/projects')).json();
+      const pid = projects.projects.find((p: { name: string }) => p.name === 'Quarry Creek Overpass').id;
+      const decks = await (await fetch(`/api/projects/${pid}/decks`)).json();
+      const deck = decks.decks.find((d: { name: string }) => d.name === name);
+      const trainees = await (await fetch('/api/training/trainees')).json();
+      const res = await fetch('/api/training/assignments', {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf },
+        body: JSON.stringify({ kind: 'factor', versionId: deck.latestVersion.id, params: { girder: 'exterior', effect: 'moment', lanes: 'multiple', method: 'governing' }, tolerancePercent: 1, dueAt: new Date(Date.now() + 7 * 86400_000).toISOString(), traineeIds: trainees.trainees.map((t: { id: number }) => t.id) }),
+      });
+      return (await res.json()).assignment.id as number;
+    }, DECK_NAME);
+    await instructor.goto(h.url(`/training/${id}`));
+    await instructor.locator('[data-test="open-to-all"]').click();
+    await instructor.locator('.ant-modal-confirm .ant-btn-primary').click();
+    await instructor.locator('[data-test="opened-to-all"]').waitFor();
+
+    await trainee.goto(h.url(`/training/${id}`));
+    await trainee.locator('[data-test="expected-answer"]').waitFor();
+    expect(await trainee.locator('[data-test="answer-form"]').count()).toBe(0);
+    const steps = await trainee.locator('[data-test="expected-answer"] li').allInnerTexts();
+    const last = steps.at(-1)!;
+    expect(last).toMatch(/candidates/);
+    expect(last).toMatch(/g\(formula\) = 0\.\d+/);
+    expect(last).toMatch(/g\(rigid section\) = 0\.\d+/);
+    await h.screenshot('training-03a-open-to-all', trainee);
   });
 
   it('the instructor sees the grade; the notices are in the outbox', async () => {
-    await instructor.reload();
+    await instructor.goto(exerciseUrl);
     const table = instructor.locator('[data-test="submissions-table"]');
     await table.locator('tbody tr', { hasText: 'Theo Brandt' }).waitFor();
     expect(await table.innerText()).toContain('within tolerance');

@@ -49,8 +49,22 @@ const version1 = (a: Agent) => a.get(`/api/decks/${deckId}/versions/1?include=re
 const reports = () => ['package.pdf', 'factors.csv', 'envelopes.csv'].map((f) => `/api/reports/decks/${deckId}/versions/1/${f}`);
 
 describe('results withheld during an open exercise', () => {
+  it('the exercise page gives the trainee the question, never the answer, before they submit', async () => {
+    const res = await trainee.get(`/api/training/mine/${exerciseId}`);
+    expect(res.status).toBe(200);
+    expect(res.body.assignment.expected).toBeNull();
+    expect(res.body.assignment.openedToAll).toBeNull();
+  });
+
   it('the trainee reads the deck of the version but not its results, and is told why', async () => {
-    const res = await version1(trainee);
+    // Asking for the results' data is refused outright (403 with the reason).
+    const asked = await version1(trainee);
+    expect(asked.status).toBe(403);
+    expect(asked.body.error).toMatchObject({ code: 'results_withheld', details: [] });
+    expect(asked.body.error.message).toMatch(/hidden until you submit/);
+    expect(JSON.stringify(asked.body)).not.toMatch(/"factors"|"governing"/);
+    // The version itself answers with its inputs and why its results are hidden.
+    const res = await trainee.get(`/api/decks/${deckId}/versions/1`);
     expect(res.status).toBe(200);
     expect(res.body.version.deck.name).toBe(quarryCreekDeck().name);
     expect(res.body.version.results).toEqual([]);
@@ -95,5 +109,43 @@ describe('results withheld during an open exercise', () => {
     expect((await send.post(dual, `/api/training/mine/${dualExerciseId}/submissions`, { value: 0.7 })).status).toBe(201);
     expect((await dual.get(`/api/reviews/${reviewId}`)).status).toBe(200);
     for (const url of reports()) expect((await dual.get(url)).status, url).toBe(200);
+  });
+});
+
+describe('an exercise opened to all', () => {
+  let openId: number;
+  let notSubmitted: Agent;
+  beforeAll(async () => {
+    const extra = await addUser(ctx, 'late-trainee@larchmont-ridge.example', ['trainee']);
+    notSubmitted = extra.agent;
+    const versionId = (await designer.get(`/api/decks/${deckId}/versions/1`)).body.version.id;
+    const res = await send.post(instructor, '/api/training/assignments', { ...question, versionId, dueAt: due(), traineeIds: [extra.id] });
+    openId = res.body.assignment.id;
+    expect((await version1(notSubmitted)).status).toBe(403);
+  });
+
+  it('only an instructor opens it, and it stays open', async () => {
+    expect((await send.patch(notSubmitted, `/api/training/assignments/${openId}`, { openToAll: true })).status).toBe(403);
+    const bad = await send.patch(instructor, `/api/training/assignments/${openId}`, { openToAll: false });
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body.error)).toMatch(/openToAll can only be true/);
+    const res = await send.patch(instructor, `/api/training/assignments/${openId}`, { openToAll: true });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.assignment.openedToAll).toMatchObject({ by: { id: userId(ctx, demo.instructor) } });
+    // Opening again changes nothing (the first opening is kept); the database refuses to close it.
+    const again = await send.patch(instructor, `/api/training/assignments/${openId}`, { openToAll: true });
+    expect(again.body.assignment.openedToAll.at).toBe(res.body.assignment.openedToAll.at);
+    expect(() => ctx.db.$client.prepare('UPDATE assignments SET results_opened_at = NULL WHERE id = ?').run(openId)).toThrow(/stays open/);
+  });
+
+  it('shows the answer and the results to a trainee who has not submitted, and takes no more answers', async () => {
+    const mine = await notSubmitted.get(`/api/training/mine/${openId}`);
+    expect(mine.body.assignment.expected.value).toBeGreaterThan(0);
+    const res = await version1(notSubmitted);
+    expect(res.status).toBe(200);
+    expect(res.body.version.resultsWithheld).toBeNull();
+    const late = await send.post(notSubmitted, `/api/training/mine/${openId}/submissions`, { value: 0.7 });
+    expect(late.status).toBe(409);
+    expect(late.body.error.message).toMatch(/opened this exercise to all/);
   });
 });

@@ -58,11 +58,12 @@ function deckSummary(db: Db, d: DeckRow) {
   };
 }
 
-/** The version with its stored results, unless they are withheld from the reader (then none). */
 /**
  * A version as the API answers it: its deck, placements and the headings of its stored
  * results. The results' data (the big part: every factor row with its trace, up to about 8 MB
- * of JSON on the widest decks) comes only with `withResults` (`?include=results`).
+ * of JSON on the widest decks) comes only with `withResults` (`?include=results`). A reader
+ * from whom the results are withheld (a trainee's open exercise on this version) gets the
+ * inputs and no result headings; asking for the results' data is refused (403).
  */
 function fullVersion(db: Db, v: DeckVersionRow, withheld: WithheldResults | null = null, withResults = false) {
   return {
@@ -132,7 +133,9 @@ export function getVersion(db: Db, reader: Actor, deckId: number, number: number
   findDeck(db, reader.firmId, deckId);
   const v = db.select().from(deckVersions).where(and(eq(deckVersions.deckId, deckId), eq(deckVersions.number, number))).get();
   if (!v) throw ApiError.notFound(`version ${number} of deck ${deckId}`);
-  return fullVersion(db, v, withheldResults(db, reader, v.id), withResults);
+  const withheld = withheldResults(db, reader, v.id);
+  if (withheld && withResults) throw ApiError.forbidden(withheld.message, 'results_withheld');
+  return fullVersion(db, v, withheld, withResults);
 }
 
 interface SaveInput {

@@ -67,8 +67,10 @@ export const assignmentUpdateBody = z
     dueAt: z.iso.datetime({ offset: true, error: 'dueAt must be a date and time such as 2026-12-20T17:00:00Z' }).optional(),
     instructions: text('instructions', 5000).optional(),
     addTraineeIds: z.array(id('each trainee id')).min(1).max(200).optional(),
+    /** Opens the exercise to all: its answer and its version's results are shown to every trainee (cannot be undone). */
+    openToAll: z.literal(true, { error: 'openToAll can only be true: an exercise opened to all stays open' }).optional(),
   })
-  .refine((b) => Object.values(b).some((v) => v !== undefined), { message: 'nothing to change: send dueAt, instructions or addTraineeIds' });
+  .refine((b) => Object.values(b).some((v) => v !== undefined), { message: 'nothing to change: send dueAt, instructions, addTraineeIds or openToAll' });
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).finite(`${what} must be finite`);
 

@@ -4,7 +4,9 @@
  * answer (value and trace) is frozen when the exercise is made. A trainee submits once: the
  * answer is graded at once against the frozen answer, the trainee is e-mailed, and from then
  * on sees their steps beside the product's trace. Submissions after the due date are accepted
- * and marked late. Submissions are append-only (database triggers).
+ * and marked late. Submissions are append-only (database triggers). The instructor may open an
+ * exercise to all: from then on every trainee sees the answer and the version's results, and
+ * the exercise takes no more answers.
  */
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
@@ -28,6 +30,12 @@ export const CAUTION = 'Results are aids to a licensed engineer’s judgement; l
 
 function userName(db: Db, id: number) {
   return db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, id)).get() ?? { id, name: '', email: '' };
+}
+
+function userRef(db: Db, id: number | null) {
+  if (id === null) return null;
+  const u = userName(db, id);
+  return { id: u.id, name: u.name };
 }
 
 function findAssignment(db: Db, firmId: number, assignmentId: number): AssignmentRow {
@@ -82,6 +90,8 @@ function presentAssignment(db: Db, a: AssignmentRow, withAnswer: boolean) {
     version: { id: row.v.id, number: row.v.number },
     createdBy: { id: creator.id, name: creator.name },
     createdAt: a.createdAt,
+    /** When and by whom the exercise was opened to all (answer and results shown to every trainee), or null. */
+    openedToAll: a.resultsOpenedAt ? { at: a.resultsOpenedAt, by: userRef(db, a.resultsOpenedBy) } : null,
     /** What the trainee needs to draw the roadway for a placement (never the answer). */
     roadway: expected.roadway ? { curbLeft: expected.roadway.curbLeft, curbRight: expected.roadway.curbRight, laneWidth: expected.roadway.laneWidth, laneCount: expected.roadway.laneCount, girderOffsets: expected.roadway.girderOffsets } : null,
     expected: withAnswer ? expected : null,
@@ -170,13 +180,21 @@ export function updateAssignment(deps: TrainingDeps, actor: Actor, assignmentId:
   const added = body.addTraineeIds ? checkTrainees(db, actor.firmId, [...new Set(body.addTraineeIds)]).filter((t) => !existing.has(t.id)) : [];
   if (body.dueAt !== undefined && new Date(body.dueAt) <= new Date()) throw ApiError.badRequest('dueAt: the due date must be in the future', [{ path: 'body.dueAt', message: 'the due date must be in the future' }]);
   const dueAt = body.dueAt !== undefined ? new Date(body.dueAt).toISOString() : a.dueAt;
+  const opening = body.openToAll === true && a.resultsOpenedAt === null;
   db.transaction((tx) => {
     tx.update(assignments)
-      .set({ dueAt, instructions: body.instructions ?? a.instructions })
+      .set({ dueAt, instructions: body.instructions ?? a.instructions, ...(opening ? { resultsOpenedAt: new Date().toISOString(), resultsOpenedBy: actor.id } : {}) })
       .where(eq(assignments.id, a.id))
       .run();
     for (const t of added) tx.insert(assignmentTrainees).values({ assignmentId: a.id, traineeId: t.id }).run();
-    const what = [body.dueAt !== undefined && `due ${dueAt.slice(0, 10)}`, body.instructions !== undefined && 'instructions', added.length > 0 && `added ${added.map((t) => t.name).join(', ')}`].filter(Boolean).join('; ');
+    const what = [
+      body.dueAt !== undefined && `due ${dueAt.slice(0, 10)}`,
+      body.instructions !== undefined && 'instructions',
+      added.length > 0 && `added ${added.map((t) => t.name).join(', ')}`,
+      opening && 'opened to all (the answer and the version’s results are shown to every trainee)',
+    ]
+      .filter(Boolean)
+      .join('; ');
     recordAudit(tx, { firmId: actor.firmId, projectId: a.projectId, actorId: actor.id, action: 'change', entityType: 'exercise', entityId: a.id, summary: `changed the exercise “${a.title}”: ${what || 'no change'}` });
   });
   const expected = JSON.parse(a.expectedJson) as ExpectedAnswer;
@@ -239,7 +257,7 @@ export function traineeView(db: Db, actor: Actor, assignmentId: number) {
   const a = findAssignment(db, actor.firmId, assignmentId);
   if (!assignedTo(db, a.id, actor.id)) throw ApiError.notFound('exercise');
   const mine = db.select().from(submissions).where(and(eq(submissions.assignmentId, a.id), eq(submissions.traineeId, actor.id))).orderBy(asc(submissions.id)).all().map((s) => presentSubmission(db, s));
-  return { ...presentAssignment(db, a, mine.length > 0), submissions: mine };
+  return { ...presentAssignment(db, a, mine.length > 0 || a.resultsOpenedAt !== null), submissions: mine };
 }
 
 export function submitAnswer(deps: TrainingDeps, actor: Actor, assignmentId: number, body: SubmissionBody) {
@@ -248,6 +266,7 @@ export function submitAnswer(deps: TrainingDeps, actor: Actor, assignmentId: num
   if (!assignedTo(db, a.id, actor.id)) throw ApiError.notFound('exercise');
   const previous = db.select().from(submissions).where(and(eq(submissions.assignmentId, a.id), eq(submissions.traineeId, actor.id))).all();
   if (previous.length > 0) throw ApiError.conflict('you have already submitted this exercise: your answer has been graded and the product’s trace is shown beside your steps');
+  if (a.resultsOpenedAt !== null) throw ApiError.conflict('the instructor has opened this exercise to all: its answer is shown, so it takes no more answers');
   const row = findVersion(db, actor.firmId, a.versionId);
   const expected = JSON.parse(a.expectedJson) as ExpectedAnswer;
   const grading = grade(deckOf(row.v), a.kind, JSON.parse(a.paramsJson), expected, body, a.tolerancePercent);

@@ -3,9 +3,10 @@
  * version that is the subject of one of their open (not yet submitted) exercises would give
  * the answer away, so every route that shows them (the version's results, the review summary,
  * the calculation package and CSV tables) withholds them from that trainee until they submit.
- * The deck's inputs stay readable: the trainee needs them to work the exercise.
+ * The deck's inputs stay readable: the trainee needs them to work the exercise. An exercise the
+ * instructor has opened to all withholds nothing.
  */
-import { and, eq, notExists } from 'drizzle-orm';
+import { and, eq, isNull, notExists } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
 import { assignments, assignmentTrainees, deckVersions, submissions } from '../../db/schema.js';
 import { ApiError } from '../../middleware/errors.js';
@@ -27,6 +28,7 @@ export function openExercisesOn(db: Db, user: { id: number; firmId: number }, ve
       and(
         eq(assignments.versionId, versionId),
         eq(assignments.firmId, user.firmId),
+        isNull(assignments.resultsOpenedAt),
         notExists(db.select({ id: submissions.id }).from(submissions).where(and(eq(submissions.assignmentId, assignments.id), eq(submissions.traineeId, user.id)))),
       ),
     )
