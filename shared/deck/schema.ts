@@ -61,7 +61,7 @@ export const girderLayoutSchema = z.discriminatedUnion('kind', [
   z.strictObject({
     kind: z.literal('uniform'),
     /** Number of girders (or webs, for type d), Nb. */
-    count: z.number().int('girder count must be a whole number').min(2, 'a deck needs at least 2 girders').max(40, 'at most 40 girders'),
+    count: number('girder count').int('girder count must be a whole number').min(2, 'a deck needs at least 2 girders').max(40, 'at most 40 girders'),
     /** Centre-to-centre spacing S, m. */
     spacing: ranged('girder spacing', L.girderSpacing),
   }),
@@ -111,7 +111,7 @@ export const sectionSchema = z.strictObject({
   /** b, width of a precast beam (types f, g, h, i, j), m. */
   width: ranged('beam width b', L.sectionDimension).optional(),
   /** Nc, number of cells of a multicell box (type d). */
-  cells: z.number().int('number of cells must be a whole number').min(1, 'number of cells must be at least 1').max(L.cells.max, `number of cells must be at most ${L.cells.max}`).optional(),
+  cells: number('number of cells').int('number of cells must be a whole number').min(1, 'number of cells must be at least 1').max(L.cells.max, `number of cells must be at most ${L.cells.max}`).optional(),
   /** Type h, i, j (and f, g) beam shape, for the constant K of Art. 4.6.2.2.2b. */
   beamShape: z.enum(['solid-rectangular', 'voided-rectangular', 'box', 'channel', 'tee', 'double-tee']).optional(),
   /**
@@ -164,7 +164,7 @@ export const diaphragmSchema = z.strictObject({
   /** Diaphragms or cross-frames at the support lines. */
   atSupports: z.boolean().default(true),
   /** Number of equally spaced intermediate diaphragm lines in each span. */
-  intermediatePerSpan: z.number().int('intermediate diaphragm count must be a whole number').min(0).max(20).default(0),
+  intermediatePerSpan: number('intermediate diaphragm count').int('intermediate diaphragm count must be a whole number').min(0, 'intermediate diaphragm count must be 0 or more').max(20, 'intermediate diaphragm count must be at most 20').default(0),
   /** Effective moment of inertia of one diaphragm or cross-frame for the grillage, m⁴. */
   inertia: ranged('diaphragm moment of inertia', L.diaphragmInertia).optional(),
   /** Modulus of elasticity of the diaphragm, Pa (defaults to the girder's). */
@@ -228,7 +228,7 @@ export const REQUIRED_SECTION_PROPERTIES: Record<SectionType, (keyof z.infer<typ
 export const deckSchema = z
   .strictObject({
     name: personText('deck name', 200, { min: 1, minMessage: 'deck name is required' }),
-    sectionType: z.enum(SECTION_TYPES, { error: 'section type must be one of a, b, c, d, e, f, g, h, i, j, k' }),
+    sectionType: z.enum(SECTION_TYPES, { error: (issue) => (issue.input === undefined ? 'choose the cross-section type (a to k)' : 'section type must be one of a, b, c, d, e, f, g, h, i, j, k') }),
     girders: girderLayoutSchema,
     /** Overhangs from exterior girder centreline to deck edge, m. */
     overhangLeft: ranged('left overhang', L.overhang),

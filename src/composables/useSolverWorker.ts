@@ -261,6 +261,20 @@ export function useSolverWorker(factory: WorkerFactory = defaultFactory) {
     return send<FactorRow[]>({ type: 'code-factors', deck: JSON.parse(JSON.stringify(deck)) as unknown }).promise;
   }
 
+  /** Forgets every result (a deck that cannot be computed yet has none): cancels a running job too. */
+  async function clear(): Promise<void> {
+    await cancel();
+    status.value = 'idle';
+    progress.value = null;
+    error.value = null;
+    analysis.value = null;
+    study.value = null;
+    governing.value = { moment: [], shear: [] };
+    fatigue.value = { moment: [], shear: [] };
+    live.value = null;
+    refined.value = null;
+  }
+
   function dispose(): void {
     worker?.terminate();
     worker = null;
@@ -283,6 +297,7 @@ export function useSolverWorker(factory: WorkerFactory = defaultFactory) {
     run,
     restudy,
     cancel,
+    clear,
     evaluate,
     governingFor,
     surfaceGrid,

@@ -144,6 +144,7 @@ export const useDeckStore = defineStore('deck', () => {
     basedOnVersionId.value = null;
     // a new deck's name starts empty: the user names it (the template's name is no name of theirs)
     draft.value = { ...deckTemplate(template).build(), name: '' };
+    lastValidDeck.value = computableValidation.value.deck;
     templateKey.value = template;
     units.value = system;
     savedJson.value = null;
@@ -157,6 +158,8 @@ export const useDeckStore = defineStore('deck', () => {
     if (mode.value === 'read-only') return;
     const name = draft.value.name;
     draft.value = { ...deckTemplate(template).build(), name };
+    // another starting deck: what was computed before belongs to the deck left behind
+    lastValidDeck.value = computableValidation.value.deck;
     templateKey.value = template;
     resetPlacement();
   }

@@ -9,6 +9,7 @@ import { flushPromises, mount, type VueWrapper } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
 import DeckEditor from '@/components/deck/DeckEditor.vue';
 import { useDeckStore } from '@/stores/useDeckStore';
+import { deckTemplate } from '@/components/deck/deckTemplates';
 
 let wrapper: VueWrapper;
 let store: ReturnType<typeof useDeckStore>;
@@ -79,6 +80,31 @@ describe('a new deck', () => {
     await flushPromises();
     expect(store.draft.name).toBe('North approach');
     expect(store.valid).toBe(true);
+  });
+});
+
+describe('a blank deck', () => {
+  it('starts with every dimension empty, asks for each in words, and computes once they are typed', async () => {
+    store.useTemplate('blank');
+    await flushPromises();
+    expect(store.computable).toBe(false);
+    // Nothing of the deck before it is kept to compute or show.
+    expect(store.lastValidDeck).toBeNull();
+    expect(input('girders.spacing').element.value).toBe('');
+    expect(store.draft.name).toBe('Main span');
+    const messages = store.issues.map((i) => i.message);
+    expect(messages).toContain('choose the cross-section type (a to k)');
+    expect(messages).toContain('girder count must be a number');
+    for (const m of messages) expect(m).not.toMatch(/Invalid input|undefined|NaN/);
+    expect(wrapper.find('[data-test="section-type-none"]').exists()).toBe(true);
+    // The blank deck has a template's shape: typing a template's values field by field computes.
+    const filled = deckTemplate('precast-one-span').build() as unknown as Record<string, unknown>;
+    const leaves = (o: unknown, path: (string | number)[] = []): [(string | number)[], unknown][] =>
+      o !== null && typeof o === 'object' ? Object.entries(o).flatMap(([k, v]) => leaves(v, [...path, Array.isArray(o) ? Number(k) : k])) : [[path, o]];
+    for (const [path, value] of leaves(filled)) if (path[0] !== 'name') store.setField(path, value);
+    await flushPromises();
+    expect(store.computable).toBe(true);
+    expect(store.lastValidDeck).not.toBeNull();
   });
 });
 

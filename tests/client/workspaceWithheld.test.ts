@@ -11,7 +11,7 @@ import { createMemoryHistory, createRouter } from 'vue-router';
 import { shallowRef, ref } from 'vue';
 import DeckWorkspaceView from '@/views/DeckWorkspaceView.vue';
 import { useAuthStore } from '@/stores/auth';
-import { DECK_TEMPLATES, deckTemplate } from '@/components/deck/deckTemplates';
+import { deckTemplate } from '@/components/deck/deckTemplates';
 
 // The solver runs in a Web Worker in the browser; this screen test needs none of its numbers.
 vi.mock('@/composables/useSolverWorker', () => ({
@@ -27,7 +27,7 @@ const withheld = { reason: 'open-exercise', message: 'The results of this versio
 
 function serve(resultsWithheld: typeof withheld | null) {
   fetchMock.mockImplementation(async (url: string) => {
-    if (url.includes('/api/decks/3/versions/1')) return json({ version: { ...summary, deck: deckTemplate(DECK_TEMPLATES[0].key).build(), placements: null, results: [], resultsWithheld } });
+    if (url.includes('/api/decks/3/versions/1')) return json({ version: { ...summary, deck: deckTemplate('precast-one-span').build(), placements: null, results: [], resultsWithheld } });
     if (url.includes('/api/decks/3')) return json({ deck: { id: 3, projectId: 1, name: 'Quarry', createdAt: summary.createdAt, createdBy: person, latestVersion: summary }, versions: [summary] });
     if (url.includes('/api/projects/1')) return json({ project: { id: 1, name: 'Quarry Creek Overpass', units: 'US', archived: false } });
     return json({ error: { code: 'not_found', message: `no route ${url}`, details: [] } }, 404);

@@ -2,13 +2,16 @@
  * Starting points for a new deck. Each is written in US customary display units (the deck
  * field units of shared/deck/units.ts: ft, in, in², in⁴, ksi, kcf) and converted to internal
  * units with the product's own edge conversion. The decks are invented examples for a
- * designer to edit, not published designs.
+ * designer to edit, not published designs. The blank deck has the shape of a deck (one span on
+ * two supports, equal spacing) and no dimension at all: every number is typed from the
+ * drawings; only the code's own defaults are filled in (K1 = 1, Art. 5.4.2.4; load modifiers
+ * 1.0, Art. 1.3.2; every owner policy off).
  */
 import type { DeckInput } from '@shared/deck/schema';
 import { deckFromDisplay } from '@shared/deck/units';
 import { builtUpISection } from './builtUpSection';
 
-export type DeckTemplateKey = 'precast-one-span' | 'steel-three-span' | 'steel-wide-twelve';
+export type DeckTemplateKey = 'blank' | 'precast-one-span' | 'steel-three-span' | 'steel-wide-twelve';
 
 export interface DeckTemplate {
   key: DeckTemplateKey;
@@ -34,7 +37,37 @@ function fromUs(deck: Record<string, unknown>): DeckInput {
   return deckFromDisplay(structuredClone(deck), 'US') as unknown as DeckInput;
 }
 
+/** A deck with no dimension typed yet (undefined numbers: the editor asks for each). */
+function blankDeck(): DeckInput {
+  const none = undefined as unknown as number;
+  const concrete = { kind: 'concrete', fc: none, unitWeight: none, K1: 1, modulusEquation: 'current' };
+  return {
+    name: '',
+    sectionType: undefined,
+    girders: { kind: 'uniform', count: none, spacing: none },
+    overhangLeft: none,
+    overhangRight: none,
+    barrierLeft: { width: none, height: none },
+    barrierRight: { width: none, height: none },
+    slab: { thickness: none, haunch: none, wearingSurface: none },
+    section: {},
+    materials: { deck: { ...concrete }, girder: { ...concrete } },
+    spans: [{ length: none }],
+    continuous: false,
+    supports: [{ skew: none }, { skew: none }],
+    diaphragms: { type: 'none' },
+    policy: { exteriorNotLessThanInterior: false, leverRuleWithoutMultiplePresence: false, floorAtEqualShare: false, rigidSectionAnyType: false },
+    loadModifiers: { ductility: 1, redundancy: 1, importance: 1 },
+  } as unknown as DeckInput;
+}
+
 export const DECK_TEMPLATES: DeckTemplate[] = [
+  {
+    key: 'blank',
+    title: 'Blank deck',
+    description: 'One span on two supports with every dimension empty: enter the deck from its drawings.',
+    build: blankDeck,
+  },
   {
     key: 'precast-one-span',
     title: 'Precast bulb-tee girders, one span',
