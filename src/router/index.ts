@@ -73,7 +73,7 @@ export const routes: RouteRecordRaw[] = [
   {
     path: '/projects/:projectId(\\d+)/files',
     name: 'project-files',
-    component: () => import('@/views/ReviewFilesView.vue'),
+    component: () => import('@/views/ProjectFilesView.vue'),
     props: (route) => ({ projectId: Number(route.params.projectId) }),
     meta: { title: 'Drawings and imports' },
   },

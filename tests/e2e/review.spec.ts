@@ -225,13 +225,22 @@ describe('review round trip in the browser', () => {
 
   });
 
-  it('the project files page lists row-by-row errors of a bad girder CSV and imports a good one', async () => {
+  it('the project page leads to drawings and imports; the import lists row-by-row errors of a bad girder CSV and imports a good one', async () => {
     // The designer's browser is signed in as the admin now, who may save decks too.
-    await designer.goto(h.url(firstReviewUrl.replace(h.baseUrl, '')));
-    await designer.locator('[data-test="project-files"]').click();
+    await designer.goto(h.url('/projects'));
+    await designer.locator('[data-test="projects-table"] tbody tr a', { hasText: 'Quarry Creek Overpass' }).first().click();
+    // The project page lists the drawings itself and links to the imports.
+    await designer.locator('[data-test="drawings"]').waitFor();
+    // A 1 × 1 PNG (the smallest valid one: signature, IHDR, IDAT, IEND).
+    const png = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010806000000' + '1f15c4890000000d49444154789c6360000002000100e221bc330000000049454e44ae426082', 'hex');
+    await designer.locator('[data-test="drawing-title"]').fill('General arrangement, sheet 2');
+    await designer.locator('[data-test="drawing-upload"] input[type="file"]').setInputFiles({ name: 'ga-sheet-2.png', mimeType: 'image/png', buffer: png });
+    await designer.locator('[data-test="drawings"] tbody tr', { hasText: 'General arrangement, sheet 2' }).waitFor();
+    await designer.locator('[data-test="import-girders"]').click();
     await designer.locator('[data-test="girder-import"]').waitFor();
     await choose(designer, 'import-deck', DECK_NAME);
-    const file = designer.locator('[data-test="csv-file"]');
+    // The component library's upload control (its file input sits inside it).
+    const file = designer.locator('[data-test="csv-upload"] input[type="file"]');
     await file.setInputFiles({ name: 'girders.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft,inertia_in4\n1,,545894\n2,9.6667,abc\n3,-9.5,\n') });
     await designer.locator('[data-test="check-csv"]').click();
     const error = designer.locator('[data-test="import-error"]');
@@ -241,7 +250,9 @@ describe('review round trip in the browser', () => {
     expect(text).toContain('row 3, column inertia_in4: “abc” is not a number');
     expect(text).toContain('row 4, column spacing_ft: the spacing must be greater than 0 (got -9.5)');
     await h.screenshot('review-06-csv-errors', designer);
-    await file.setInputFiles({ name: 'girders.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft\n1,\n2,9.5\n3,9.5\n4,9.5\n5,9.5\n6,9.5\n') });
+    await file.setInputFiles({ name: 'girders-fixed.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft\n1,\n2,9.5\n3,9.5\n4,9.5\n5,9.5\n6,9.5\n') });
+    // One file at a time: the new one replaces the first in the list.
+    await expect.poll(() => designer.locator('[data-test="girder-import"] .ant-upload-list-item:not(.ant-upload-animate-leave)').allInnerTexts()).toEqual([expect.stringContaining('girders-fixed.csv')]);
     await designer.locator('[data-test="import-csv"]').click();
     await designer.waitForURL(/\/decks\/\d+\/versions\/3$/);
 
