@@ -209,7 +209,7 @@ class Writer {
     const s = stepForDisplay(step);
     const inputs = traceInputsText(s, this.units);
     const lines: { text: string; weight: Weight; color: string }[] = [
-      { text: `${showLengths(s.label, this.units)}:  ${s.formula}`, weight: 'regular', color: INK },
+      { text: `${showLengths(s.label, this.units)}:  ${showLengths(s.formula, this.units)}`, weight: 'regular', color: INK },
       ...(inputs ? [{ text: `with ${inputs}`, weight: 'regular' as Weight, color: MUTED }] : []),
       { text: `= ${qty(s.value, s.kind, this.units, { zeroBelowPrecision: true })}   [${s.article}]${s.note ? `   ${showLengths(s.note, this.units)}` : ''}`, weight: 'bold', color: ACCENT },
     ];
@@ -379,7 +379,7 @@ function drawCrossSection(w: Writer, data: ReportData, p: Drawn): void {
   // Spacing note
   doc.fillColor(MUTED);
   const spacingText = g.spacings.every((s) => Math.abs(s - g.spacings[0]) < 1e-9) ? `${g.girderCount} girders at ${qty(g.spacings[0], 'length', w.units)}` : `${g.girderCount} girders, spacings ${g.spacings.map((s) => num(toDisplay(s, 'length', w.units), 2)).join(', ')} ${unitSymbol('length', w.units)}`;
-  write(doc, `${spacingText}; roadway ${qty(g.roadwayWidth, 'length', w.units)} between barrier faces; wheel lines ${w.units === 'US' ? '6 ft apart, 2 ft from the lane edge' : `${qty(fromUs.ft(6), 'length', 'SI')} (6 ft) apart, ${qty(fromUs.ft(2), 'length', 'SI')} (2 ft) from the lane edge`} (Art. 3.6.1.3.1); girder considered in colour.`, PAGE.margin, top + slabT + depth + 14, { size: 7, width: CONTENT_W });
+  write(doc, `${spacingText}; roadway ${qty(g.roadwayWidth, 'length', w.units)} between barrier faces; wheel lines ${qty(fromUs.ft(6), 'length', w.units)} apart, ${qty(fromUs.ft(2), 'length', w.units)} from the lane edge (Art. 3.6.1.3.1); girder considered in colour.`, PAGE.margin, top + slabT + depth + 14, { size: 7, width: CONTENT_W });
   w.y = top + slabT + depth + 34;
 }
 

@@ -25,7 +25,8 @@
  */
 import { DeckInputError } from '../deck/schema.js';
 import type { TraceInput, TraceStep } from '../trace.js';
-import { fromUs, toUs } from '../units.js';
+import { lengthInText as len, quantityInText as q } from '../quantities/inText.js';
+import { fromUs } from '../units.js';
 import { BeamAnalysis, validateBeam, type BeamInfluenceLine, type BeamModel, type BeamResponse } from './influenceLine.js';
 import { maxVehicleEffect, uniformLoadEffect, type AxlePlacement, type VehicleEffect } from './movingLoad.js';
 import { DESIGN_LANE_LOAD, DESIGN_TANDEM, DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from './vehicles.js';
@@ -155,9 +156,8 @@ const TENTHS = [0, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1];
 
 type EffectKind = 'moment' | 'force';
 
-function fmtLength(m: number): string {
-  return `${toUs.ft(m).toFixed(2)} ft (${m.toFixed(3)} m)`;
-}
+/** A length in a trace sentence, shown in the reader's units (shared/quantities/inText.ts). */
+const fmtLength = len;
 
 function describe(label: string, sense: 'positive' | 'negative'): string {
   return `${label}, ${sense === 'positive' ? 'maximum' : 'minimum'}`;
@@ -173,7 +173,7 @@ function vehicleStep(name: LoadingName, e: VehicleEffect, kind: EffectKind, wher
   const counted = e.axles.filter((a) => a.counted);
   const inputs: TraceInput[] = counted.map((a, i) => ({
     symbol: `P${i + 1}·y${i + 1}`,
-    description: `axle of ${toUs.kip(a.weight).toFixed(1)} kip at x = ${fmtLength(a.position)}, ordinate ${a.ordinate.toPrecision(6)}`,
+    description: `axle of ${q(a.weight, 'force')} at x = ${fmtLength(a.position)}, ordinate ${a.ordinate.toFixed(6)}`,
     value: a.weight * a.ordinate,
     kind,
   }));
@@ -409,25 +409,25 @@ export function hl93BeamLineEffects(beam: BeamModel, options: BeamLineOptions = 
   const trace: TraceStep[] = [
     {
       label: 'Design truck',
-      formula: '8 kip, 32 kip, 32 kip axles; 14 ft, then 14 ft to 30 ft (chosen for the extreme)',
-      inputs: DESIGN_TRUCK.axles.map((a, i) => ({ symbol: `P${i + 1}`, value: a.weight, kind: 'force' as const, formulaValue: toUs.kip(a.weight), formulaUnit: 'kip' })),
+      formula: `${DESIGN_TRUCK.axles.map((a) => q(a.weight, 'force')).join(', ')} axles; ${len(fromUs.ft(14))}, then ${len(fromUs.ft(14))} to ${len(fromUs.ft(30))} (chosen for the extreme)`,
+      inputs: DESIGN_TRUCK.axles.map((a, i) => ({ symbol: `P${i + 1}`, value: a.weight, kind: 'force' as const })),
       value: DESIGN_TRUCK.axles.reduce((t, a) => t + a.weight, 0),
       kind: 'force',
       article: 'Art. 3.6.1.2.2',
     },
     {
       label: 'Design tandem',
-      formula: '2 × 25 kip at 4 ft',
-      inputs: DESIGN_TANDEM.axles.map((a, i) => ({ symbol: `P${i + 1}`, value: a.weight, kind: 'force' as const, formulaValue: toUs.kip(a.weight), formulaUnit: 'kip' })),
+      formula: `2 × ${q(DESIGN_TANDEM.axles[0].weight, 'force')} at ${len(fromUs.ft(4))}`,
+      inputs: DESIGN_TANDEM.axles.map((a, i) => ({ symbol: `P${i + 1}`, value: a.weight, kind: 'force' as const })),
       value: DESIGN_TANDEM.axles.reduce((t, a) => t + a.weight, 0),
       kind: 'force',
       article: 'Art. 3.6.1.2.3',
     },
-    { label: 'Design lane load', formula: 'w = 0.64 klf over 10 ft', inputs: [], value: DESIGN_LANE_LOAD, kind: 'lineLoad', article: 'Art. 3.6.1.2.4' },
+    { label: 'Design lane load', formula: `w = ${q(DESIGN_LANE_LOAD, 'lineLoad')} over ${len(fromUs.ft(10))}`, inputs: [], value: DESIGN_LANE_LOAD, kind: 'lineLoad', article: 'Art. 3.6.1.2.4' },
     { label: 'Dynamic load allowance', formula: 'IM = 33 % (truck and tandem only)', inputs: [], value: IM_STRENGTH_SERVICE, kind: 'none', article: 'Table 3.6.2.1-1' },
   ];
   if (fatigue) {
-    trace.push({ label: 'Fatigue truck', formula: 'design truck with a constant 30 ft rear spacing; IM = 15 %', inputs: [], value: IM_FATIGUE, kind: 'none', article: 'Art. 3.6.1.4.1, Table 3.6.2.1-1' });
+    trace.push({ label: 'Fatigue truck', formula: `design truck with a constant ${len(fromUs.ft(30))} rear spacing; IM = 15 %`, inputs: [], value: IM_FATIGUE, kind: 'none', article: 'Art. 3.6.1.4.1, Table 3.6.2.1-1' });
   }
   if (nb.continuous && nb.spans.length > 1) {
     trace.push({

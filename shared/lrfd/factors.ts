@@ -29,6 +29,7 @@ import { assertDeck, DeckInputError, type Deck } from '../deck/schema.js';
 import { derivedSection, type DerivedSection } from '../deck/section.js';
 import type { TraceStep } from '../trace.js';
 import { toUs } from '../units.js';
+import { lengthInText } from '../quantities/inText.js';
 import { parameter, type Finding } from './findings.js';
 import type { FormulaContext, Lanes, TableOutcome } from './formula.js';
 import { designLanes, multiplePresenceFactor } from './lanes.js';
@@ -633,7 +634,7 @@ function locationInits(en: Engine, loc: EffectLocation): FactorRowInit[] {
           formula: o.extra !== 1 ? 'g = e · g_interior · (48/b)' : 'g = e · g_interior',
           inputs: [
             { symbol: 'e', description: 'correction factor', value: o.e, kind: 'none' },
-            { symbol: 'g_interior', description: `interior girder factor with S = ${toUs.ft(adjacentS).toFixed(3)} ft`, value: gi.value, kind: 'none' },
+            { symbol: 'g_interior', description: `interior girder factor with S = ${lengthInText(adjacentS)}`, value: gi.value, kind: 'none' },
             ...(o.extra !== 1 ? [{ symbol: '48/b', description: 'width factor', value: o.extra, kind: 'none' as const }] : []),
           ],
           value: base,

@@ -15,6 +15,7 @@ import { DeckInputError } from '../deck/schema.js';
 import { MAX_DESIGN_LANES } from '../deck/limits.js';
 import type { TraceStep } from '../trace.js';
 import { fromUs, toUs } from '../units.js';
+import { lengthInText } from '../quantities/inText.js';
 
 /** Width of a design lane, 12 ft in m (Art. 3.6.1.1.1). */
 export const DESIGN_LANE_WIDTH: number = fromUs.ft(12);
@@ -52,12 +53,15 @@ export function designLanes(roadwayWidth: number): { count: number; width: numbe
   const width = inTwentyToTwentyFour ? roadwayWidth / 2 : DESIGN_LANE_WIDTH;
   const trace: TraceStep = {
     label: 'Number of design lanes',
-    formula: inTwentyToTwentyFour ? 'NL = 2 for 20 ft ≤ w ≤ 24 ft, each lane w/2 wide' : 'NL = INT(w / 12.0 ft)',
+    // the lengths are tokens: a reader sees them in their units (shared/quantities/inText.ts)
+    formula: inTwentyToTwentyFour
+      ? `NL = 2 for ${lengthInText(fromUs.ft(20))} ≤ w ≤ ${lengthInText(fromUs.ft(24))}, each lane w/2 wide`
+      : `NL = INT(w / ${lengthInText(DESIGN_LANE_WIDTH)})`,
     inputs: [{ symbol: 'w', description: 'clear roadway width between curb faces', value: roadwayWidth, kind: 'length', formulaValue: wFt, formulaUnit: 'ft' }],
     value: count,
     kind: 'none',
     article: 'AASHTO LRFD Art. 3.6.1.1.1',
-    note: inTwentyToTwentyFour ? `two lanes of ${(wFt / 2).toFixed(2)} ft` : undefined,
+    note: inTwentyToTwentyFour ? `two lanes of ${lengthInText(roadwayWidth / 2)}` : undefined,
   };
   return { count, width, trace };
 }

@@ -18,6 +18,7 @@
  */
 import type { TraceStep } from '../trace.js';
 import { toUs } from '../units.js';
+import { lengthInText } from '../quantities/inText.js';
 import { multiplePresenceFactor } from './lanes.js';
 import { WHEEL_GAUGE, WHEEL_TO_LANE_EDGE } from './leverRule.js';
 
@@ -102,7 +103,7 @@ export function rigidSection(
       { symbol: 'NL', description: 'number of loaded lanes', value: cs.loadedLanes, kind: 'none' },
       { symbol: 'Nb', description: 'number of girders', value: nb, kind: 'none' },
       { symbol: 'X_ext', description: 'exterior girder from the centre of the girders', value: xExt, kind: 'length', formulaValue: toUs.ft(xExt), formulaUnit: 'ft' },
-      { symbol: 'Σe', description: `sum of truck eccentricities (${cs.eccentricities.map((v) => toUs.ft(v).toFixed(2)).join(', ')} ft)`, value: cs.sumE, kind: 'length', formulaValue: toUs.ft(cs.sumE), formulaUnit: 'ft' },
+      { symbol: 'Σe', description: `sum of truck eccentricities (${cs.eccentricities.map((v) => lengthInText(v)).join(', ')})`, value: cs.sumE, kind: 'length', formulaValue: toUs.ft(cs.sumE), formulaUnit: 'ft' },
       { symbol: 'Σx²', description: 'sum of squared girder distances from the centre', value: sumX2, kind: 'lengthSquared', formulaValue: toUs.ft(toUs.ft(sumX2)), formulaUnit: 'ft²' },
       { symbol: 'm', description: 'multiple presence factor', value: cs.multiplePresence, kind: 'none' },
     ],

@@ -73,6 +73,19 @@ const READ_DECIMALS: Record<UnitSystem, Partial<Record<QuantityKind, number>>> =
 };
 
 /** An internal value as text for reading, with its unit symbol unless `withUnit` is false. */
+/**
+ * A number as an engineer writes it, never with an exponent: grouped thousands
+ * ("24,000,000,000" mm⁴), `decimals` places, and a value too small for them given three
+ * significant digits ("0.000400"); below 1e-9 of the unit it is round-off and reads 0.
+ */
+export function plainNumber(value: number, decimals: number): string {
+  const abs = Math.abs(value);
+  const tiny = abs !== 0 && abs < 10 ** -decimals;
+  const places = !tiny ? decimals : abs < 1e-9 ? decimals : Math.min(12, Math.ceil(-Math.log10(abs)) + 2);
+  const shown = tiny && abs < 1e-9 ? 0 : value;
+  return shown.toLocaleString('en-US', { minimumFractionDigits: places, maximumFractionDigits: places });
+}
+
 export function formatValue(
   value: number | undefined | null,
   kind: QuantityKind,
@@ -84,11 +97,7 @@ export function formatValue(
   const raw = toDisplay(value, kind, system);
   // In traces, a value that rounds to zero at the decimals shown reads 0, not 3.6e-16.
   const shown = options.zeroBelowPrecision ? zeroIfNegligible(raw, 0, decimals) : raw;
-  const abs = Math.abs(shown);
-  const text =
-    abs !== 0 && (abs >= 1e9 || abs < 10 ** -decimals)
-      ? shown.toExponential(3).replace('e+', 'e')
-      : shown.toLocaleString('en-US', { minimumFractionDigits: decimals, maximumFractionDigits: decimals });
+  const text = plainNumber(shown, decimals);
   const symbol = unitSymbol(kind, system);
   if (options.withUnit === false || !symbol) return text;
   return kind === 'angle' ? `${text}°` : `${text} ${symbol}`;

@@ -4,7 +4,7 @@
  * NIST SP 811, Appendix B), 1 ksi = 6.894757293 MPa (NIST SP 811, B.8, to the printed digits).
  */
 import { describe, expect, it } from 'vitest';
-import { formatFactor, formatInput, formatValue, parseInput } from '@/composables/useUnits';
+import { formatFactor, formatInput, formatValue, parseInput, plainNumber } from '@/composables/useUnits';
 
 describe('input boxes', () => {
   it('shows an internal length in feet or metres', () => {
@@ -61,5 +61,16 @@ describe('reading values', () => {
     expect(formatValue(Number.NaN, 'length', 'US')).toBe('—');
     expect(formatFactor(0.7961)).toBe('0.796');
     expect(formatFactor(Number.POSITIVE_INFINITY)).toBe('—');
+  });
+
+  it('never writes an exponent: grouped thousands, three significant digits when small, round-off as 0', () => {
+    // 2.4e10 mm⁴ (a steel girder's I in SI) as an engineer writes it; 1 mm⁴ = 1e-12 m⁴.
+    expect(formatValue(2.4e-2, 'inertia', 'SI')).toBe('24,000,000,000 mm⁴');
+    // A wheel line on girder 1 found by the search at 3.6e-16 ft is on it (common practice, no source: below 1e-9 of the unit is round-off).
+    expect(formatValue(1.11e-16, 'length', 'US')).toBe('0.00 ft');
+    // 0.0004 ft is a real value below the two decimals of ft: shown with three significant digits.
+    expect(formatValue(0.0004 * 0.3048, 'length', 'US')).toBe('0.000400 ft');
+    expect(plainNumber(-0.5, 3)).toBe('-0.500');
+    for (const v of [1e-15, 3e-7, 2e12, -7e9]) expect(plainNumber(v, 2)).not.toMatch(/e/i);
   });
 });

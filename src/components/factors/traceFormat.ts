@@ -8,6 +8,7 @@
 import { stepForDisplay, zeroIfNegligible, type TraceStep } from '@shared/trace';
 import { unitSymbol, type QuantityKind, type UnitSystem } from '@shared/units';
 import { formatValue } from '@/composables/useUnits';
+import { showLengths } from '@shared/quantities/inText';
 
 /** A value of the step (input or result) in the reader's units. */
 export function traceValueText(value: number, kind: QuantityKind, units: UnitSystem): string {
@@ -19,10 +20,10 @@ export function traceValueText(value: number, kind: QuantityKind, units: UnitSys
   return formatValue(value, kind, units, { zeroBelowPrecision: true });
 }
 
-/** The number a US customary formula takes, e.g. "12.500" (ft) or "1.2000e5" (in⁴). */
+/** The number a US customary formula takes, e.g. "12.500" (ft) or "545,894" (in⁴). */
 export function formulaValueText(v: number): string {
   const a = Math.abs(v);
-  if (a >= 1e5) return v.toExponential(4).replace('e+', 'e');
+  if (a >= 1e5) return Math.round(v).toLocaleString('en-US');
   if (a >= 100) return v.toFixed(1);
   return zeroIfNegligible(v, 0, 3).toFixed(3);
 }
@@ -41,7 +42,7 @@ export function traceStepText(s: TraceStep, units: UnitSystem): { inputs: TraceI
   const inputs = d.inputs.map((i) => {
     const line: TraceInputLine = { symbol: i.symbol, value: traceValueText(i.value, i.kind, units) };
     if (i.formulaValue !== undefined && i.formulaUnit && i.formulaUnit !== unitSymbol(i.kind, units)) line.formula = `(${formulaValueText(i.formulaValue)} ${i.formulaUnit} in the formula)`;
-    if (i.description) line.description = i.description;
+    if (i.description) line.description = showLengths(i.description, units);
     return line;
   });
   return { inputs, value: traceValueText(d.value, d.kind, units) };

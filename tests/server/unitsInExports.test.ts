@@ -1,0 +1,71 @@
+/**
+ * Every example deck (the demo decks and the starting decks a new deck offers), saved in a
+ * US customary project and in an SI one: the calculation package (PDF text by poppler's
+ * pdftotext), the factor table and the girder envelopes (CSV) print no quantity in the other
+ * unit system and no number with an exponent. Unit symbols: tests/fixtures/unitsInText.ts
+ * (NIST SP 811 and the AASHTO LRFD editions' symbols; common practice, no source). An SI
+ * package may give, in brackets and labelled "in the formula", the US customary value an
+ * empirical formula of the US customary edition works with; those are allowed and counted.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { exampleDecks } from '../fixtures/exampleDecks.js';
+import { unitsReport, type UnitSystem } from '../fixtures/unitsInText.js';
+import { demo, signIn, type Agent } from './helpers.js';
+import { makeWorkflowApp, send, type WorkflowContext } from './workflowHelpers.js';
+
+let ctx: WorkflowContext;
+let designer: Agent;
+
+function binary(res: { on(e: string, f: (c?: Buffer) => void): void }, cb: (e: Error | null, b: Buffer) => void) {
+  const chunks: Buffer[] = [];
+  res.on('data', (c) => chunks.push(c!));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
+}
+
+function pdfText(pdf: Buffer): string {
+  const dir = mkdtempSync(join(tmpdir(), 'deckshare-pdf-'));
+  const file = join(dir, 'package.pdf');
+  writeFileSync(file, pdf);
+  const r = spawnSync('pdftotext', ['-enc', 'UTF-8', file, '-'], { encoding: 'utf8' });
+  if (r.error) throw new Error(`pdftotext is needed to read the PDF (apt-get install -y poppler-utils): ${r.error.message}`);
+  return r.stdout.replace(/\s+/g, ' ');
+}
+
+const projects: Record<UnitSystem, number> = { US: 0, SI: 0 };
+
+beforeAll(async () => {
+  ctx = await makeWorkflowApp();
+  designer = await signIn(ctx.app, demo.designer);
+  for (const units of ['US', 'SI'] as const) {
+    projects[units] = (await send.post(designer, '/api/projects', { name: `Unit check, ${units}`, units })).body.project.id;
+  }
+});
+afterAll(() => ctx.close());
+
+describe.each(exampleDecks())('$name', ({ deck }) => {
+  it.each(['US', 'SI'] as const)('in a %s project, the package and the CSV tables print its units only, and no exponent', async (units) => {
+    const saved = await send.post(designer, `/api/projects/${projects[units]}/decks`, { deck, message: 'unit check' });
+    expect(saved.status, JSON.stringify(saved.body)).toBe(201);
+    const base = `/api/reports/decks/${saved.body.deck.id}/versions/1`;
+    const pdf = await designer.get(`${base}/package.pdf`).buffer(true).parse(binary);
+    expect(pdf.status).toBe(200);
+    const texts = {
+      package: pdfText(pdf.body as Buffer),
+      'factor table': (await designer.get(`${base}/factors.csv`)).text,
+      envelopes: (await designer.get(`${base}/envelopes.csv`)).text,
+    };
+    // the grillage rows and their findings are in it too (the refined run finished before the package)
+    expect(texts.package).toContain('Grillage g');
+    for (const [what, text] of Object.entries(texts)) {
+      expect(text.length, what).toBeGreaterThan(200);
+      const r = unitsReport(text, units);
+      expect(r.foreign, `${what}: quantities in the other unit system`).toEqual([]);
+      expect(r.exponents, `${what}: numbers with an exponent`).toEqual([]);
+      if (units === 'US') expect(r.formulaValues).toBe(0);
+    }
+  }, 120_000);
+});
