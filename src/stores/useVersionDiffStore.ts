@@ -45,8 +45,6 @@ export const useVersionDiffStore = defineStore('versionDiff', () => {
     if (!a?.factors || !b?.factors) return null;
     return diffVersionFactors({ number: a.number, factors: a.factors }, { number: b.number, factors: b.factors });
   });
-  /** The grillage runs still being waited for. */
-  const liveJobs = computed(() => sides.value.filter((s) => s.job && reviewsApi.jobIsLive(s.job)));
 
   function stop(): void {
     generation++;
@@ -125,5 +123,5 @@ export const useVersionDiffStore = defineStore('versionDiff', () => {
     }
   }
 
-  return { comparing, error, withheld, inputChanges, sides, factorDiff, liveJobs, compare, reset, stop };
+  return { comparing, error, withheld, inputChanges, sides, factorDiff, compare, reset, stop };
 });
