@@ -37,6 +37,7 @@ import { refinedPoolFor, type RefinedPool } from './compute/refinedPool.js';
 import { packagePoolFor, type PackagePool } from './compute/packagePool.js';
 import { databaseJobRecorder, failInterruptedJobs } from './compute/jobRecords.js';
 import { jobRouter, versionJobsRouter } from './api/jobs/jobRouter.js';
+import { versionFactorsRouter } from './api/decks/versionFactors.js';
 
 export interface AppDeps {
   db: Db;
@@ -116,6 +117,7 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/projects/:projectId/decks', projectDecksRouter(db, config));
   api.use('/decks', deckRouter(db, config));
   api.use('/decks', versionJobsRouter(db, pool));
+  api.use('/decks', versionFactorsRouter(db, pool));
   api.use('/jobs', jobRouter(db, pool));
   api.use('/admin/users', userRouter(db, config, mailer));
   api.use('/mail', mailRouter(db));

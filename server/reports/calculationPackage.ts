@@ -20,6 +20,7 @@ import type { ReportData } from './reportData.js';
 import { PRODUCT_VERSION } from '../../shared/version.js';
 import { formatTimestamp } from '../../shared/time/timestamps.js';
 import { FINDING_LEVEL_WORDS, findingLevel } from '../../shared/findings/levels.js';
+import { factorText } from '../../shared/lrfd/words.js';
 
 /** A finding's level in words, with its code (shared/findings/levels.ts). */
 const levelWords = (f: { code: string; severity?: string }) => `${FINDING_LEVEL_WORDS[findingLevel(f)]} (${f.code})`;
@@ -81,9 +82,8 @@ export function traceInputsText(s: TraceStep, units: UnitSystem): string {
     .join(';  ');
 }
 
-function factor(v: number): string {
-  return v.toFixed(4);
-}
+/** A factor as the review summary and the version comparison write it (shared/lrfd/words.ts). */
+const factor = factorText;
 
 /** Short words for why a reduction is not claimed (the review panel gives the full sentence). */
 const WITHHELD_SHORT: Record<string, string> = {

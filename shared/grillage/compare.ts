@@ -16,6 +16,7 @@
 import type { Finding } from '../lrfd/findings.js';
 import { RESULT_CAUTION, type CodeFactorResult, type FactorEffect, type FactorMethod, type FactorRow, type GirderKind } from '../lrfd/factors.js';
 import type { RefinedFinding, RefinedResult } from './refinedFactors.js';
+import { placeWords } from '../lrfd/words.js';
 
 export interface ComparisonRow {
   girderNumber: number;
@@ -75,7 +76,7 @@ export function compareFactors(code: CodeFactorResult, refined: RefinedResult): 
     for (const r of [...grillageRows, ...codeRows]) {
       if (!COMPARED.includes(r.effect)) continue;
       const k = `${r.effect}|${r.location.key}|${r.lanes}`;
-      if (!keys.has(k)) keys.set(k, { effect: r.effect, locationKey: r.location.key, location: r.location.description.replace(/ \(.*\)$/, ''), lanes: r.lanes });
+      if (!keys.has(k)) keys.set(k, { effect: r.effect, locationKey: r.location.key, location: placeWords(r.location.description), lanes: r.lanes });
     }
     for (const key of keys.values()) {
       const match = (r: FactorRow) => r.effect === key.effect && r.location.key === key.locationKey && r.lanes === key.lanes;

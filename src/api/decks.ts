@@ -1,6 +1,8 @@
 /** Decks (saved configurations) of a project and their immutable versions. */
 import type { DeckInput } from '@shared/deck/schema';
-import { http } from './http';
+import type { VersionFactors } from '@shared/versionDiff/versionFactors';
+import { http, requestWithStatus } from './http';
+import type { ComputeJob, RefinedRefusal } from './reviews';
 import type { DeckSummary, DeckVersion, Page, VersionSummary } from './types';
 
 export async function listDecks(projectId: number): Promise<DeckSummary[]> {
@@ -37,4 +39,16 @@ export async function saveVersion(
 export async function getVersion(deckId: number, number: number, withResults = false): Promise<DeckVersion> {
   const { version } = await http.get<{ version: DeckVersion }>(`/api/decks/${deckId}/versions/${number}`, withResults ? { include: 'results' } : undefined);
   return version;
+}
+
+/**
+ * A version's factors for the comparison of two versions, without waiting for its grillage:
+ * with the job to follow (GET its `url`) while the grillage is computed (the server answers 202
+ * with the code part), or with the refusal when the server could not start it now.
+ */
+export async function getVersionFactors(deckId: number, number: number): Promise<{ factors: VersionFactors; job: ComputeJob | null; refusal: RefinedRefusal | null }> {
+  const { status, body } = await requestWithStatus<{ factors: VersionFactors; job?: ComputeJob | null; refusal?: RefinedRefusal | null }>(`/api/decks/${deckId}/versions/${number}/factors`, {
+    headers: { Prefer: 'respond-async' },
+  });
+  return { factors: body.factors, job: status === 202 ? (body.job ?? null) : null, refusal: body.refusal ?? null };
 }

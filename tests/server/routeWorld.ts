@@ -126,6 +126,7 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'POST /api/decks/:deckId/versions': { params: { deckId: ids.deckId }, body: { deck: quarryCreekDeck() as unknown as Record<string, unknown>, message: 'hostile save', basedOnVersionId: ids.versionId, placements: PLACEMENTS } },
     'GET /api/decks/:deckId/versions/:number': { params: version },
     'GET /api/decks/:deckId/versions/:number/jobs': { params: version },
+    'GET /api/decks/:deckId/versions/:number/factors': { params: version },
     'GET /api/jobs/:jobId': { params: { jobId: ids.jobId } },
     // the sample job is done: a cancel is refused (409) whatever the body
     'POST /api/jobs/:jobId/cancel': { params: { jobId: ids.jobId }, body: {} },

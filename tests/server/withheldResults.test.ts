@@ -1,6 +1,6 @@
 /** A trainee cannot read the results of a deck version while an exercise on it is open for
  *  them: the version's stored results, the review round and its summary, the calculation
- *  package and the CSV tables are withheld (the deck inputs stay readable) until they submit;
+ *  package, the CSV tables and the comparison of versions are withheld (the deck inputs stay readable) until they submit;
  *  other readers and other versions are unaffected. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { quarryCreekDeck } from '../fixtures/decks.js';
@@ -84,6 +84,17 @@ describe('results withheld during an open exercise', () => {
     }
   });
 
+  it('the comparison of versions withholds the version\'s factors from the trainee (403 results_withheld), not the other version\'s', async () => {
+    const res = await trainee.get(`/api/decks/${deckId}/versions/1/factors`).set('Prefer', 'respond-async');
+    expect(res.status).toBe(403);
+    expect(res.body.error).toMatchObject({ code: 'results_withheld', details: [] });
+    expect(JSON.stringify(res.body)).not.toMatch(/"rows"|"governing"/);
+    const later = await trainee.get(`/api/decks/${deckId}/versions/2/factors`).set('Prefer', 'respond-async');
+    expect([200, 202]).toContain(later.status);
+    expect(later.body.factors.code.governing.length).toBeGreaterThan(0);
+    expect((await otherTrainee.get(`/api/decks/${deckId}/versions/1/factors`).set('Prefer', 'respond-async')).body.factors.code.rows.length).toBeGreaterThan(0);
+  });
+
   it('a trainee who also reviews gets 403 results_withheld from the review round and every report of that version', async () => {
     const review = await dual.get(`/api/reviews/${reviewId}`);
     expect(review.status).toBe(403);
@@ -105,6 +116,7 @@ describe('results withheld during an open exercise', () => {
     const res = await version1(trainee);
     expect(res.body.version.resultsWithheld).toBeNull();
     expect(res.body.version.results.map((r: { method: string }) => r.method)).toContain('code');
+    expect((await trainee.get(`/api/decks/${deckId}/versions/1/factors`).set('Prefer', 'respond-async')).body.factors.code.rows.length).toBeGreaterThan(0);
 
     expect((await send.post(dual, `/api/training/mine/${dualExerciseId}/submissions`, { value: 0.7 })).status).toBe(201);
     expect((await dual.get(`/api/reviews/${reviewId}`)).status).toBe(200);

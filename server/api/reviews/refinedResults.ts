@@ -20,6 +20,7 @@ import { RefinedModelTooLargeError, type RefinedPool } from '../../compute/refin
 import { SOLVER_VERSION } from '../../../shared/version.js';
 import { insertEncodedResultOnce } from '../../storage/storedResults.js';
 import { governingPerGirder, type PanelAspectFact, type RefinedFactor } from '../../../shared/review/reductions.js';
+import type { GrillageMissing } from '../../../shared/versionDiff/versionFactors.js';
 
 export type { RefinedFactor };
 
@@ -34,6 +35,8 @@ export interface RefinedResults {
   rows: FactorRow[] | null;
   source: string;
   note: string;
+  /** Why there are no factors (absent when there are). */
+  missing?: Extract<GrillageMissing, 'not-built' | 'no-rows' | 'too-large'>;
 }
 
 function rowsOf(data: unknown): FactorRow[] | null {
@@ -69,9 +72,9 @@ async function computeAndStore(db: Db, pool: RefinedPool, v: DeckVersionRow, req
 function resultsOf(data: unknown, solverVersion: string): RefinedResults {
   const source = `grillage stored with the version, solver ${solverVersion}`;
   const error = typeof data === 'object' && data !== null && typeof (data as { error?: unknown }).error === 'string' ? (data as { error: string }).error : undefined;
-  if (error !== undefined) return { factors: null, rows: null, source, note: `The grillage could not be built for this version: ${error}` };
+  if (error !== undefined) return { factors: null, rows: null, source, note: `The grillage could not be built for this version: ${error}`, missing: 'not-built' };
   const rows = rowsOf(data);
-  if (!rows || rows.length === 0) return { factors: null, rows: null, source, note: 'The stored grillage result holds no factor rows that can be compared.' };
+  if (!rows || rows.length === 0) return { factors: null, rows: null, source, note: 'The stored grillage result holds no factor rows that can be compared.', missing: 'no-rows' };
   return { factors: governingPerGirder(rows), rows, source, note: '', panelAspect: panelAspectOf(data), solverVersion };
 }
 
@@ -105,7 +108,7 @@ export function startRefinedResults(db: Db, pool: RefinedPool, v: DeckVersionRow
     (data) => resultsOf(data, SOLVER_VERSION),
     (e: unknown): RefinedResults => {
       if (!(e instanceof RefinedModelTooLargeError)) throw e;
-      return { factors: null, rows: null, source: 'grillage not run (model-size limit of this server)', note: e.message };
+      return { factors: null, rows: null, source: 'grillage not run (model-size limit of this server)', note: e.message, missing: 'too-large' };
     },
   );
   return { jobId: pool.recordOf(jobKey(v)), results };

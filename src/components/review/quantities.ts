@@ -2,9 +2,8 @@
 import { toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '@shared/units';
 import { zeroIfNegligible } from '@shared/trace';
 
-export function factorText(v: number): string {
-  return Number.isFinite(v) ? v.toFixed(4) : '—';
-}
+// The factor's words and its 4-decimal text are shared with the package and the version comparison.
+export { EFFECT_LABELS, METHOD_LABELS, factorText } from '@shared/lrfd/words';
 
 /** An internal (SI) value shown in the project's unit system with its symbol. */
 export function quantityText(value: number, kind: QuantityKind, units: UnitSystem, decimals?: number): string {
@@ -15,23 +14,3 @@ export function quantityText(value: number, kind: QuantityKind, units: UnitSyste
   const text = Math.abs(shown) >= 10000 ? shown.toLocaleString('en-US', { maximumFractionDigits: 0 }) : shown.toFixed(d);
   return sym ? (sym === '°' ? `${text}°` : `${text} ${sym}`) : text;
 }
-
-export const EFFECT_LABELS: Record<string, string> = {
-  moment: 'moment',
-  'negative-moment': 'negative moment',
-  shear: 'shear',
-  reaction: 'reaction',
-  'fatigue-moment': 'fatigue moment',
-  'fatigue-shear': 'fatigue shear',
-  deflection: 'deflection',
-};
-
-export const METHOD_LABELS: Record<string, string> = {
-  formula: 'empirical formula',
-  'lever-rule': 'lever rule',
-  'rigid-section': 'rigid section',
-  'equal-share': 'equal share',
-  'interior-minimum': 'not less than interior',
-  grillage: 'grillage',
-  governing: 'governing value',
-};
