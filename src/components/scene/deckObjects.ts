@@ -35,6 +35,8 @@ import {
 import type { Deck } from '@shared/deck/schema';
 import {
   girderExtent,
+  girderLabelHeight,
+  girderOutline,
   sectionDrawing,
   slabOutline,
   supportLineX,
@@ -98,41 +100,8 @@ function textSprite(text: string, height: number, colour: string = SCENE_COLOURS
 
 /** Cross-section shape of one girder in its own (z, y) plane: z across, y up (top at 0). */
 function girderShape(s: SectionDrawing): Shape {
-  const d = s.depth;
-  const b = s.flangeWidth;
   const shape = new Shape();
-  if (s.shape === 'box') {
-    shape.moveTo(-b / 2, 0);
-    shape.lineTo(b / 2, 0);
-    shape.lineTo(b / 2, -d);
-    shape.lineTo(-b / 2, -d);
-    shape.closePath();
-    return shape;
-  }
-  if (s.shape === 'web') {
-    const tw = Math.max(s.webThickness * 2.5, Math.min(b, 0.35));
-    shape.moveTo(-tw / 2, 0);
-    shape.lineTo(tw / 2, 0);
-    shape.lineTo(tw / 2, -d);
-    shape.lineTo(-tw / 2, -d);
-    shape.closePath();
-    return shape;
-  }
-  const tf = Math.max(0.025, Math.min(0.12, d * 0.06));
-  const tw = s.webThickness;
-  const bb = b * 1.05;
-  shape.moveTo(-b / 2, 0);
-  shape.lineTo(b / 2, 0);
-  shape.lineTo(b / 2, -tf);
-  shape.lineTo(tw / 2, -tf);
-  shape.lineTo(tw / 2, -d + tf);
-  shape.lineTo(bb / 2, -d + tf);
-  shape.lineTo(bb / 2, -d);
-  shape.lineTo(-bb / 2, -d);
-  shape.lineTo(-bb / 2, -d + tf);
-  shape.lineTo(-tw / 2, -d + tf);
-  shape.lineTo(-tw / 2, -tf);
-  shape.lineTo(-b / 2, -tf);
+  girderOutline(s).forEach(([z, h], i) => (i === 0 ? shape.moveTo(z, h) : shape.lineTo(z, h)));
   shape.closePath();
   return shape;
 }
@@ -215,7 +184,7 @@ export function buildStructure(deck: Deck, frame: PlanFrame): StructureObjects {
   const girders: Mesh[] = [];
   const lines: Line[] = [];
   const shape = girderShape(section);
-  const labelHeight = Math.max(0.45, Math.min(1.2, (frame.deckRight - frame.deckLeft) / 28));
+  const labelHeight = girderLabelHeight(frame);
   frame.offsets.forEach((_, g) => {
     const { x0, x1, y } = girderExtent(frame, g);
     const geometry = new ExtrudeGeometry(shape, { depth: x1 - x0, bevelEnabled: false });

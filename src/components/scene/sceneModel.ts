@@ -121,6 +121,39 @@ export function sectionDrawing(deck: Deck): SectionDrawing {
   };
 }
 
+/**
+ * Outline of one girder in its own cross-section plane, m: z across (0 at the girder's
+ * centreline, positive to the right), h up (0 at the top of the girder, −depth at its
+ * bottom). Drawing only: an I-beam with flanges of about 6 % of the depth, a solid box, or a
+ * single web for cast-in-place multicell boxes and tee beams.
+ */
+export function girderOutline(s: SectionDrawing): [number, number][] {
+  const d = s.depth;
+  const b = s.flangeWidth;
+  if (s.shape === 'box') return [[-b / 2, 0], [b / 2, 0], [b / 2, -d], [-b / 2, -d]];
+  if (s.shape === 'web') {
+    const tw = Math.max(s.webThickness * 2.5, Math.min(b, 0.35));
+    return [[-tw / 2, 0], [tw / 2, 0], [tw / 2, -d], [-tw / 2, -d]];
+  }
+  const tf = Math.max(0.025, Math.min(0.12, d * 0.06));
+  const tw = s.webThickness;
+  const bb = b * 1.05;
+  return [
+    [-b / 2, 0],
+    [b / 2, 0],
+    [b / 2, -tf],
+    [tw / 2, -tf],
+    [tw / 2, -d + tf],
+    [bb / 2, -d + tf],
+    [bb / 2, -d],
+    [-bb / 2, -d],
+    [-bb / 2, -d + tf],
+    [-tw / 2, -d + tf],
+    [-tw / 2, -tf],
+    [-b / 2, -tf],
+  ];
+}
+
 /** One loaded lane as drawn. */
 export interface LaneDrawing {
   index: number;
@@ -184,4 +217,27 @@ export function slabOutline(frame: PlanFrame): [number, number][] {
 export function girderExtent(frame: PlanFrame, g: number): { x0: number; x1: number; y: number } {
   const y = frame.offsets[g];
   return { x0: supportLineX(frame, 0, y), x1: supportLineX(frame, frame.A.length - 1, y), y };
+}
+
+/** Height of the girder labels drawn beside support line 0, m (world). */
+export function girderLabelHeight(frame: PlanFrame): number {
+  return Math.max(0.45, Math.min(1.2, (frame.deckRight - frame.deckLeft) / 28));
+}
+
+/**
+ * World points that bound what the view draws, for framing the camera: the slab's plan
+ * corners (between the first and last support lines) from below the support caps
+ * (`bottom`, m) to above the barriers and wheels (`top`, m), and the girder labels beside
+ * support line 0. World coordinates as `toWorld` (X along, Y up, Z across), m.
+ */
+export function deckBoundingPoints(frame: PlanFrame, bottom: number, top: number): [number, number, number][] {
+  const points: [number, number, number][] = [];
+  for (const [x, y] of slabOutline(frame)) for (const h of [bottom, top]) points.push(toWorld(frame, x, y, h));
+  const label = girderLabelHeight(frame);
+  for (const y of frame.offsets) {
+    // label centre at 1.6 label heights before support line 0; "G12" is about 1.6 heights wide
+    const x = supportLineX(frame, 0, y) - label * 2.5;
+    points.push(toWorld(frame, x, y, top));
+  }
+  return points;
 }
