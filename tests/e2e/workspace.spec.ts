@@ -13,6 +13,37 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { DEMO_USERS, signIn, startHarness, type Harness } from './harness';
 
+/**
+ * Lets a test hold the solver's answers: every page's Worker is wrapped so that, while
+ * `window.__holdSolver.on` is set, the worker's messages that end a request ('done', 'error')
+ * and all that follow them wait in a queue (progress still arrives). A long computation then
+ * lasts until the test lets go, however fast the machine: the cancel test does not race it.
+ * The worker itself is untouched; a terminated worker's held messages are dropped.
+ */
+const HOLD_SOLVER_ANSWERS = `(() => {
+  const Native = window.Worker;
+  const hold = { on: false };
+  window.__holdSolver = hold;
+  window.Worker = class HeldWorker extends Native {
+    constructor(url, options) {
+      super(url, options);
+      const queue = [];
+      let handler = null;
+      let holding = false;
+      this.__release = () => { const q = queue.splice(0); for (const e of q) handler && handler.call(this, e); };
+      super.onmessage = (event) => {
+        if (hold.on && (holding || event.data.type === 'done' || event.data.type === 'error')) { holding = true; queue.push(event); return; }
+        holding = false;
+        if (queue.length) this.__release();
+        handler && handler.call(this, event);
+      };
+      Object.defineProperty(this, 'onmessage', { get: () => handler, set: (f) => { handler = f; } });
+      const terminate = this.terminate.bind(this);
+      this.terminate = () => { queue.length = 0; terminate(); };
+    }
+  };
+})();`;
+
 /** The scene's clear colour (src/components/scene/sceneColours.ts), RGB. */
 const BACKGROUND = [0xee, 0xf1, 0xec];
 
@@ -104,6 +135,7 @@ describe('deck workspace in the browser', () => {
 
   beforeAll(async () => {
     h = await startHarness({ viewport: { width: 1500, height: 1000 } });
+    await h.page.addInitScript(HOLD_SOLVER_ANSWERS);
     await signIn(h.page, h.baseUrl, DEMO_USERS.designer);
   });
 
@@ -272,22 +304,21 @@ describe('deck workspace in the browser', () => {
     await page.locator('.ant-select-item-option', { hasText: '80 segments per span' }).click();
     const progress = page.locator('[data-test="solver-progress"]');
     const cancelled = page.locator('[data-test="solver-cancelled"]');
-    // The fine-mesh run takes well under a second on a quiet machine: on a busy one it can end
-    // before the click on Cancel lands. Then the run is started again (each try is independent),
-    // at most five times; the cancelled state must be seen in one of them.
-    for (let attempt = 1; ; attempt++) {
+    // The fine-mesh run takes about half a second here, so a click on Cancel could land after it
+    // ended. The test holds the run's answer (HOLD_SOLVER_ANSWERS): the run stays in progress
+    // until Cancel, whatever the machine's speed.
+    await page.evaluate('window.__holdSolver.on = true');
+    try {
       await page.locator('[data-test="recompute"]').click();
-      const seen = await progress.waitFor({ timeout: 10_000 }).then(
-        () => true,
-        () => false,
-      );
-      if (seen) {
-        expect(await progress.innerText().catch(() => '0%')).toMatch(/\d+%/);
-        await page.locator('[data-test="cancel-solver"]').click({ timeout: 2_000 }).catch(() => undefined);
-        if (await cancelled.waitFor({ timeout: 3_000 }).then(() => true, () => false)) break;
-      }
-      if (attempt === 5) throw new Error('five fine-mesh runs ended before Cancel landed');
-      await progress.waitFor({ state: 'detached', timeout: 100_000 });
+      await progress.waitFor({ timeout: 10_000 });
+      // the bar reads a percent, 0 to 100, as long as the run lasts (never a finished tick)
+      await expect.poll(async () => Number(await progress.getAttribute('data-percent')), { timeout: 30_000 }).toBeGreaterThan(0);
+      expect(Number(await progress.getAttribute('data-percent'))).toBeLessThanOrEqual(100);
+      expect(await progress.innerText()).toMatch(/\d+%/);
+      await page.locator('[data-test="cancel-solver"]').click();
+      await cancelled.waitFor({ timeout: 10_000 });
+    } finally {
+      await page.evaluate('window.__holdSolver.on = false');
     }
     await h.screenshot('workspace-06b-cancelled');
     await page.locator('[data-test="solver-cancelled"] button', { hasText: 'Compute again' }).click();
