@@ -35,6 +35,13 @@ export interface TraceStep {
   article: string;
   /** Optional remark, e.g. "lever rule governs". */
   note?: string;
+  /**
+   * What the step stands for in a factor row's trace, where the solver records it
+   * (shared/lrfd/factors.ts): 'span-length' — the span length L of the row's location
+   * (Table C4.6.2.2.1-1); 'skew' — the skew correction and the product g₀ · skew factor.
+   * Absent: a step of the method itself. shared/lrfd/quantity.ts reads it.
+   */
+  part?: 'span-length' | 'skew';
 }
 
 export type Trace = TraceStep[];

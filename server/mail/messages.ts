@@ -4,6 +4,7 @@
  */
 import { formatTimestamp } from '../../shared/time/timestamps.js';
 import type { MailKind, MailMessage } from './mailer.js';
+import { gradeHeadline, oneAnswerWords } from '../../shared/training/answerWords.js';
 
 const CAUTION = 'Results are aids to a licensed engineer’s judgement; local codes, owner policies and licensed practice govern.';
 
@@ -129,14 +130,16 @@ export function assignmentGivenMessage(p: { firmId: number; to: Person; instruct
   });
 }
 
-export function submissionGradedMessage(p: { firmId: number; to: Person; title: string; attempt: number; passed: boolean; summary: string; link: string }): MailMessage {
+/** The grade of a trainee's one answer, in the words of the exercise page (shared/training/answerWords.ts). */
+export function submissionGradedMessage(p: { firmId: number; to: Person; title: string; passed: boolean; summary: string; link: string }): MailMessage {
+  const headline = gradeHeadline(p.passed);
   return compose({
     kind: 'submission-graded',
     firmId: p.firmId,
     to: p.to.email,
-    subject: `${p.passed ? 'Passed' : 'Not yet'}: ${p.title} (attempt ${p.attempt})`,
+    subject: `${headline}: ${p.title}`,
     greeting: `Hello ${p.to.name},`,
-    paragraphs: [`Your attempt ${p.attempt} at “${p.title}” has been graded: ${p.passed ? 'within tolerance' : 'outside tolerance'}.`, p.summary, 'Compare your steps with the product’s trace on the exercise page.'],
+    paragraphs: [`Your answer to “${p.title}” has been graded: ${headline.toLowerCase()}.`, p.summary, oneAnswerWords('graded')],
     link: { label: 'See the comparison', url: p.link },
     caution: true,
   });

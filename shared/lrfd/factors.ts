@@ -194,7 +194,7 @@ export function buildFactorRow(init: FactorRowInit): FactorRow {
   const trace = (init.trace ?? []).slice();
   const findings = init.skew && init.skew.findings.length > 0 ? (init.findings ?? []).concat(init.skew.findings) : (init.findings ?? []).slice();
   if (init.skew && init.skew.steps.length > 0) {
-    trace.push(...init.skew.steps);
+    trace.push(...init.skew.steps.map((st) => ({ ...st, part: 'skew' as const })));
     trace.push({
       label: 'Distribution factor with the skew correction',
       formula: 'g = g₀ · skew factor',
@@ -205,6 +205,7 @@ export function buildFactorRow(init: FactorRowInit): FactorRow {
       value,
       kind: 'none',
       article: init.skew.steps[init.skew.steps.length - 1].article,
+      part: 'skew',
     });
   }
   const idGirder = init.girderNumber !== undefined && init.girderKind === 'exterior' ? `/g${init.girderNumber}` : '';
@@ -743,7 +744,7 @@ function buildLocationRows(en: Engine, loc: EffectLocation, rows: FactorRow[], c
     cache.set(key, inits);
   }
   const location = locationOf(loc);
-  for (const init of inits) rows.push(buildFactorRow({ ...init, effect: loc.effect, location, trace: [loc.trace, ...(init.trace ?? [])] }));
+  for (const init of inits) rows.push(buildFactorRow({ ...init, effect: loc.effect, location, trace: [{ ...loc.trace, part: 'span-length' }, ...(init.trace ?? [])] }));
 }
 
 

@@ -30,3 +30,4 @@ export {
   type DerivedValues,
 } from './factors.js';
 export { governingChoice, type Candidate, type GoverningChoice } from './choice.js';
+export { canLeaveOutSkew, hasTraceParts, rowQuantity, rowSkew, withTraceParts, type RowSkew, type SkewChoice } from './quantity.js';

@@ -10,6 +10,8 @@ export interface FactorParams {
   lanes: 'one' | 'multiple' | 'governing';
   method: 'governing' | 'formula' | 'lever-rule' | 'rigid-section' | 'equal-share';
   location?: string;
+  /** On a skewed deck: the value with the skew correction (default) or before it. */
+  skew?: 'with' | 'before';
 }
 
 export interface TruckPositionParams {
@@ -42,6 +44,7 @@ export interface TraceStep {
   kind: string;
   article: string;
   note?: string;
+  part?: 'span-length' | 'skew';
 }
 
 export interface LanePlacement {
@@ -66,6 +69,8 @@ export interface ExpectedAnswer {
   lanes?: string;
   loadedLanes?: number;
   location?: string;
+  /** Factor questions: whether the value has the skew correction in it ('none': there is none at that place). */
+  skew?: 'none' | 'with' | 'before';
   placement?: { lanes: LanePlacement[] };
   wheelLines?: [number, number][];
   roadway?: Roadway;

@@ -3,7 +3,9 @@
  * contexts: the instructor makes a "governing truck position" exercise from a saved deck
  * version; the trainee drags the lane on the cross-section sketch, sets the wheels 2 ft from
  * the barrier face, enters the factor and a step, and is graded; the instructor sees the grade;
- * the notices are in the outbox. Before submitting, the trainee sees the deck version's inputs
+ * the notices are in the outbox, and the grade's e-mail says about answers what the page says.
+ * A factor question made in the form says whether the skew correction is in the value and takes
+ * the literal answer to it. Before submitting, the trainee sees the deck version's inputs
  * and lanes but none of its results (screen or API); an exercise opened to all shows its whole
  * trace, every candidate of a governing value included. Screenshots go to tests/e2e/screenshots/.
  */
@@ -38,6 +40,7 @@ describe('training exercise in the browser', () => {
   let trainee: Page;
   let profile: string;
   let exerciseUrl: string;
+  let gradedRule = '';
 
   beforeAll(async () => {
     h = await startHarness({ env: { LOCAL_SMTP_PORT: '0' } });
@@ -84,10 +87,43 @@ describe('training exercise in the browser', () => {
     const expected = Number(await instructor.locator('[data-test="expected-value"]').innerText());
     // Shown with 4 decimals: relative difference below 1e-4.
     expect(Math.abs(expected - LEVER) / LEVER).toBeLessThan(1e-4);
+    // Left without a title, the exercise is titled by its question.
+    expect(await instructor.locator('[data-test="exercise-title"]').innerText()).toBe('The governing position of the design lanes and wheel lines for girder 1 by the lever rule (1 loaded lane), and the factor it gives');
+  });
+
+  it('a factor question says whether the skew correction is in the value, and a literal answer to it passes', async () => {
+    await instructor.goto(h.url('/training/new'));
+    await choose(instructor, 'exercise-project', 'Quarry Creek Overpass');
+    await choose(instructor, 'exercise-deck', DECK_NAME);
+    await instructor.locator('[data-test="exercise-version"]').getByText('Version 1').waitFor();
+    await choose(instructor, 'exercise-question', 'The lever-rule factor for shear of the exterior girder, one lane, before');
+    const skew = instructor.locator('[data-test="exercise-skew"]');
+    expect(await skew.innerText()).toContain('before the skew correction');
+    await numberField(instructor, 'exercise-tolerance').fill('1');
+    await choose(instructor, 'exercise-trainees', 'Theo Brandt');
+    await instructor.keyboard.press('Escape'); // close the trainees' list, which stays open for more choices
+    await h.screenshot('training-01b-new-factor-exercise', instructor);
+    await instructor.locator('[data-test="create-exercise"]').click();
+    await instructor.waitForURL(/\/training\/\d+$/);
+    const question = 'the lever-rule shear factor of the exterior girder (girder 1) with one loaded lane, in span 1, before the skew correction';
+    expect(await instructor.locator('[data-test="exercise-question"]').innerText()).toBe(question);
+    // The product's trace is the lever rule alone: no span length, no skew step (AASHTO LRFD Art. 4.6.2.2.1).
+    expect(await instructor.locator('[data-test="expected-answer"] li').count()).toBe(1);
+    const url = instructor.url();
+
+    await signIn(trainee, h.baseUrl, DEMO_USERS.trainee);
+    await trainee.goto(url);
+    expect(await trainee.locator('[data-test="exercise-question"]').innerText()).toBe(question);
+    // The literal lever-rule answer (hand calculation: 1.2 · ½ (1 + (S − 6)/S) = 0.828).
+    await numberField(trainee, 'answer-value').fill('0.828');
+    await trainee.locator('[data-test="submit-answer"]').click();
+    await trainee.locator('[data-test="grade-banner"]').waitFor();
+    expect(await trainee.locator('[data-test="grade-banner"]').innerText()).toContain('Within tolerance');
+    expect(await trainee.locator('[data-test="trace-comparison"]').innerText()).not.toMatch(/L for shear/);
+    await h.screenshot('training-01c-factor-graded', trainee);
   });
 
   it('before submitting, the trainee sees the deck and its lanes but no result of its version, on screen or through the API', async () => {
-    await signIn(trainee, h.baseUrl, DEMO_USERS.trainee);
     await trainee.goto(exerciseUrl);
     await trainee.locator('[data-test="placement-sketch"]').waitFor();
     expect(await trainee.locator('[data-test="expected-answer"]').count()).toBe(0);
@@ -135,6 +171,7 @@ describe('training exercise in the browser', () => {
     await wheel.press('Tab');
     await expect.poll(async () => Number(await wheel.inputValue())).toBeCloseTo(2, 3);
 
+    expect(await trainee.locator('[data-test="answer-rule"]').innerText()).toMatch(/^You submit once: /);
     await numberField(trainee, 'answer-value').fill(LEVER.toFixed(3));
     await trainee.locator('[data-test="add-step"]').click();
     await trainee.locator('[data-test="step-label-0"]').fill('Lane share, outer wheel over girder 1');
@@ -144,6 +181,9 @@ describe('training exercise in the browser', () => {
     const banner = trainee.locator('[data-test="grade-banner"]');
     await banner.waitFor();
     expect(await banner.innerText()).toContain('Within tolerance');
+    // What the page says about answers once graded; the e-mail must say the same (checked in the outbox below).
+    gradedRule = (await trainee.locator('[data-test="answer-rule"]').innerText()).trim();
+    expect(gradedRule).toMatch(/grade is final/);
     expect(await trainee.locator('[data-test="check-placement"]').innerText()).toContain('within');
     await trainee.locator('[data-test="trace-comparison"] [data-test="step-matched"]').first().waitFor();
     await h.screenshot('training-03-graded', trainee);
@@ -206,11 +246,21 @@ describe('training exercise in the browser', () => {
         },
         { timeout: 20_000, interval: 500 },
       )
-      .toBeGreaterThanOrEqual(2);
+      .toBeGreaterThanOrEqual(4);
     const text = await outbox.innerText();
-    expect(text).toContain('New exercise: The governing truck position for the exterior girder');
-    expect(text).toContain('Passed: The governing truck position for the exterior girder');
+    expect(text).toContain('New exercise: The governing position of the design lanes and wheel lines for girder 1');
+    expect(text).toContain('Within tolerance: The governing position of the design lanes and wheel lines for girder 1');
     expect(text).toContain(DEMO_USERS.trainee);
+    expect(text).not.toMatch(/attempt|Not yet/i);
+    // The grade's e-mail says about answers what the exercise page said.
+    const body = await instructor.evaluate(async () => {
+      const list = await (await fetch('/api/mail/outbox?kind=submission-graded')).json();
+      const one = await (await fetch(`/api/mail/outbox/${list.messages.find((m: { subject: string }) => m.subject.includes('wheel lines')).id}`)).json();
+      return one.message.text as string;
+    });
+    expect(gradedRule.length).toBeGreaterThan(20);
+    expect(body.replace(/\s+/g, ' ')).toContain(gradedRule.replace(/\s+/g, ' '));
+    expect(body).not.toMatch(/attempt|Not yet/i);
     expect(h.pageErrors.filter((e) => !/status of 401/.test(e))).toEqual([]);
   });
 });

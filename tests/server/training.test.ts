@@ -5,6 +5,7 @@ import { eq } from 'drizzle-orm';
 import { assignments, submissions } from '../../server/db/schema.js';
 import { fromUs } from '../../shared/units.js';
 import { quarryCreekDeck, quarryCreekUs } from '../fixtures/decks.js';
+import { gradeHeadline, oneAnswerWords } from '../../shared/training/answerWords.js';
 import { demo, signIn, type Agent } from './helpers.js';
 import { addUser, makeWorkflowApp, otherFirm, outbox, send, userId, type WorkflowContext } from './workflowHelpers.js';
 
@@ -57,7 +58,7 @@ describe('factor exercises', () => {
     const adopted = codeRows.find((r) => r.girderKind === 'exterior' && r.effect === 'moment' && r.lanes === 'multiple' && r.adopted)!;
     expect(exercise.expected.rowId).toBe(adopted.id);
     expect(exercise.expected.value).toBe(adopted.value);
-    expect((exercise as unknown as { question: string }).question).toBe('the governing moment factor of the exterior girder for two or more loaded lanes (span 1)');
+    expect((exercise as unknown as { question: string }).question).toBe('the governing moment factor of the exterior girder with two or more loaded lanes, in span 1, skew correction included');
     const mail = (await outbox(ctx)).filter((m) => m.kind === 'assignment-given');
     expect(mail).toHaveLength(1);
     expect(mail[0].toAddresses).toBe(demo.trainee);
@@ -87,7 +88,7 @@ describe('factor exercises', () => {
 
     const graded = (await outbox(ctx)).filter((m) => m.kind === 'submission-graded');
     expect(graded).toHaveLength(1);
-    expect(graded[0].subject).toMatch(/^Passed: /);
+    expect(graded[0].subject).toBe(`${gradeHeadline(true)}: ${(exercise as unknown as { title: string }).title}`);
     const again = await send.post(trainee, `/api/training/mine/${exercise.id}/submissions`, { value: v });
     expect(again.status).toBe(409);
     expect(() => ctx.db.update(submissions).set({ passed: false }).run()).toThrow(/cannot be changed/);
@@ -101,7 +102,7 @@ describe('factor exercises', () => {
     expect(res.body.submission.passed).toBe(false);
     expect(res.body.submission.grading.checks[0].differencePercent).toBeRelativelyClose(10, 1e-6);
     expect(res.body.submission.grading.stepMatches.at(-1).traineeStep).toBeNull();
-    expect((await outbox(ctx)).filter((m) => m.kind === 'submission-graded').at(-1)!.subject).toMatch(/^Not yet: /);
+    expect((await outbox(ctx)).filter((m) => m.kind === 'submission-graded').at(-1)!.subject).toMatch(/^Outside the tolerance: /);
 
     const view = await instructor.get(`/api/training/assignments/${exercise.id}`);
     expect(view.body.assignment.submissions.map((s: { trainee: { name: string }; passed: boolean }) => [s.trainee.name, s.passed])).toEqual([
@@ -127,6 +128,48 @@ describe('factor exercises', () => {
     const skew = 1 + 0.2 * ((12 * L * u.slab.thickness ** 3) / Kg) ** 0.3 * Math.tan((u.supports[0].skew * Math.PI) / 180);
     expect(skew).toBeRelativelyClose(1.0516, 1e-4);
     expect(ex.expected.value).toBeRelativelyClose(LEVER_ONE_LANE * skew, 1e-6);
+  });
+
+  it('the e-mail says about answers what the page says: one answer, graded at once, final — no attempts, no "not yet"', async () => {
+    // The page shows oneAnswerWords('to answer') above the submit button and oneAnswerWords('graded')
+    // under the grade (src/views/TrainingExerciseView.vue); the e-mail carries the second and the grade's headline.
+    expect(oneAnswerWords('to answer')).toMatch(/^You submit once: /);
+    const ex = await makeExercise({ kind: 'factor', params: { girder: 'interior', effect: 'shear', lanes: 'one', method: 'formula', skew: 'before' } });
+    const res = await send.post(trainee, `/api/training/mine/${ex.id}/submissions`, { value: ex.expected.value * 1.2 });
+    expect(res.body.submission.passed).toBe(false);
+    const mail = (await outbox(ctx)).filter((m) => m.kind === 'submission-graded').at(-1)!;
+    expect(mail.subject).toBe(`${gradeHeadline(false)}: ${ex.title}`);
+    expect(mail.textBody).toContain(oneAnswerWords('graded'));
+    expect(mail.textBody).toContain(`has been graded: ${gradeHeadline(false).toLowerCase()}.`);
+    for (const text of [mail.subject, mail.textBody]) {
+      expect(text).not.toMatch(/attempt/i);
+      expect(text).not.toMatch(/not yet|try again|resubmit/i);
+    }
+    // And indeed a second answer is refused.
+    expect((await send.post(trainee, `/api/training/mine/${ex.id}/submissions`, { value: ex.expected.value })).status).toBe(409);
+  });
+
+  it('the user’s case: the lever-rule shear factor asked before the skew correction takes the literal 0.828 and never names L', async () => {
+    const ex = await makeExercise({ kind: 'factor', params: { girder: 'exterior', effect: 'shear', lanes: 'one', method: 'lever-rule', skew: 'before' } });
+    expect(ex.question).toBe('the lever-rule shear factor of the exterior girder (girder 1) with one loaded lane, in span 1, before the skew correction');
+    // Without a title the exercise is titled by its question.
+    expect(ex.title).toBe('The lever-rule shear factor of the exterior girder (girder 1) with one loaded lane, in span 1, before the skew correction');
+    const row = codeRows.find((r) => r.id === 'exterior/shear/span1/one/lever-rule/g1')! as (typeof codeRows)[number] & { baseValue: number };
+    expect(ex.expected.value).toBe(row.baseValue);
+    expect(ex.expected.value).toBeRelativelyClose(LEVER_ONE_LANE, 1e-6);
+    const res = await send.post(trainee, `/api/training/mine/${ex.id}/submissions`, { value: 0.828, steps: [{ label: 'inner wheel ordinate', value: 0.38 }] });
+    expect(res.body.submission.passed).toBe(true);
+    const labels = res.body.submission.grading.stepMatches.map((m: { label: string }) => m.label);
+    expect(labels).toEqual(['Lever rule, girder 1, 1 loaded lane']);
+    expect(res.body.submission.grading.summary).not.toMatch(/L for shear/);
+  });
+
+  it('refuses a governing value before the skew correction, naming params.skew', async () => {
+    const res = await send.post(instructor, '/api/training/assignments', { versionId, tolerancePercent: 1, dueAt: due(), traineeIds: [traineeId()], kind: 'factor', params: { girder: 'exterior', effect: 'shear', lanes: 'governing', method: 'governing', skew: 'before' } });
+    expect(res.status).toBe(400);
+    expect(res.body.error.details[0].path).toBe('body.params.skew');
+    const bad = await send.post(instructor, '/api/training/assignments', { versionId, tolerancePercent: 1, dueAt: due(), traineeIds: [traineeId()], kind: 'factor', params: { girder: 'exterior', effect: 'shear', lanes: 'one', method: 'lever-rule', skew: 'after' } });
+    expect(bad.body.error.details[0]).toEqual({ path: 'body.params.skew', message: 'skew must be "with" or "before"' });
   });
 
   it('marks a submission after the due date as late', async () => {

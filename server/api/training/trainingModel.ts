@@ -2,8 +2,9 @@
  * Training exercises: what an instructor may ask about a deck version, and what a trainee
  * sends back. Two kinds of question:
  * - 'factor': one code-method distribution factor, named by girder (interior or exterior),
- *   effect, lane case and method — e.g. "the governing moment factor of the exterior girder
- *   for two or more lanes", "the lever-rule factor for shear";
+ *   effect, lane case, method, place and — on a skewed deck — with or before the skew
+ *   correction, e.g. "the lever-rule shear factor of the exterior girder (girder 1) with one
+ *   loaded lane, in span 1, before the skew correction";
  * - 'truck-position': the governing transverse position of the design lanes and wheel lines
  *   for one girder on its lever-rule or rigid-section line — the trainee gives the placement
  *   (lane edges and wheel offsets, m) and the factor it produces.
@@ -29,6 +30,11 @@ export const factorParams = z.strictObject({
   method: z.enum(FACTOR_METHODS, { error: `method must be one of ${FACTOR_METHODS.join(', ')}` }),
   /** Location key of the code result ("span1", "support2", "deck"); default the first for the effect. */
   location: z.string().trim().regex(/^(span|support)\d{1,2}$|^deck$/, 'location must be like "span1", "support2" or "deck"').optional(),
+  /**
+   * Where the place has a skew correction (Art. 4.6.2.2.2e, 4.6.2.2.3c): 'with' (default) asks
+   * for the value with it, 'before' for the value before it; the question says which.
+   */
+  skew: z.enum(['with', 'before'], { error: 'skew must be "with" or "before"' }).optional(),
 });
 
 export const truckPositionParams = z.strictObject({
@@ -119,9 +125,15 @@ export const QUESTION_PRESETS = [
   },
   {
     id: 'lever-rule-shear',
-    title: 'The lever-rule factor for shear of the exterior girder, one lane',
+    title: 'The lever-rule factor for shear of the exterior girder, one lane, before the skew correction',
     kind: 'factor' as const,
-    params: { girder: 'exterior', effect: 'shear', lanes: 'one', method: 'lever-rule' } satisfies FactorParams,
+    params: { girder: 'exterior', effect: 'shear', lanes: 'one', method: 'lever-rule', skew: 'before' } satisfies FactorParams,
+  },
+  {
+    id: 'lever-rule-shear-skewed',
+    title: 'The lever-rule factor for shear of the exterior girder, one lane, skew correction included',
+    kind: 'factor' as const,
+    params: { girder: 'exterior', effect: 'shear', lanes: 'one', method: 'lever-rule', skew: 'with' } satisfies FactorParams,
   },
   {
     id: 'exterior-shear-governing',

@@ -2,7 +2,10 @@
  * The product's answer to a training question, and the grading of a trainee's answer.
  *
  * - 'factor': the row of the code-method result (shared/lrfd computeCodeFactors) asked for,
- *   with its trace and article; graded by relative difference |v − v*| / |v*| ≤ tolerance.
+ *   its value with or before the skew correction, the steps of that quantity only
+ *   (shared/lrfd/quantity.ts) and its article; the question is worded from the same row, so a
+ *   literal answer to it is the graded value; graded by relative difference
+ *   |v − v*| / |v*| ≤ tolerance. A trainee's step matches a trace step of equal value.
  * - 'truck-position': the governing placement on the girder's lever-rule or rigid-section
  *   transverse line (shared/placement governingTransversePlacement, exact on a piecewise-linear
  *   line; AASHTO LRFD Art. 3.6.1.3.1 wheel limits, Table 3.6.1.1.2-1 multiple presence). The
@@ -14,7 +17,8 @@
  */
 import type { Deck } from '../../../shared/deck/schema.js';
 import { deckGeometry } from '../../../shared/deck/geometry.js';
-import { governingChoice, type Candidate, type CodeFactorResult, type FactorRow } from '../../../shared/lrfd/index.js';
+import { canLeaveOutSkew, governingChoice, rowQuantity, rowSkew, type Candidate, type CodeFactorResult, type FactorRow } from '../../../shared/lrfd/index.js';
+import { EFFECT_LABELS, METHOD_LABELS } from '../../../shared/lrfd/words.js';
 import type { TraceStep } from '../../../shared/trace.js';
 import { checkPlacement, evaluateTransverse, governingTransversePlacement, leverRuleLine, placementRulesForDeck, rigidSectionLine, wheelLines, type Placement } from '../../../shared/placement/index.js';
 import { ApiError } from '../../middleware/errors.js';
@@ -36,36 +40,66 @@ export interface ExpectedAnswer {
   lanes?: string;
   loadedLanes?: number;
   location?: string;
+  /** Factor questions: whether the value has the skew correction in it ('none': there is none at this place). */
+  skew?: SkewInQuestion;
   /** Truck-position questions: the governing placement, its wheel lines (m) and the roadway. */
   placement?: Placement;
   wheelLines?: [number, number][];
   roadway?: { curbLeft: number; curbRight: number; laneWidth: number; laneCount: number; girderOffsets: number[] };
 }
 
-const EFFECT_WORDS: Record<string, string> = {
-  moment: 'moment',
-  'negative-moment': 'negative moment',
-  shear: 'shear',
-  reaction: 'reaction',
-  'fatigue-moment': 'fatigue moment',
-  'fatigue-shear': 'fatigue shear',
-  deflection: 'deflection',
-};
-const METHOD_WORDS: Record<string, string> = {
-  governing: 'governing',
-  formula: 'empirical-formula',
-  'lever-rule': 'lever-rule',
-  'rigid-section': 'rigid-section',
-  'equal-share': 'equal-share',
-};
+/** Where a factor's skew correction stands in the question: absent (no correction at this place), included, or left out. */
+export type SkewInQuestion = 'none' | 'with' | 'before';
 
-export function factorQuestion(p: FactorParams, locationText: string): string {
-  const lanes = p.lanes === 'one' ? 'one loaded lane' : p.lanes === 'multiple' ? 'two or more loaded lanes' : 'the governing lane case';
-  const what = p.method === 'governing' ? `the governing ${EFFECT_WORDS[p.effect]} factor` : `the ${METHOD_WORDS[p.method]} ${EFFECT_WORDS[p.effect]} factor`;
-  return `${what} of the ${p.girder} girder for ${lanes} (${locationText})`;
+/** "lever-rule" from "lever rule": the method as an adjective in a question (words of shared/lrfd/words.ts). */
+const methodAdjective = (method: string) => (METHOD_LABELS[method] ?? method).replace(/ /g, '-');
+
+function girderWords(p: FactorParams, row: FactorRow | undefined): string {
+  if (p.method !== 'governing' && row?.girderNumber !== undefined) return `the ${p.girder} girder (girder ${row.girderNumber})`;
+  if (p.method === 'governing' && typeof row?.girder === 'number') return `the ${p.girder} girders (the larger of the two)`;
+  return `the ${p.girder} girder`;
 }
 
-const paramsError = (message: string) => ApiError.badRequest(`params: ${message}`, [{ path: 'body.params', message }]);
+/**
+ * The lane case the value stands for: one lane, two or more (the count that governs, for the
+ * methods that try each count), the larger of the two, or all lanes. `cases`: the lane cases
+ * in which the question's method has a value at that place (a "larger of the two" with one
+ * case to pick from names that case).
+ */
+function laneWords(p: FactorParams, row: FactorRow | undefined, designLanes: number, cases: readonly string[]): string {
+  if (row?.method === 'equal-share') return `all ${designLanes} design lanes loaded`;
+  if (p.effect === 'fatigue-moment' || p.effect === 'fatigue-shear') return 'one loaded lane, multiple presence removed';
+  const lanes = p.lanes === 'governing' && cases.length === 1 ? cases[0] : p.lanes;
+  if (lanes === 'one') return p.lanes === 'governing' && designLanes < 2 ? 'one loaded lane (the roadway holds one design lane)' : 'one loaded lane';
+  const countsTried = p.method === 'lever-rule' || p.method === 'rigid-section';
+  if (lanes === 'multiple') {
+    if (countsTried) return designLanes === 2 ? 'two loaded lanes' : 'two or more loaded lanes (the number of lanes that gives the largest factor)';
+    return 'two or more loaded lanes';
+  }
+  return 'one loaded lane or two or more, whichever gives the larger factor';
+}
+
+function placeWords(location: FactorRow['location'] | undefined, key: string | undefined): string {
+  if (!location) return `at ${key ?? 'the first place of the effect'}`;
+  if (location.span !== undefined) return `in ${location.description}`;
+  if (location.support !== undefined) return `at ${location.description}`;
+  return `for the ${location.description}`;
+}
+
+const SKEW_WORDS: Record<SkewInQuestion, string> = { none: '', with: ', skew correction included', before: ', before the skew correction' };
+
+/**
+ * The question in words, naming all that is graded: method, girder, effect, lane case, place
+ * and whether the skew correction is in the value, e.g. "the lever-rule shear factor of the
+ * exterior girder (girder 1) with one loaded lane, in span 1, before the skew correction".
+ */
+export function factorQuestion(p: FactorParams, code: Pick<CodeFactorResult, 'derived' | 'factors'>, row: FactorRow | undefined, skew: SkewInQuestion, location = row?.location): string {
+  const what = `the ${p.method === 'governing' ? 'governing' : methodAdjective(p.method)} ${EFFECT_LABELS[p.effect]} factor`;
+  const cases = [...new Set(code.factors.filter((r) => r.girderKind === p.girder && r.effect === p.effect && r.location.key === location?.key && (p.method === 'governing' || r.method === p.method)).map((r) => r.lanes))];
+  return `${what} of ${girderWords(p, row)} with ${laneWords(p, row, code.derived.designLanes, cases)}, ${placeWords(location, p.location)}${SKEW_WORDS[skew]}`;
+}
+
+const paramsError = (message: string, field?: string) => ApiError.badRequest(`params${field ? `.${field}` : ''}: ${message}`, [{ path: `body.params${field ? `.${field}` : ''}`, message }]);
 
 function pickRow(code: CodeFactorResult, p: FactorParams): FactorRow | undefined {
   const ofEffect = code.factors.filter((r) => r.girderKind === p.girder && r.effect === p.effect);
@@ -74,30 +108,60 @@ function pickRow(code: CodeFactorResult, p: FactorParams): FactorRow | undefined
   const inCase = p.lanes === 'governing' ? rows : rows.filter((r) => r.lanes === p.lanes);
   if (p.method === 'governing') return p.lanes === 'governing' ? rows.find((r) => r.governing) : inCase.find((r) => r.adopted);
   const byMethod = inCase.filter((r) => r.method === p.method);
-  return byMethod.length ? byMethod.reduce((a, b) => (b.value > a.value ? b : a)) : undefined;
+  // The largest of the method's values (exterior girders of an unsymmetric deck, lane cases), as asked: with or before the skew correction.
+  const asked = (r: FactorRow) => (p.skew === 'before' ? r.baseValue : r.value);
+  return byMethod.length ? byMethod.reduce((a, b) => (asked(b) > asked(a) ? b : a)) : undefined;
 }
 
+function missingRow(code: CodeFactorResult, p: FactorParams): ApiError {
+  const locations = [...new Set(code.factors.filter((r) => r.girderKind === p.girder && r.effect === p.effect).map((r) => r.location.key))];
+  if (locations.length === 0) return paramsError(`this deck version has no ${EFFECT_LABELS[p.effect]} factor for the ${p.girder} girder`);
+  if (p.location && !locations.includes(p.location)) return paramsError(`no ${EFFECT_LABELS[p.effect]} factor at ${p.location}: choose one of ${locations.join(', ')}`);
+  const place = code.factors.find((r) => r.location.key === (p.location ?? locations[0]))?.location;
+  return paramsError(`this deck version has no value for ${factorQuestion(p, code, undefined, 'none', place)}: the code does not use that method for that case here`);
+}
+
+/** Whether the question's value has the skew correction in it; refuses "before" where no such value exists. */
+function skewInQuestion(p: FactorParams, row: FactorRow, scope: FactorRow[]): SkewInQuestion {
+  const asked = p.skew ?? 'with';
+  if (p.method === 'governing') {
+    if (asked === 'before') throw paramsError('a governing value is chosen among values with their skew corrections: ask for it with the skew correction, or ask for one method’s factor before the correction', 'skew');
+    return scope.some((r) => rowSkew(r) !== 'none') ? 'with' : 'none';
+  }
+  const where = rowSkew(row);
+  if (where === 'none') return 'none';
+  if (asked === 'before' && !canLeaveOutSkew(row)) {
+    throw paramsError(`the ${EFFECT_LABELS[p.effect]} factor starts from the adopted one-lane factor with its skew correction: ask for it with the skew correction`, 'skew');
+  }
+  return asked;
+}
+
+/**
+ * The product's answer to a factor question: the row asked for, its value with or before the
+ * skew correction, and only the steps that value rests on (shared/lrfd/quantity.ts); a
+ * governing value ends with the step that picks it among every candidate (shared/lrfd/choice.ts).
+ */
 export function expectedFactor(code: CodeFactorResult, p: FactorParams): ExpectedAnswer {
   const row = pickRow(code, p);
-  if (!row) {
-    const locations = [...new Set(code.factors.filter((r) => r.girderKind === p.girder && r.effect === p.effect).map((r) => r.location.key))];
-    if (locations.length === 0) throw paramsError(`this deck version has no ${EFFECT_WORDS[p.effect]} factor for the ${p.girder} girder`);
-    if (p.location && !locations.includes(p.location)) throw paramsError(`no ${EFFECT_WORDS[p.effect]} factor at ${p.location}: choose one of ${locations.join(', ')}`);
-    throw paramsError(`this deck version has no ${factorQuestion(p, p.location ?? locations[0])}: the code does not use that method for that case here`);
-  }
+  if (!row) throw missingRow(code, p);
+  const scope = code.factors.filter((r) => r.girderKind === p.girder && r.effect === p.effect && r.location.key === row.location.key);
+  const skew = skewInQuestion(p, row, scope);
+  const quantity = rowQuantity(row, skew === 'before' ? 'before' : 'with');
   // A governing value is the pick among candidates: show them all and the rule that picked it.
   const choice = p.method === 'governing' ? governingChoice(code.factors, { girder: p.girder, effect: p.effect, locationKey: row.location.key }, p.lanes) : null;
+  const withChoice = choice !== null && choice.candidates.length > 1;
   return {
-    question: factorQuestion(p, row.location.description),
-    value: row.value,
+    question: factorQuestion(p, code, row, skew),
+    value: quantity.value,
     article: factorArticle(row),
-    trace: choice && choice.candidates.length > 1 ? [...row.trace, choice.step] : row.trace,
-    ...(choice && choice.candidates.length > 1 ? { candidates: choice.candidates } : {}),
+    trace: withChoice ? [...quantity.trace, choice.step] : quantity.trace,
+    ...(withChoice ? { candidates: choice.candidates } : {}),
     rowId: row.id,
     method: row.method,
     lanes: row.lanes,
     ...(row.loadedLanes !== undefined ? { loadedLanes: row.loadedLanes } : {}),
     location: row.location.description,
+    skew,
   };
 }
 
@@ -205,7 +269,9 @@ export function grade(deck: Deck, kind: string, params: unknown, expected: Expec
   const last = expected.trace.length - 1;
   const stepMatches = expected.trace.map((s, i) => {
     const j = body.steps.findIndex((t) => t.value !== undefined && relDiff(t.value, s.value) <= tolerancePercent + 1e-9);
-    const byValue = i === last && relDiff(body.value, s.value) <= tolerancePercent + 1e-9;
+    // A step that computes the answer itself (the last, or one with the answer's value) is reached by the final value.
+    const computesAnswer = i === last || relDiff(s.value, expected.value) <= 1e-9;
+    const byValue = computesAnswer && relDiff(body.value, s.value) <= tolerancePercent + 1e-9;
     return { traceIndex: i, label: s.label, productValue: s.value, traineeStep: j >= 0 ? j : byValue ? body.steps.length : null };
   });
   const passed = violations.length === 0 && checks.every((c) => c.passed);

@@ -1,16 +1,18 @@
 /**
  * Training exercises made from deck versions. An instructor asks a question about one saved
  * version, assigns it to trainees of the firm with a due date and a tolerance; the product's
- * answer (value and trace) is frozen when the exercise is made. A trainee submits once: the
- * answer is graded at once against the frozen answer, the trainee is e-mailed, and from then
- * on sees their steps beside the product's trace. Submissions after the due date are accepted
+ * answer (value and the steps of the quantity asked for) is frozen when the exercise is made.
+ * A trainee submits once: the answer is graded at once against the frozen answer and the
+ * grade is final; the trainee is e-mailed in the words of the exercise page
+ * (shared/training/answerWords.ts), and from then on sees their steps beside the trace. Submissions after the due date are accepted
  * and marked late. Submissions are append-only (database triggers). The instructor may open an
  * exercise to all: from then on every trainee sees the answer and the version's results, and
  * the exercise takes no more answers.
  */
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../../db/client.js';
-import { assignments, assignmentTrainees, submissions, userRoles, users, type AssignmentRow, type SubmissionRow } from '../../db/schema.js';
+import { assignments, assignmentTrainees, submissions, userRoles, users, type AssignmentRow, type DeckVersionRow, type SubmissionRow } from '../../db/schema.js';
+import { computeCodeFactors, hasTraceParts, withTraceParts, type CodeFactorResult } from '../../../shared/lrfd/index.js';
 import { ApiError } from '../../middleware/errors.js';
 import { recordAudit } from '../audit/auditService.js';
 import type { Mailer } from '../../mail/mailer.js';
@@ -116,6 +118,18 @@ function exerciseLink(publicUrl: string, id: number) {
   return `${publicUrl.replace(/\/$/, '')}/training/${id}`;
 }
 
+/**
+ * The version's code results with the parts of every row's trace (span length, skew), which a
+ * factor question needs to keep only the steps of its quantity: results stored before the
+ * solver recorded the parts take them from a fresh computation where the rows agree
+ * (shared/lrfd/quantity.ts withTraceParts).
+ */
+function codeRowsWithParts(db: Db, v: DeckVersionRow): CodeFactorResult {
+  const { result } = codeResultsOf(db, v);
+  if (hasTraceParts(result)) return result;
+  return withTraceParts(result, computeCodeFactors(deckOf(v)));
+}
+
 export function listTrainees(db: Db, firmId: number) {
   return db
     .select({ id: users.id, name: users.name, email: users.email })
@@ -133,7 +147,7 @@ export function createAssignment(deps: TrainingDeps, actor: Actor, body: Assignm
   if (new Date(body.dueAt) <= new Date()) throw ApiError.badRequest('dueAt: the due date must be in the future', [{ path: 'body.dueAt', message: 'the due date must be in the future' }]);
   const ids = [...new Set(body.traineeIds)];
   const trainees = checkTrainees(db, actor.firmId, ids);
-  const expected = body.kind === 'factor' ? expectedFactor(codeResultsOf(db, row.v).result, body.params) : expectedTruckPosition(deckOf(row.v), body.params);
+  const expected = body.kind === 'factor' ? expectedFactor(codeRowsWithParts(db, row.v), body.params) : expectedTruckPosition(deckOf(row.v), body.params);
   const title = body.title?.trim() || expected.question.charAt(0).toUpperCase() + expected.question.slice(1);
   const dueAt = new Date(body.dueAt).toISOString();
   const a = db.transaction((tx) => {
@@ -298,6 +312,6 @@ export function submitAnswer(deps: TrainingDeps, actor: Actor, assignmentId: num
     return s;
   });
   const me = userName(db, actor.id);
-  deps.mailer.queue(submissionGradedMessage({ firmId: actor.firmId, to: { name: me.name, email: me.email }, title: a.title, attempt: 1, passed: grading.passed, summary: grading.summary, link: exerciseLink(deps.publicUrl, a.id) }));
+  deps.mailer.queue(submissionGradedMessage({ firmId: actor.firmId, to: { name: me.name, email: me.email }, title: a.title, passed: grading.passed, summary: grading.summary, link: exerciseLink(deps.publicUrl, a.id) }));
   return { submission: presentSubmission(db, s), exercise: traineeView(db, actor, a.id) };
 }
