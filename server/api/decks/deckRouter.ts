@@ -17,7 +17,10 @@ export function projectDecksRouter(db: Db, config: StorageConfig): Router {
     res.json({ decks: listDecks(db, req.user!.firmId, res.locals.params.projectId) });
   });
   r.post('/', allow('deck:save'), validate({ params: idParams('projectId'), body: deckCreateBody }), (req, res) => {
-    res.status(201).json(createDeck(db, req.user!, res.locals.params.projectId, res.locals.body, policyOf(config)));
+    // the raw body tells whether the deck named its design values (the parsed one has the default)
+    const raw = (req.body as { deck?: { designValues?: unknown } } | undefined)?.deck;
+    const designValuesGiven = typeof raw === 'object' && raw !== null && raw.designValues !== undefined;
+    res.status(201).json(createDeck(db, req.user!, res.locals.params.projectId, res.locals.body, policyOf(config), { designValuesGiven }));
   });
   return r;
 }

@@ -194,9 +194,15 @@ function insertVersion(tx: Tx, deckId: number, actor: Actor, input: SaveInput, s
   return v;
 }
 
-export function createDeck(db: Db, actor: Actor, projectId: number, input: SaveInput, policy: StoragePolicy = defaultPolicy) {
+/**
+ * Creates a deck and its first version. `designValuesGiven: false` (the request's deck did not
+ * name its design values): the deck takes its project's, the SI edition's in an SI project
+ * (shared/loads/designValues.ts); the field is then written on the version like any other.
+ */
+export function createDeck(db: Db, actor: Actor, projectId: number, given: SaveInput, policy: StoragePolicy = defaultPolicy, options: { designValuesGiven?: boolean } = {}) {
   const project = findProject(db, actor.firmId, projectId);
   if (project.archived) throw ApiError.conflict('the project is archived: restore it before adding decks');
+  const input: SaveInput = options.designValuesGiven === false && project.units === 'SI' ? { ...given, deck: { ...given.deck, designValues: 'si-edition' } } : given;
   const save = encodeSave(input, computeStoredResults(input.deck));
   const { d, v } = db.transaction((tx) => {
     assertWithinQuota(tx, actor.firmId, policy.firmQuotaBytes, save.bytes);
