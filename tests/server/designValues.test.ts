@@ -1,9 +1,10 @@
 /**
  * A deck's design values through the API (deck field designValues, shared/loads/designValues.ts):
- * a deck created in an SI project without the field takes the SI edition's values (AASHTO LRFD
- * (SI) Art. 3.6.1.1.1: 3.6 m design lanes), one in a US customary project the converted US
- * customary ones (12 ft lanes, Art. 3.6.1.1.1); a deck that names them keeps them; a later
- * save that leaves the field out keeps the deck's, and the stored code results follow them.
+ * a deck that names the SI edition's values is computed with them (AASHTO LRFD (SI)
+ * Art. 3.6.1.1.1: 3.6 m design lanes); one without the field, as every deck stored before it,
+ * with the converted US customary ones (12 ft lanes, Art. 3.6.1.1.1), whatever its project's
+ * units (the workspace names the SI edition's for a new deck of an SI project); a later save
+ * that leaves the field out keeps the deck's; the stored code results follow them.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demo, makeTestApp, signIn, type Agent, type TestContext } from './helpers.js';
@@ -36,10 +37,10 @@ async function storedLaneWidth(deckId: number, number: number): Promise<number> 
 }
 
 describe('design values of a deck through the API', () => {
-  it('an SI project: a new deck without the field takes the SI edition values, and a later save without it keeps them', async () => {
+  it('an SI project: a deck naming the SI edition values is computed with them, and a later save without the field keeps them', async () => {
     const id = await project('SI');
     const { designValues: _none, ...deck } = quarryCreekDeck() as Record<string, unknown>;
-    const created = await post(`/api/projects/${id}/decks`, { deck, message: 'first' });
+    const created = await post(`/api/projects/${id}/decks`, { deck: { ...deck, designValues: 'si-edition' }, message: 'first' });
     expect(created.status).toBe(201);
     expect(created.body.version.deck.designValues).toBe('si-edition');
     const deckId = created.body.deck.id;
@@ -58,8 +59,8 @@ describe('design values of a deck through the API', () => {
     expect(created.body.version.deck.designValues).toBe('us-customary');
   });
 
-  it('a US customary project: a new deck without the field keeps the converted US values', async () => {
-    const id = await project('US');
+  it.each(['US', 'SI'] as const)('a %s project: a deck without the field has the converted US values, as a deck stored before it', async (units) => {
+    const id = await project(units);
     const { designValues: _none, ...deck } = quarryCreekDeck() as Record<string, unknown>;
     const created = await post(`/api/projects/${id}/decks`, { deck, message: 'first' });
     expect(created.body.version.deck.designValues).toBe('us-customary');

@@ -23,7 +23,7 @@ export function projectDecksRouter(db: Db, config: StorageConfig): Router {
     res.json({ decks: listDecks(db, req.user!.firmId, res.locals.params.projectId) });
   });
   r.post('/', allow('deck:save'), validate({ params: idParams('projectId'), body: deckCreateBody }), (req, res) => {
-    res.status(201).json(createDeck(db, req.user!, res.locals.params.projectId, res.locals.body, policyOf(config), { designValuesGiven: designValuesGiven(req.body) }));
+    res.status(201).json(createDeck(db, req.user!, res.locals.params.projectId, res.locals.body, policyOf(config)));
   });
   return r;
 }

@@ -195,14 +195,14 @@ function insertVersion(tx: Tx, deckId: number, actor: Actor, input: SaveInput, s
 }
 
 /**
- * Creates a deck and its first version. `designValuesGiven: false` (the request's deck did not
- * name its design values): the deck takes its project's, the SI edition's in an SI project
- * (shared/loads/designValues.ts); the field is then written on the version like any other.
+ * Creates a deck and its first version. A deck that does not name its design values has the
+ * schema's default, the converted US customary ones, as every deck stored before the field
+ * (shared/loads/designValues.ts); the workspace names the SI edition's for a new deck of an SI
+ * project (src/stores/useDeckStore.ts startNew).
  */
-export function createDeck(db: Db, actor: Actor, projectId: number, given: SaveInput, policy: StoragePolicy = defaultPolicy, options: { designValuesGiven?: boolean } = {}) {
+export function createDeck(db: Db, actor: Actor, projectId: number, input: SaveInput, policy: StoragePolicy = defaultPolicy) {
   const project = findProject(db, actor.firmId, projectId);
   if (project.archived) throw ApiError.conflict('the project is archived: restore it before adding decks');
-  const input: SaveInput = options.designValuesGiven === false && project.units === 'SI' ? { ...given, deck: { ...given.deck, designValues: 'si-edition' } } : given;
   const save = encodeSave(input, computeStoredResults(input.deck));
   const { d, v } = db.transaction((tx) => {
     assertWithinQuota(tx, actor.firmId, policy.firmQuotaBytes, save.bytes);
