@@ -9,4 +9,4 @@ export const PRODUCT_VERSION: string = packageVersion;
 
 /** Version of the solver in `shared/`; stored beside every computed result. Raise it when a
  *  change alters any computed number. */
-export const SOLVER_VERSION = '1.2.0';
+export const SOLVER_VERSION = '1.3.0';

@@ -115,7 +115,7 @@ function placementJson(refined: RefinedResult, index: number, units: UnitSystem)
       leftEdge: quantity(l.left, 'length', units),
       rightEdge: quantity(l.left + refined.designLaneWidth, 'length', units),
       wheelOffset: quantity(l.wheelOffset, 'length', units),
-      wheelLines: [quantity(l.left + l.wheelOffset, 'length', units), quantity(l.left + l.wheelOffset + WHEEL_GAUGE, 'length', units)],
+      wheelLines: [quantity(l.left + l.wheelOffset, 'length', units), quantity(l.left + l.wheelOffset + (refined.wheelGauge ?? WHEEL_GAUGE), 'length', units)],
       frontAxleAt: quantity(l.frontAxleAt, 'length', units),
       direction: l.direction,
       axleSpacing: quantity(l.axleSpacing, 'length', units),
@@ -128,9 +128,15 @@ function findingsIn<F extends { message: string }>(findings: readonly F[], units
   return findings.map((f) => ({ ...f, message: showLengths(f.message, units) }));
 }
 
-/** Trace steps with the lengths of their labels and notes in the file's units. */
+/** Trace steps with the lengths of their labels, formulas, input descriptions and notes in the file's units. */
 function traceIn(steps: readonly TraceStep[], units: UnitSystem): TraceStep[] {
-  return steps.map((s) => ({ ...s, label: showLengths(s.label, units), ...(s.note !== undefined ? { note: showLengths(s.note, units) } : {}) }));
+  return steps.map((s) => ({
+    ...s,
+    label: showLengths(s.label, units),
+    formula: showLengths(s.formula, units),
+    inputs: s.inputs.map((i) => (i.description !== undefined ? { ...i, description: showLengths(i.description, units) } : i)),
+    ...(s.note !== undefined ? { note: showLengths(s.note, units) } : {}),
+  }));
 }
 
 export function jsonDocument(result: CodeFactorResult, units: UnitSystem, refined?: RefinedResult) {
@@ -260,7 +266,7 @@ function refinedText(refined: RefinedResult, units: UnitSystem): string[] {
           `±${f.tolerance.factor.toFixed(3)}`,
           f.vehicle,
           c.placement.lanes.map((l) => `${len(l.left)}–${len(l.left + refined.designLaneWidth)}`).join('; '),
-          c.placement.lanes.map((l) => `${len(l.left + l.wheelOffset)}, ${len(l.left + l.wheelOffset + WHEEL_GAUGE)}`).join('; '),
+          c.placement.lanes.map((l) => `${len(l.left + l.wheelOffset)}, ${len(l.left + l.wheelOffset + (refined.wheelGauge ?? WHEEL_GAUGE))}`).join('; '),
           c.placement.lanes
             .map((l) => `${len(l.frontAxleAt as number)} ${l.direction === 1 ? '→' : '←'}${l.axleSpacing !== undefined ? ` ${len(l.axleSpacing)}` : ''}`)
             .join('; '),

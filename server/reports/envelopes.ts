@@ -10,17 +10,18 @@
  */
 import type { Deck } from '../../shared/deck/schema.js';
 import type { CodeFactorResult, FactorEffect, GirderKind } from '../../shared/lrfd/index.js';
-import { girderLiveLoadEffects, hl93BeamLineEffects, type BeamLineEffects, type GirderLiveLoadEffects } from '../../shared/loads/index.js';
+import { designValuesOf, girderLiveLoadEffects, hl93BeamLineEffects, type BeamLineEffects, type GirderLiveLoadEffects } from '../../shared/loads/index.js';
 
 const beamLineCache = new Map<string, BeamLineEffects>();
 
-/** The per-lane HL-93 envelopes of the deck's beam line (cached by spans and continuity). */
-export function beamLineOf(deck: Pick<Deck, 'spans' | 'continuous'>): BeamLineEffects {
+/** The per-lane HL-93 envelopes of the deck's beam line (cached by spans, continuity and design values). */
+export function beamLineOf(deck: Pick<Deck, 'spans' | 'continuous'> & Partial<Pick<Deck, 'designValues'>>): BeamLineEffects {
   const spans = deck.spans.map((s) => s.length);
-  const key = `${deck.continuous}|${spans.join(',')}`;
+  const values = designValuesOf(deck);
+  const key = `${deck.continuous}|${spans.join(',')}|${values.name}`;
   let bl = beamLineCache.get(key);
   if (!bl) {
-    bl = hl93BeamLineEffects({ spans, continuous: deck.continuous });
+    bl = hl93BeamLineEffects({ spans, continuous: deck.continuous }, { values });
     if (beamLineCache.size > 200) beamLineCache.clear();
     beamLineCache.set(key, bl);
   }
@@ -28,7 +29,7 @@ export function beamLineOf(deck: Pick<Deck, 'spans' | 'continuous'>): BeamLineEf
 }
 
 /** Largest per-lane LL+IM positive moment in span `span` (0-based), N·m. */
-export function perLaneMaxMoment(deck: Pick<Deck, 'spans' | 'continuous'>, span: number): number {
+export function perLaneMaxMoment(deck: Pick<Deck, 'spans' | 'continuous'> & Partial<Pick<Deck, 'designValues'>>, span: number): number {
   const pts = beamLineOf(deck).points.filter((p) => p.span === span);
   return Math.max(...pts.map((p) => p.moment.max.value));
 }

@@ -189,6 +189,16 @@ export const diaphragmSchema = z.strictObject({
 export const REFINED_LOADINGS = ['design-truck', 'hl93'] as const;
 export type RefinedLoading = (typeof REFINED_LOADINGS)[number];
 
+/**
+ * Which edition's design values a deck's live loads and lanes use (deck field `designValues`;
+ * shared/loads/designValues.ts): 'us-customary', the US customary edition's (12 ft lanes,
+ * 8/32/32 kip truck, …; the default, so a stored deck without the field keeps them), or
+ * 'si-edition', the SI edition's own (3.6 m lanes, 35/145/145 kN truck, …). A deck created in
+ * an SI project starts with 'si-edition'.
+ */
+export const DESIGN_VALUE_SETS = ['us-customary', 'si-edition'] as const;
+export type DesignValuesName = (typeof DESIGN_VALUE_SETS)[number];
+
 export const policySchema = z.strictObject({
   /** Art. 2.5.2.7.1: the exterior girder carries no less than an interior girder. */
   exteriorNotLessThanInterior: z.boolean().default(false),
@@ -255,6 +265,8 @@ export const deckSchema = z
      * allowance and the design lane load in every loaded lane (shared/grillage/refinedFactors.ts).
      */
     refinedLoading: z.enum(REFINED_LOADINGS, { error: "refined loading must be 'design-truck' or 'hl93'" }).default('design-truck'),
+    /** The design values of the live loads and lanes (DESIGN_VALUE_SETS above). */
+    designValues: z.enum(DESIGN_VALUE_SETS, { error: "design values must be 'us-customary' or 'si-edition'" }).default('us-customary'),
     policy: policySchema.default({ exteriorNotLessThanInterior: false, leverRuleWithoutMultiplePresence: false, floorAtEqualShare: false, rigidSectionAnyType: false }),
     loadModifiers: loadModifierSchema.default({ ductility: 1, redundancy: 1, importance: 1 }),
   })

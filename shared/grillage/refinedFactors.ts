@@ -71,7 +71,8 @@ import { lengthInText } from '../quantities/inText.js';
 import type { TraceStep } from '../trace.js';
 import { effectLocations, type EffectLocation } from '../lrfd/spanLengths.js';
 import { buildFactorRow, RESULT_CAUTION, type FactorEffect, type FactorRow, type GirderKind } from '../lrfd/factors.js';
-import { DESIGN_TRUCK, FATIGUE_TRUCK } from '../loads/vehicles.js';
+import { citeArticle, designValuesOf, designValuesStep, type DesignValues } from '../loads/designValues.js';
+import type { Vehicle } from '../loads/vehicles.js';
 import { assertLoadingFits, beamLineEffect, loadingWords, strengthLoads, type TargetLoad } from './refinedLoads.js';
 import type { RefinedLoading } from '../deck/schema.js';
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
@@ -226,6 +227,8 @@ export interface RefinedResult {
   girderCount: number;
   designLanes: number;
   designLaneWidth: number;
+  /** Wheel-line spacing of the vehicles, m (the design values' 6 ft or 1800 mm; absent in results stored before it). */
+  wheelGauge?: number;
   layout: GrillageModel['layout'];
   segmentsPerSpan: number;
   mesh: GrillageModel['stats'];
@@ -515,7 +518,7 @@ export function girderMomentPoint(model: GrillageModel, girder: number, span: nu
   return { x: x0 + fraction * (x1 - x0), y };
 }
 
-function girderBeams(model: GrillageModel, continuous: boolean): GirderBeam[] {
+function girderBeams(model: GrillageModel, continuous: boolean, truck: Vehicle): GirderBeam[] {
   const mesh = model.mesh;
   const N = model.spanCount;
   const cache = new Map<string, Omit<GirderBeam, 'y' | 'xsup'>>();
@@ -528,7 +531,7 @@ function girderBeams(model: GrillageModel, continuous: boolean): GirderBeam[] {
     if (!entry) {
       const beam: BeamModel = { spans, continuous };
       const starts = spans.map((_, j) => spans.slice(0, j).reduce((a, b) => a + b, 0));
-      entry = { beam, starts, fractions: spans.map((L, s) => governingTenthPoint(beam, starts[s], L)) };
+      entry = { beam, starts, fractions: spans.map((L, s) => governingTenthPoint(beam, starts[s], L, truck)) };
       cache.set(key, entry);
     }
     return { ...entry, y, xsup };
@@ -536,9 +539,9 @@ function girderBeams(model: GrillageModel, continuous: boolean): GirderBeam[] {
 }
 
 /** The tenth point of a span with the largest one-lane truck moment; ties (1e-9) go to the point nearest midspan. */
-function governingTenthPoint(beam: BeamModel, start: number, L: number): number {
+function governingTenthPoint(beam: BeamModel, start: number, L: number, truck: Vehicle): number {
   const tenth = Array.from({ length: 9 }, (_, k) => (k + 1) / 10);
-  const v = tenth.map((f) => maxVehicleEffect(influenceLine(beam, { kind: 'moment', x: start + f * L }), DESIGN_TRUCK, 'positive').value);
+  const v = tenth.map((f) => maxVehicleEffect(influenceLine(beam, { kind: 'moment', x: start + f * L }), truck, 'positive').value);
   const top = Math.max(...v);
   let bestF = 0.5;
   let bestD = Infinity;
@@ -552,15 +555,15 @@ function governingTenthPoint(beam: BeamModel, start: number, L: number): number 
 }
 
 /** Step 2. The responses to compute surfaces for, and the factors (targets) read from them. */
-function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly RefinedEffect[]): { responses: GrillageResponse[]; targets: Target[]; momentPoints: { x: number; y: number }[] } {
+function refinedTargets(deck: Deck, beams: GirderBeam[], effects: readonly RefinedEffect[], values: DesignValues): { responses: GrillageResponse[]; targets: Target[]; momentPoints: { x: number; y: number }[] } {
   const responses: GrillageResponse[] = [];
   const targets: Target[] = [];
   const momentPoints: { x: number; y: number }[] = [];
   const N = deck.spans.length;
-  const truck = strengthLoads(deck.refinedLoading, false);
-  const fatigue: TargetLoad = { vehicle: FATIGUE_TRUCK, label: 'fatigue truck', laneLoad: false, reason: 'one fatigue truck' };
+  const truck = strengthLoads(deck.refinedLoading, false, 0, values);
+  const fatigue: TargetLoad = { vehicle: values.fatigueTruck, label: 'fatigue truck', laneLoad: false, reason: 'one fatigue truck' };
   // the two trucks' headway may reach twice the deck's length: the second truck can always leave the girder
-  const overPier = strengthLoads(deck.refinedLoading, true, 2 * deck.spans.reduce((a, sp) => a + sp.length, 0));
+  const overPier = strengthLoads(deck.refinedLoading, true, 2 * deck.spans.reduce((a, sp) => a + sp.length, 0), values);
   const wants = (e: RefinedEffect) => effects.includes(e);
   const add = (r: GrillageResponse, list: Omit<Target, 'response' | 'surface'>[]) => {
     const chosen = list.filter((t) => wants(t.effect));
@@ -660,7 +663,7 @@ function searchTarget(t: Target, sampled: SampledSurface, source: InfluenceSurfa
       laneCounts: fatigue ? [1] : undefined,
       multiplePresence: !fatigue,
       source,
-      ...(load.laneLoad ? { laneLoad: load.laneIntensity !== undefined ? { intensity: load.laneIntensity } : {} } : {}),
+      ...(load.laneLoad ? { laneLoad: { ...(load.laneIntensity !== undefined ? { intensity: load.laneIntensity } : {}), ...(load.laneWidth !== undefined ? { width: load.laneWidth } : {}) } } : {}),
     });
     const key = `${JSON.stringify(t.beam.spans)}|${JSON.stringify(t.beamResponse)}|${load.vehicle.name}|${load.laneLoad}|${t.sense}`;
     let B = beamEffects.get(key);
@@ -853,7 +856,7 @@ function recordConvergence(deck: Deck, options: RefinedOptions, segmentsPerSpan:
 }
 
 /** The run's own trace step: which loads the refined factors use, and why. */
-function loadsTrace(laneCount: number, continuous: boolean, loading: RefinedLoading): TraceStep {
+function loadsTrace(laneCount: number, continuous: boolean, loading: RefinedLoading, values: DesignValues): TraceStep {
   const words = loadingWords(loading);
   return {
     label: 'Vehicles of the refined factors',
@@ -861,7 +864,7 @@ function loadsTrace(laneCount: number, continuous: boolean, loading: RefinedLoad
     inputs: [{ symbol: 'NL', description: 'design lanes', value: laneCount, kind: 'none' }],
     value: laneCount,
     kind: 'none',
-    article: 'AASHTO LRFD Art. 3.6.1.2, 3.6.1.3.1, 3.6.1.4.1, Table 3.6.2.1-1; ratio as Art. 4.6.2.2 defines its factors',
+    article: citeArticle(values, 'AASHTO LRFD Art. 3.6.1.2, 3.6.1.3.1, 3.6.1.4.1, Table 3.6.2.1-1; ratio as Art. 4.6.2.2 defines its factors'),
     note:
       words.note +
       (continuous && loading !== 'hl93'
@@ -884,9 +887,10 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
   progress({ phase: 'model', done: 0, total: 1 });
   const model = options.model ?? buildGrillage(deck, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN, ...options.grillage });
   const rules = placementRulesForDeck(deck);
-  assertLoadingFits(deck.refinedLoading, rules);
-  const beams = girderBeams(model, deck.continuous);
-  const { responses, targets, momentPoints } = refinedTargets(deck, beams, effects);
+  const values = designValuesOf(deck);
+  assertLoadingFits(deck.refinedLoading, rules, values);
+  const beams = girderBeams(model, deck.continuous, values.truck);
+  const { responses, targets, momentPoints } = refinedTargets(deck, beams, effects, values);
   const surfaces = influenceSurfaces(model, responses);
   const { stations, sampled, densities } = sampleSurfaces(model, responses, surfaces, rules, options, momentPoints);
   const beamEffects = new Map<string, number>();
@@ -905,6 +909,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
     girderCount: model.girderCount,
     designLanes: rules.laneCount,
     designLaneWidth: rules.laneWidth,
+    wheelGauge: rules.gauge,
     layout: model.layout,
     segmentsPerSpan: model.mesh.segmentsPerSpan,
     mesh: model.stats,
@@ -913,7 +918,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
     rows,
     rowSources,
     findings: [...model.findings, ...boundFindings(deck, factors, effects)],
-    trace: [...model.trace, loadsTrace(rules.laneCount, deck.continuous, deck.refinedLoading)],
+    trace: [...model.trace, ...(values.name === 'us-customary' ? [] : [designValuesStep(values)]), loadsTrace(rules.laneCount, deck.continuous, deck.refinedLoading, values)],
     caution: RESULT_CAUTION,
   };
 }

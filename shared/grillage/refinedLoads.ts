@@ -17,16 +17,20 @@
  *   3.6.1.3.1): 90 % of two design trucks (14 ft rear spacings, at least 50 ft from the rear
  *   axle of one to the lead axle of the other), with IM, and 90 % of the lane load.
  * Fatigue is always one fatigue truck without the lane load (Art. 3.6.1.4.1).
+ * The vehicles, the lane load and its width and the two-truck spacings are the deck's design
+ * values (shared/loads/designValues.ts; the SI edition's: 35/145/145 kN, 2 × 110 kN, 9.3 N/mm
+ * over 3000 mm, 4.3 m rear spacings at least 15 m apart).
  * Units: N, m; the lane load N/m.
  */
 import { DeckInputError, type RefinedLoading } from '../deck/schema.js';
-import { DESIGN_LANE_LOAD, DESIGN_TANDEM, DESIGN_TRUCK, LANE_LOAD_WIDTH, type Vehicle } from '../loads/vehicles.js';
+import type { Vehicle } from '../loads/vehicles.js';
+import { citeArticle, US_CUSTOMARY_VALUES, type DesignValues } from '../loads/designValues.js';
+import { lengthInText as len } from '../quantities/inText.js';
 import { IM_STRENGTH_SERVICE, TWO_TRUCK_REDUCTION, twoDesignTrucks } from '../loads/beamLine.js';
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
 import { uniformLoadEffect } from '../loads/movingLoad.js';
 import type { Sense } from '../placement/evaluate.js';
 import type { PlacementRules } from '../placement/rules.js';
-import { toUs } from '../units.js';
 
 /** One load a target is searched under: its vehicle in every loaded lane, with or without the lane load. */
 export interface TargetLoad {
@@ -35,8 +39,10 @@ export interface TargetLoad {
   label: string;
   /** The design lane load in every loaded lane (Art. 3.6.1.2.4). */
   laneLoad: boolean;
-  /** The lane load's intensity, N/m (default 0.64 klf; 90 % of it with two trucks). */
+  /** The lane load's intensity, N/m (the design values' lane load; 90 % of it with two trucks). */
   laneIntensity?: number;
+  /** The lane load's transverse width, m (the design values' 10 ft or 3000 mm). */
+  laneWidth?: number;
   /** Why this load belongs to the target (trace). */
   reason: string;
 }
@@ -47,50 +53,53 @@ function scaled(v: Vehicle, factor: number): Vehicle {
 }
 
 const WITH_IM = 1 + IM_STRENGTH_SERVICE;
-const TRUCK_IM = scaled(DESIGN_TRUCK, WITH_IM);
-const TANDEM_IM = scaled(DESIGN_TANDEM, WITH_IM);
 const HL93_WORDS = `with ${Math.round(IM_STRENGTH_SERVICE * 100)} % dynamic load allowance (Table 3.6.2.1-1) and the design lane load (Art. 3.6.1.2.4) in each loaded lane`;
 const PIER_WORDS = 'the 90 % two-truck load of Art. 3.6.1.3.1 is not placed on the grillage, the one-truck ratio stands for it';
 
 /**
  * The loads of a strength target (moment, shear, reaction). `overPier`: negative moment or an
  * interior reaction of a continuous deck; `maxHeadway` (m) the longest gap between the two
- * trucks there (long enough for the second truck to leave the girder).
+ * trucks there (long enough for the second truck to leave the girder). `values`: the deck's
+ * design values (default the US customary ones).
  */
-export function strengthLoads(loading: RefinedLoading, overPier: boolean, maxHeadway = 0): TargetLoad[] {
+export function strengthLoads(loading: RefinedLoading, overPier: boolean, maxHeadway = 0, values: DesignValues = US_CUSTOMARY_VALUES): TargetLoad[] {
   if (loading === 'hl93') {
+    const lane = { laneLoad: true, laneIntensity: values.laneLoad, laneWidth: values.laneLoadWidth };
     const loads: TargetLoad[] = [
-      { vehicle: TRUCK_IM, label: 'HL-93 truck + lane', laneLoad: true, reason: `one design truck per loaded lane, ${HL93_WORDS}` },
-      { vehicle: TANDEM_IM, label: 'HL-93 tandem + lane', laneLoad: true, reason: `one design tandem per loaded lane, ${HL93_WORDS}` },
+      { vehicle: scaled(values.truck, WITH_IM), label: 'HL-93 truck + lane', ...lane, reason: `one design truck per loaded lane, ${HL93_WORDS}` },
+      { vehicle: scaled(values.tandem, WITH_IM), label: 'HL-93 tandem + lane', ...lane, reason: `one design tandem per loaded lane, ${HL93_WORDS}` },
     ];
     if (overPier) {
       const factor = TWO_TRUCK_REDUCTION * WITH_IM;
+      const us = values.name === 'us-customary';
+      const spacings = us ? '14 ft rear spacings, at least 50 ft apart' : `${len(values.twoTrucks.rearSpacing)} rear spacings, at least ${len(values.twoTrucks.minHeadway)} apart`;
       loads.push({
-        vehicle: { ...scaled(twoDesignTrucks(Math.max(maxHeadway, 1)), factor), name: `two design trucks × ${factor.toFixed(3)}` },
+        vehicle: { ...scaled(twoDesignTrucks(Math.max(maxHeadway, 1), values), factor), name: `two design trucks × ${factor.toFixed(3)}` },
         label: 'HL-93 90 % of two trucks + lane',
-        laneLoad: true,
-        laneIntensity: TWO_TRUCK_REDUCTION * DESIGN_LANE_LOAD,
-        reason: `90 % of two design trucks (14 ft rear spacings, at least 50 ft apart) with ${Math.round(IM_STRENGTH_SERVICE * 100)} % dynamic load allowance and 90 % of the lane load, per loaded lane (Art. 3.6.1.3.1)`,
+        ...lane,
+        laneIntensity: TWO_TRUCK_REDUCTION * values.laneLoad,
+        reason: `90 % of two design trucks (${spacings}) with ${Math.round(IM_STRENGTH_SERVICE * 100)} % dynamic load allowance and 90 % of the lane load, per loaded lane (${citeArticle(values, 'Art. 3.6.1.3.1')})`,
       });
     }
     return loads;
   }
-  return [{ vehicle: DESIGN_TRUCK, label: 'design truck', laneLoad: false, reason: overPier ? `one design truck per loaded lane; ${PIER_WORDS}` : 'one design truck per loaded lane' }];
+  return [{ vehicle: values.truck, label: 'design truck', laneLoad: false, reason: overPier ? `one design truck per loaded lane; ${PIER_WORDS}` : 'one design truck per loaded lane' }];
 }
 
 /** One lane of the load on the beam line: the vehicle's extreme plus, with the lane load, q·∫ of the influence line's parts of the sense. */
 export function beamLineEffect(beam: BeamModel, response: BeamResponse, load: TargetLoad, sense: Sense): number {
   const line = influenceLine(beam, response);
   const vehicle = maxVehicleEffect(line, load.vehicle, sense).value;
-  return load.laneLoad ? vehicle + uniformLoadEffect(line, load.laneIntensity ?? DESIGN_LANE_LOAD, sense) : vehicle;
+  return load.laneLoad ? vehicle + uniformLoadEffect(line, load.laneIntensity ?? US_CUSTOMARY_VALUES.laneLoad, sense) : vehicle;
 }
 
-/** The loading is possible on this roadway: the lane load's 10 ft width fits in a design lane. */
-export function assertLoadingFits(loading: RefinedLoading, rules: PlacementRules): void {
-  if (loading !== 'hl93' || rules.laneWidth >= LANE_LOAD_WIDTH - 1e-9) return;
+/** The loading is possible on this roadway: the lane load's width (10 ft, SI edition 3000 mm) fits in a design lane. */
+export function assertLoadingFits(loading: RefinedLoading, rules: PlacementRules, values: DesignValues = US_CUSTOMARY_VALUES): void {
+  if (loading !== 'hl93' || rules.laneWidth >= values.laneLoadWidth - 1e-9) return;
+  const rule = values.laneRule;
   throw new DeckInputError(
     ['refinedLoading'],
-    `the design lanes of this roadway are ${toUs.ft(rules.laneWidth).toFixed(2)} ft wide, narrower than the 10 ft width of the design lane load (Art. 3.6.1.2.4): choose 'design-truck' for the refined run`,
+    `the design lanes of this roadway are ${(rules.laneWidth / rule.unitMetres).toFixed(2)} ${rule.unitSymbol} wide, narrower than the ${values.printed.laneLoadWidth} width of the design lane load (${citeArticle(values, 'Art. 3.6.1.2.4')}): choose 'design-truck' for the refined run`,
   );
 }
 

@@ -22,6 +22,12 @@
  * - Art. 3.6.1.4.1 fatigue truck: one design truck with a constant 30 ft rear spacing, no
  *   lane load, IM 15 %.
  * Not included: the dual design tandem of commentary C3.6.1.3.1 (an owner's option).
+ *
+ * The vehicles, the lane load and the two-truck spacings are the deck's design values
+ * (`options.values`, shared/loads/designValues.ts): the US customary ones above by default, or
+ * the SI edition's (AASHTO LRFD (SI), same articles: 35/145/145 kN at 4.3 m then 4.3–9.0 m,
+ * 2 × 110 kN at 1.2 m, 9.3 N/mm, fatigue rear spacing 9.0 m, two trucks 4.3 m rear spacings at
+ * least 15 m apart). The allowances IM and the 90 % reduction are the same in both.
  */
 import { DeckInputError } from '../deck/schema.js';
 import type { TraceInput, TraceStep } from '../trace.js';
@@ -29,7 +35,8 @@ import { lengthInText as len, quantityInText as q } from '../quantities/inText.j
 import { fromUs } from '../units.js';
 import { BeamAnalysis, validateBeam, type BeamInfluenceLine, type BeamModel, type BeamResponse } from './influenceLine.js';
 import { maxVehicleEffect, uniformLoadEffect, type AxlePlacement, type VehicleEffect } from './movingLoad.js';
-import { DESIGN_LANE_LOAD, DESIGN_TANDEM, DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from './vehicles.js';
+import type { Vehicle } from './vehicles.js';
+import { citeArticle, designValuesStep, truckWords, US_CUSTOMARY_VALUES, type DesignValues } from './designValues.js';
 
 /** Dynamic load allowance, all limit states except fatigue, components other than deck joints (Table 3.6.2.1-1). */
 export const IM_STRENGTH_SERVICE = 0.33;
@@ -39,33 +46,36 @@ export const IM_FATIGUE = 0.15;
 export const IM_DECK_JOINTS = 0.75;
 /** Reduction on two design trucks and the lane load for negative moment and interior reactions (Art. 3.6.1.3.1). */
 export const TWO_TRUCK_REDUCTION = 0.9;
-/** Least distance from the lead axle of one truck to the rear axle of the other, 50 ft (Art. 3.6.1.3.1), m. */
-export const TWO_TRUCK_MIN_HEADWAY = fromUs.ft(50);
-/** Rear-axle spacing of each of the two trucks, 14 ft (Art. 3.6.1.3.1), m. */
-export const TWO_TRUCK_REAR_SPACING = fromUs.ft(14);
+/** Least distance from the lead axle of one truck to the rear axle of the other, 50 ft (Art. 3.6.1.3.1; US customary values), m. */
+export const TWO_TRUCK_MIN_HEADWAY = US_CUSTOMARY_VALUES.twoTrucks.minHeadway;
+/** Rear-axle spacing of each of the two trucks, 14 ft (Art. 3.6.1.3.1; US customary values), m. */
+export const TWO_TRUCK_REAR_SPACING = US_CUSTOMARY_VALUES.twoTrucks.rearSpacing;
 
 export type LoadingName = 'design truck' | 'design tandem' | 'two design trucks' | 'fatigue truck';
 
 /**
- * Two design trucks with 14 ft rear spacings, one behind the other; the headway (rear axle
- * of the first to the lead axle of the second) varies from 50 ft to `maxHeadway` m
- * (Art. 3.6.1.3.1). A headway as long as the beam lets the second truck leave it.
+ * Two design trucks with 14 ft rear spacings (SI edition 4.3 m), one behind the other; the
+ * headway (rear axle of the first to the lead axle of the second) varies from 50 ft (SI
+ * edition 15 m) to `maxHeadway` m (Art. 3.6.1.3.1). A headway as long as the beam lets the
+ * second truck leave it. `values`: the deck's design values (default the US customary ones).
  */
-export function twoDesignTrucks(maxHeadway: number): Vehicle {
+export function twoDesignTrucks(maxHeadway: number, values: DesignValues = US_CUSTOMARY_VALUES): Vehicle {
   if (!Number.isFinite(maxHeadway) || maxHeadway <= 0) {
     throw new DeckInputError(['maxHeadway'], 'the largest headway must be a finite number of metres greater than 0');
   }
-  const t = DESIGN_TRUCK.axles;
-  const rear = t[1].position + TWO_TRUCK_REAR_SPACING;
+  const truck = values.truck;
+  const { rearSpacing, minHeadway } = values.twoTrucks;
+  const t = truck.axles;
+  const rear = t[1].position + rearSpacing;
   const first = [t[0].position, t[1].position, rear];
-  const lead2 = rear + TWO_TRUCK_MIN_HEADWAY;
+  const lead2 = rear + minHeadway;
   const second = first.map((p) => lead2 + p);
   const weights = t.map((a) => a.weight);
   return {
     name: 'two design trucks',
     axles: [...first, ...second].map((position, i) => ({ weight: weights[i % 3], position })),
-    gauge: DESIGN_TRUCK.gauge,
-    variableSpacing: { axleIndex: 3, min: TWO_TRUCK_MIN_HEADWAY, max: Math.max(TWO_TRUCK_MIN_HEADWAY, maxHeadway) },
+    gauge: truck.gauge,
+    variableSpacing: { axleIndex: 3, min: minHeadway, max: Math.max(minHeadway, maxHeadway) },
   };
 }
 
@@ -150,6 +160,8 @@ export interface BeamLineOptions {
   fractions?: number[];
   /** Compute the fatigue-truck envelopes (default true). */
   fatigue?: boolean;
+  /** The deck's design values: vehicles, lane load, two-truck spacings (default the US customary ones). */
+  values?: DesignValues;
 }
 
 const TENTHS = [0, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1];
@@ -194,14 +206,15 @@ function vehicleStep(name: LoadingName, e: VehicleEffect, kind: EffectKind, wher
   };
 }
 
-function laneStep(lane: number, kind: EffectKind, where: string): TraceStep {
+function laneStep(lane: number, kind: EffectKind, where: string, values: DesignValues): TraceStep {
+  const us = values.name === 'us-customary';
   return {
     label: `Design lane load, ${where}`,
-    formula: 'w·∫y dx over the portions of the influence line of this sign, w = 0.64 klf',
-    inputs: [{ symbol: 'w', description: 'design lane load', value: DESIGN_LANE_LOAD, kind: 'lineLoad', formulaValue: 0.64, formulaUnit: 'klf' }],
+    formula: `w·∫y dx over the portions of the influence line of this sign, w = ${us ? '0.64 klf' : q(values.laneLoad, 'lineLoad')}`,
+    inputs: [{ symbol: 'w', description: 'design lane load', value: values.laneLoad, kind: 'lineLoad', ...(us ? { formulaValue: 0.64, formulaUnit: 'klf' } : {}) }],
     value: lane,
     kind,
-    article: 'Art. 3.6.1.2.4, 3.6.1.3.1',
+    article: citeArticle(values, 'Art. 3.6.1.2.4, 3.6.1.3.1'),
   };
 }
 
@@ -257,6 +270,7 @@ function extremeOf(cands: Computation[], sense: 'positive' | 'negative', kind: E
 }
 
 interface Loadings {
+  values: DesignValues;
   twoTrucks?: Vehicle;
   /** Senses for which two design trucks apply. */
   twoTruckSenses: ('positive' | 'negative')[];
@@ -266,24 +280,25 @@ interface Loadings {
 function hl93Envelope(line: BeamInfluenceLine, kind: EffectKind, where: string, loadings: Loadings): Envelope {
   const make = (sense: 'positive' | 'negative'): LiveLoadExtreme => {
     const w = describe(where, sense);
-    const truck = maxVehicleEffect(line, DESIGN_TRUCK, sense);
-    const tandem = maxVehicleEffect(line, DESIGN_TANDEM, sense);
-    const lane = uniformLoadEffect(line, DESIGN_LANE_LOAD, sense);
+    const values = loadings.values;
+    const truck = maxVehicleEffect(line, values.truck, sense);
+    const tandem = maxVehicleEffect(line, values.tandem, sense);
+    const lane = uniformLoadEffect(line, values.laneLoad, sense);
     const im = IM_STRENGTH_SERVICE;
     const cands: Computation[] = [
       { name: 'design truck', effect: truck, lane, impact: im, reduction: 1, total: (1 + im) * truck.value + lane },
       { name: 'design tandem', effect: tandem, lane, impact: im, reduction: 1, total: (1 + im) * tandem.value + lane },
     ];
     const steps: TraceStep[] = [
-      vehicleStep('design truck', truck, kind, w, 'Art. 3.6.1.2.2, 3.6.1.3.1'),
-      vehicleStep('design tandem', tandem, kind, w, 'Art. 3.6.1.2.3, 3.6.1.3.1'),
-      laneStep(lane, kind, w),
+      vehicleStep('design truck', truck, kind, w, citeArticle(values, 'Art. 3.6.1.2.2, 3.6.1.3.1')),
+      vehicleStep('design tandem', tandem, kind, w, citeArticle(values, 'Art. 3.6.1.2.3, 3.6.1.3.1')),
+      laneStep(lane, kind, w, values),
     ];
     if (loadings.twoTrucks && loadings.twoTruckSenses.includes(sense)) {
       const two = maxVehicleEffect(line, loadings.twoTrucks, sense);
       const r = TWO_TRUCK_REDUCTION;
       cands.push({ name: 'two design trucks', effect: two, lane, impact: im, reduction: r, total: r * ((1 + im) * two.value + lane) });
-      steps.push(vehicleStep('two design trucks', two, kind, w, 'Art. 3.6.1.3.1'));
+      steps.push(vehicleStep('two design trucks', two, kind, w, citeArticle(values, 'Art. 3.6.1.3.1')));
     }
     steps.push({
       label: 'Dynamic load allowance',
@@ -299,14 +314,14 @@ function hl93Envelope(line: BeamInfluenceLine, kind: EffectKind, where: string, 
 }
 
 /** Fatigue-truck envelope (IM 15 %, no lane load), per lane. */
-function fatigueEnvelope(line: BeamInfluenceLine, kind: EffectKind, where: string): Envelope {
+function fatigueEnvelope(line: BeamInfluenceLine, kind: EffectKind, where: string, values: DesignValues): Envelope {
   const make = (sense: 'positive' | 'negative'): LiveLoadExtreme => {
     const w = `${describe(where, sense)} (fatigue)`;
-    const e = maxVehicleEffect(line, FATIGUE_TRUCK, sense);
+    const e = maxVehicleEffect(line, values.fatigueTruck, sense);
     const im = IM_FATIGUE;
     const cands: Computation[] = [{ name: 'fatigue truck', effect: e, lane: 0, impact: im, reduction: 1, total: (1 + im) * e.value }];
     const steps: TraceStep[] = [
-      vehicleStep('fatigue truck', e, kind, w, 'Art. 3.6.1.4.1'),
+      vehicleStep('fatigue truck', e, kind, w, citeArticle(values, 'Art. 3.6.1.4.1')),
       { label: 'Dynamic load allowance, fatigue', formula: 'IM = 15 % for the fatigue and fracture limit state', inputs: [], value: im, kind: 'none', article: 'Table 3.6.2.1-1' },
     ];
     return extremeOf(cands, sense, kind, w, steps);
@@ -352,6 +367,41 @@ function uniformLoadMoments(analysis: BeamAnalysis): { supportMoments: number[];
   return { supportMoments, contraflexure, momentAt };
 }
 
+/** The loads and allowances of a beam line (trace), with the source of the design values. */
+function beamLineLoadsTrace(values: DesignValues, fatigue: boolean): TraceStep[] {
+  const { truck, tandem } = values;
+  const us = values.name === 'us-customary';
+  const fatigueRear = us ? fromUs.ft(30) : values.fatigueTruck.axles[2].position - values.fatigueTruck.axles[1].position;
+  const trace: TraceStep[] = [
+    {
+      label: 'Design truck',
+      formula: us
+        ? `${truck.axles.map((a) => q(a.weight, 'force')).join(', ')} axles; ${len(fromUs.ft(14))}, then ${len(fromUs.ft(14))} to ${len(fromUs.ft(30))} (chosen for the extreme)`
+        : `${truckWords(values)} (chosen for the extreme)`,
+      inputs: truck.axles.map((a, i) => ({ symbol: `P${i + 1}`, value: a.weight, kind: 'force' as const })),
+      value: truck.axles.reduce((t, a) => t + a.weight, 0),
+      kind: 'force',
+      article: citeArticle(values, 'Art. 3.6.1.2.2'),
+    },
+    {
+      label: 'Design tandem',
+      formula: `2 × ${q(tandem.axles[0].weight, 'force')} at ${len(tandem.axles[1].position)}`,
+      inputs: tandem.axles.map((a, i) => ({ symbol: `P${i + 1}`, value: a.weight, kind: 'force' as const })),
+      value: tandem.axles.reduce((t, a) => t + a.weight, 0),
+      kind: 'force',
+      article: citeArticle(values, 'Art. 3.6.1.2.3'),
+    },
+    { label: 'Design lane load', formula: `w = ${q(values.laneLoad, 'lineLoad')} over ${len(values.laneLoadWidth)}`, inputs: [], value: values.laneLoad, kind: 'lineLoad', article: citeArticle(values, 'Art. 3.6.1.2.4') },
+    { label: 'Dynamic load allowance', formula: 'IM = 33 % (truck and tandem only)', inputs: [], value: IM_STRENGTH_SERVICE, kind: 'none', article: 'Table 3.6.2.1-1' },
+  ];
+  // the SI edition's values are named where they enter; a US customary beam line's trace is as it was
+  if (!us) trace.unshift(designValuesStep(values));
+  if (fatigue) {
+    trace.push({ label: 'Fatigue truck', formula: `design truck with a constant ${len(fatigueRear)} rear spacing; IM = 15 %`, inputs: [], value: IM_FATIGUE, kind: 'none', article: citeArticle(values, 'Art. 3.6.1.4.1, Table 3.6.2.1-1') });
+  }
+  return trace;
+}
+
 /**
  * HL-93 per-lane live-load envelopes of a beam line.
  * @param beam spans (m), continuity, optional EI per span (N·m²)
@@ -364,6 +414,7 @@ export function hl93BeamLineEffects(beam: BeamModel, options: BeamLineOptions = 
   const fractions = validateFractions(options.fractions);
   const fatigue = options.fatigue ?? true;
   if (typeof fatigue !== 'boolean') throw new DeckInputError(['fatigue'], 'fatigue must be true or false');
+  const values = options.values ?? US_CUSTOMARY_VALUES;
   // Stations at every reported fraction (extra stations are added where a fraction is not one).
   const checked = validateBeam(beam);
   const extra: number[] = [];
@@ -374,7 +425,8 @@ export function hl93BeamLineEffects(beam: BeamModel, options: BeamLineOptions = 
   const nb = analysis.beam;
   const uniform = uniformLoadMoments(analysis);
   const loadings: Loadings = {
-    twoTrucks: nb.spans.length > 1 ? twoDesignTrucks(nb.length) : undefined,
+    values,
+    twoTrucks: nb.spans.length > 1 ? twoDesignTrucks(nb.length, values) : undefined,
     twoTruckSenses: [],
   };
   const points: EnvelopePoint[] = [];
@@ -384,15 +436,15 @@ export function hl93BeamLineEffects(beam: BeamModel, options: BeamLineOptions = 
       const where = `${f.toFixed(2)} L of span ${s + 1} (x = ${fmtLength(x)})`;
       const mLine = analysis.influenceLine({ kind: 'moment', x });
       const negative = nb.continuous && uniform.momentAt(s, f) < 0;
-      const mom = hl93Envelope(mLine, 'moment', `moment at ${where}`, { twoTrucks: loadings.twoTrucks, twoTruckSenses: negative ? ['negative'] : [] });
+      const mom = hl93Envelope(mLine, 'moment', `moment at ${where}`, { values, twoTrucks: loadings.twoTrucks, twoTruckSenses: negative ? ['negative'] : [] });
       const side: 'left' | 'right' = f >= 1 ? 'left' : 'right';
       const vResp: BeamResponse = { kind: 'shear', x, side };
       const vLine = analysis.influenceLine(vResp);
-      const shear = hl93Envelope(vLine, 'force', `shear just ${side} of ${where}`, { twoTruckSenses: [] });
+      const shear = hl93Envelope(vLine, 'force', `shear just ${side} of ${where}`, { values, twoTruckSenses: [] });
       const point: EnvelopePoint = { span: s, fraction: f, x, negativeMomentRegion: negative, moment: mom, shearSide: side, shear };
       if (fatigue) {
-        point.fatigueMoment = fatigueEnvelope(mLine, 'moment', `moment at ${where}`);
-        point.fatigueShear = fatigueEnvelope(vLine, 'force', `shear just ${side} of ${where}`);
+        point.fatigueMoment = fatigueEnvelope(mLine, 'moment', `moment at ${where}`, values);
+        point.fatigueShear = fatigueEnvelope(vLine, 'force', `shear just ${side} of ${where}`, values);
       }
       points.push(point);
     }
@@ -401,34 +453,13 @@ export function hl93BeamLineEffects(beam: BeamModel, options: BeamLineOptions = 
     const interior = support > 0 && support < nb.spans.length;
     const line = analysis.influenceLine({ kind: 'reaction', support });
     const env = hl93Envelope(line, 'force', `reaction at support ${support}`, {
+      values,
       twoTrucks: interior ? loadings.twoTrucks : undefined,
       twoTruckSenses: interior ? ['positive'] : [],
     });
     return { support, x, interior, reaction: env };
   });
-  const trace: TraceStep[] = [
-    {
-      label: 'Design truck',
-      formula: `${DESIGN_TRUCK.axles.map((a) => q(a.weight, 'force')).join(', ')} axles; ${len(fromUs.ft(14))}, then ${len(fromUs.ft(14))} to ${len(fromUs.ft(30))} (chosen for the extreme)`,
-      inputs: DESIGN_TRUCK.axles.map((a, i) => ({ symbol: `P${i + 1}`, value: a.weight, kind: 'force' as const })),
-      value: DESIGN_TRUCK.axles.reduce((t, a) => t + a.weight, 0),
-      kind: 'force',
-      article: 'Art. 3.6.1.2.2',
-    },
-    {
-      label: 'Design tandem',
-      formula: `2 × ${q(DESIGN_TANDEM.axles[0].weight, 'force')} at ${len(fromUs.ft(4))}`,
-      inputs: DESIGN_TANDEM.axles.map((a, i) => ({ symbol: `P${i + 1}`, value: a.weight, kind: 'force' as const })),
-      value: DESIGN_TANDEM.axles.reduce((t, a) => t + a.weight, 0),
-      kind: 'force',
-      article: 'Art. 3.6.1.2.3',
-    },
-    { label: 'Design lane load', formula: `w = ${q(DESIGN_LANE_LOAD, 'lineLoad')} over ${len(fromUs.ft(10))}`, inputs: [], value: DESIGN_LANE_LOAD, kind: 'lineLoad', article: 'Art. 3.6.1.2.4' },
-    { label: 'Dynamic load allowance', formula: 'IM = 33 % (truck and tandem only)', inputs: [], value: IM_STRENGTH_SERVICE, kind: 'none', article: 'Table 3.6.2.1-1' },
-  ];
-  if (fatigue) {
-    trace.push({ label: 'Fatigue truck', formula: `design truck with a constant ${len(fromUs.ft(30))} rear spacing; IM = 15 %`, inputs: [], value: IM_FATIGUE, kind: 'none', article: 'Art. 3.6.1.4.1, Table 3.6.2.1-1' });
-  }
+  const trace = beamLineLoadsTrace(values, fatigue);
   if (nb.continuous && nb.spans.length > 1) {
     trace.push({
       label: 'Points of contraflexure under a uniform load on all spans',

@@ -22,6 +22,7 @@ import type { Deck } from '../deck/schema.js';
 import { DeckInputError } from '../deck/schema.js';
 import type { CodeFactorResult, FactorEffect, GirderKind, GoverningFactor } from '../lrfd/factors.js';
 import { hl93BeamLineEffects, type BeamLineEffects } from './beamLine.js';
+import { designValuesOf } from './designValues.js';
 import { girderLiveLoadEffects, type GirderFactorLocation, type GirderLiveLoadEffects } from './girderEffects.js';
 
 export interface DeckGirderEffects {
@@ -39,7 +40,7 @@ function pick(governing: GoverningFactor[], kind: GirderKind, effect: FactorEffe
  * @param code the code-method result of the same deck (`computeCodeFactors(deck)`).
  */
 export function deckGirderEffects(deck: Deck, code: CodeFactorResult, beamLine?: BeamLineEffects): DeckGirderEffects {
-  const line = beamLine ?? hl93BeamLineEffects({ spans: deck.spans.map((s) => s.length), continuous: deck.continuous });
+  const line = beamLine ?? hl93BeamLineEffects({ spans: deck.spans.map((s) => s.length), continuous: deck.continuous }, { values: designValuesOf(deck) });
   const supportX: number[] = [0];
   for (const s of deck.spans) supportX.push(supportX[supportX.length - 1] + s.length);
   const cf = line.contraflexurePoints;

@@ -7,3 +7,4 @@ export * from './beamLine.js';
 export * from './girderEffects.js';
 export * from './combinations.js';
 export * from './deckEffects.js';
+export * from './designValues.js';

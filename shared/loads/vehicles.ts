@@ -12,6 +12,14 @@
  * - Design tandem: two 25 kip axles 4 ft apart, wheels 6 ft apart (Art. 3.6.1.2.3).
  * - Design lane load: 0.64 klf uniformly distributed over a 10 ft width (Art. 3.6.1.2.4).
  * - Fatigue truck: one design truck with a constant 30 ft rear spacing (Art. 3.6.1.4.1).
+ *
+ * The SI edition's own values (AASHTO LRFD (SI), the same articles; from memory of the 4th
+ * edition 2007 SI and earlier, the truck, tandem and lane load as a scanned page of that
+ * edition's Figure 3.6.1.2.2-1 and Art. 3.6.1.2.3–3.6.1.2.4 prints them; the fatigue truck's
+ * 9000 mm from memory only) are the `SI_` vehicles below: 35, 145, 145 kN at 4300 mm, then
+ * 4300–9000 mm; 2 × 110 kN at 1200 mm; 9.3 N/mm over 3000 mm; 1800 mm gauge; fatigue truck
+ * with a constant 9000 mm rear spacing. They are not conversions of the US values (8 kip is
+ * 35.6 kN, 14 ft is 4.267 m). Which set a deck uses is `designValuesOf(deck)` (designValues.ts).
  */
 import { DeckInputError } from '../deck/schema.js';
 import { fromUs, toUs } from '../units.js';
@@ -79,6 +87,38 @@ export const DESIGN_LANE_LOAD = fromUs.klf(0.64);
 
 /** Transverse width over which the design lane load is spread, 10 ft (Art. 3.6.1.2.4), m. */
 export const LANE_LOAD_WIDTH = fromUs.ft(10);
+
+/** SI edition (Art. 3.6.1.2.2): wheel gauge 1800 mm. */
+export const SI_WHEEL_GAUGE = 1.8;
+
+const axle = (kN: number, position: number): Axle => Object.freeze({ weight: kN * 1000, position });
+
+/** SI edition design truck (Art. 3.6.1.2.2): 35, 145, 145 kN; 4300 mm, then 4300 mm to 9000 mm. */
+export const SI_DESIGN_TRUCK: Vehicle = Object.freeze({
+  name: 'design truck',
+  axles: Object.freeze([axle(35, 0), axle(145, 4.3), axle(145, 8.6)]) as Axle[],
+  gauge: SI_WHEEL_GAUGE,
+  variableSpacing: Object.freeze({ axleIndex: 2, min: 4.3, max: 9.0 }),
+}) as Vehicle;
+
+/** SI edition design tandem (Art. 3.6.1.2.3): a pair of 110 kN axles 1200 mm apart. */
+export const SI_DESIGN_TANDEM: Vehicle = Object.freeze({
+  name: 'design tandem',
+  axles: Object.freeze([axle(110, 0), axle(110, 1.2)]) as Axle[],
+  gauge: SI_WHEEL_GAUGE,
+}) as Vehicle;
+
+/** SI edition fatigue truck (Art. 3.6.1.4.1): the design truck with a constant 9000 mm rear spacing. */
+export const SI_FATIGUE_TRUCK: Vehicle = Object.freeze({
+  name: 'fatigue truck',
+  axles: Object.freeze([axle(35, 0), axle(145, 4.3), axle(145, 4.3 + 9.0)]) as Axle[],
+  gauge: SI_WHEEL_GAUGE,
+}) as Vehicle;
+
+/** SI edition design lane load (Art. 3.6.1.2.4): 9.3 N/mm, N/m. */
+export const SI_DESIGN_LANE_LOAD = 9300;
+/** SI edition width of the design lane load (Art. 3.6.1.2.4): 3000 mm, m. */
+export const SI_LANE_LOAD_WIDTH = 3.0;
 
 /** Total weight of a vehicle, N. */
 export function vehicleWeight(v: Vehicle): number {

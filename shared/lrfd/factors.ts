@@ -30,6 +30,7 @@ import { derivedSection, type DerivedSection } from '../deck/section.js';
 import type { TraceStep } from '../trace.js';
 import { toUs } from '../units.js';
 import { lengthInText } from '../quantities/inText.js';
+import { citeArticle, designValuesOf, designValuesStep, formulaLength, type DesignValues } from '../loads/designValues.js';
 import { parameter, type Finding } from './findings.js';
 import type { FormulaContext, Lanes, TableOutcome } from './formula.js';
 import { designLanes, multiplePresenceFactor } from './lanes.js';
@@ -311,6 +312,8 @@ interface Engine {
   section: DerivedSection;
   family: FormulaFamily;
   lanes: { count: number; width: number; trace: TraceStep };
+  /** The deck's design values (lanes, wheels; shared/loads/designValues.ts). */
+  values: DesignValues;
   Nb: number;
   interiorS?: { S: number; girder: number };
   symmetric: boolean;
@@ -361,14 +364,16 @@ function makeEngine(deck: Deck): Engine {
   const geom = deckGeometry(deck);
   const section = derivedSection(deck);
   checkRequired(deck, family, section);
+  const values = designValuesOf(deck);
   let lanes: Engine['lanes'];
   try {
-    lanes = designLanes(geom.roadwayWidth);
+    lanes = designLanes(geom.roadwayWidth, values);
   } catch (e) {
     if (e instanceof DeckInputError) {
+      const rule = values.laneRule;
       throw new DeckInputError(
         ['barrierRight', 'width'],
-        `the clear roadway between the barrier faces is ${toUs.ft(geom.roadwayWidth).toFixed(2)} ft, narrower than one 12 ft design lane (Art. 3.6.1.1.1)`,
+        `the clear roadway between the barrier faces is ${(geom.roadwayWidth / rule.unitMetres).toFixed(2)} ${rule.unitSymbol}, narrower than one ${values.printed.laneWidth} design lane (${citeArticle(values, 'Art. 3.6.1.1.1')})`,
       );
     }
     throw e;
@@ -385,6 +390,7 @@ function makeEngine(deck: Deck): Engine {
     section,
     family,
     lanes,
+    values,
     Nb,
     interiorS,
     symmetric: isSymmetric(geom, deck),
@@ -441,7 +447,7 @@ function lever(en: Engine, girder: number, lanes: Lanes): LeverRuleResult {
   if (hit) return hit;
   const counts = lanes === 'one' ? [1] : Array.from({ length: en.lanes.count - 1 }, (_, i) => i + 2);
   const oneLaneFactor = en.deck.policy.leverRuleWithoutMultiplePresence ? 1.0 : 1.2;
-  const r = leverRule(en.geom.offsets, girder, en.geom.curbLeft, en.geom.curbRight, en.lanes.width, en.lanes.count, { loadedLanes: counts, oneLaneFactor });
+  const r = leverRule(en.geom.offsets, girder, en.geom.curbLeft, en.geom.curbRight, en.lanes.width, en.lanes.count, { loadedLanes: counts, oneLaneFactor, values: en.values });
   en.leverCache.set(key, r);
   return r;
 }
@@ -461,7 +467,7 @@ function interiorLever(en: Engine, lanes: Lanes): { result: LeverRuleResult; gir
 function rigidFor(en: Engine, side: 'left' | 'right'): RigidSectionResult {
   const hit = en.rigidCache.get(side);
   if (hit) return hit;
-  const r = rigidSection(en.geom.offsets, side, en.geom.curbLeft, en.geom.curbRight, en.lanes.width, en.lanes.count);
+  const r = rigidSection(en.geom.offsets, side, en.geom.curbLeft, en.geom.curbRight, en.lanes.width, en.lanes.count, en.values);
   en.rigidCache.set(side, r);
   return r;
 }
@@ -819,13 +825,15 @@ function derivedTrace(en: Engine): TraceStep[] {
     label: 'Clear roadway width',
     formula: 'w = distance between the inside faces of the barriers',
     inputs: [
-      { symbol: 'x_L', description: 'left barrier face from girder 1', value: geom.curbLeft, kind: 'length', formulaValue: toUs.ft(geom.curbLeft), formulaUnit: 'ft' },
-      { symbol: 'x_R', description: 'right barrier face from girder 1', value: geom.curbRight, kind: 'length', formulaValue: toUs.ft(geom.curbRight), formulaUnit: 'ft' },
+      { symbol: 'x_L', description: 'left barrier face from girder 1', value: geom.curbLeft, kind: 'length', ...formulaLength(en.values, geom.curbLeft) },
+      { symbol: 'x_R', description: 'right barrier face from girder 1', value: geom.curbRight, kind: 'length', ...formulaLength(en.values, geom.curbRight) },
     ],
     value: geom.roadwayWidth,
     kind: 'length',
-    article: 'AASHTO LRFD Art. 3.6.1.1.1',
+    article: citeArticle(en.values, 'AASHTO LRFD Art. 3.6.1.1.1'),
   });
+  // the SI edition's values are named where they enter; a US customary deck's trace is as it was
+  if (en.values.name !== 'us-customary') steps.push(designValuesStep(en.values));
   steps.push(en.lanes.trace);
   for (const [side, de, oh, bw] of [
     ['left', geom.deLeft, deck.overhangLeft, deck.barrierLeft.width],

@@ -3,7 +3,7 @@
  * over the girders next to the girder considered, and the girder's share of the loaded
  * lanes is the statical reaction of the wheel loads. Wheels are placed per Art. 3.6.1.3.1:
  * 6 ft gauge (Art. 3.6.1.2.2), each wheel centre at least 2 ft from the edge of its design
- * lane; design lanes may lie anywhere within the roadway (Art. 3.6.1.1.1), side by side.
+ * lane (the SI edition's values: 1800 mm and 600 mm; `options.values`, shared/loads/designValues.ts); design lanes may lie anywhere within the roadway (Art. 3.6.1.1.1), side by side.
  * Multiple presence per Table 3.6.1.1.2-1 (1.2 for one lane unless an owner policy says 1.0).
  *
  * Units: all offsets in m, measured from girder 1's centreline, positive to the right.
@@ -16,13 +16,13 @@
  */
 import { DeckInputError } from '../deck/schema.js';
 import type { TraceStep } from '../trace.js';
-import { fromUs, toUs } from '../units.js';
+import { citeArticle, formulaLength, US_CUSTOMARY_VALUES, type DesignValues } from '../loads/designValues.js';
 import { multiplePresenceFactor } from './lanes.js';
 
-/** Transverse spacing of the wheels of the design truck and tandem, 6 ft (Art. 3.6.1.2.2). */
-export const WHEEL_GAUGE = fromUs.ft(6);
-/** Least distance from a wheel centre to the edge of its design lane, 2 ft (Art. 3.6.1.3.1). */
-export const WHEEL_TO_LANE_EDGE = fromUs.ft(2);
+/** Transverse spacing of the wheels of the design truck and tandem, 6 ft (Art. 3.6.1.2.2; US customary values). */
+export const WHEEL_GAUGE = US_CUSTOMARY_VALUES.gauge;
+/** Least distance from a wheel centre to the edge of its design lane, 2 ft (Art. 3.6.1.3.1; US customary values). */
+export const WHEEL_TO_LANE_EDGE = US_CUSTOMARY_VALUES.wheelToLaneEdge;
 
 const EPS = 1e-9;
 
@@ -85,6 +85,8 @@ export interface LeverRuleOptions {
   loadedLanes: number[];
   /** Multiple presence factor for one loaded lane (1.2 by Table 3.6.1.1.2-1; 1.0 under an owner policy). */
   oneLaneFactor?: number;
+  /** The deck's design values (gauge, wheel-to-lane-edge distance); the US customary ones by default. */
+  values?: DesignValues;
 }
 
 /** Lever-rule ordinate of girder `i` at transverse position x (m), deck hinged at the neighbouring girders. */
@@ -129,6 +131,9 @@ export function leverRule(
   options: LeverRuleOptions,
 ): LeverRuleResult {
   const n = offsets.length;
+  const values = options.values ?? US_CUSTOMARY_VALUES;
+  const gauge = values.gauge;
+  const toEdge = values.wheelToLaneEdge;
   const eta = (x: number) => leverOrdinate(offsets, girder, x);
   const hinges: { girder: number; offset: number }[] = [];
   if (girder > 0) hinges.push({ girder: girder - 1, offset: offsets[girder - 1] });
@@ -136,10 +141,10 @@ export function leverRule(
 
   // Kinks of the ordinate and of the truck response r(a) = η(a) + η(a + gauge), a = left wheel.
   const etaKinks = [girder - 1, girder, girder + 1].filter((j) => j >= 0 && j < n).map((j) => offsets[j]);
-  const truckKinks = etaKinks.flatMap((k) => [k, k - WHEEL_GAUGE]);
-  const wMin = WHEEL_TO_LANE_EDGE; // left wheel offset within the lane
-  const wMax = laneWidth - WHEEL_TO_LANE_EDGE - WHEEL_GAUGE;
-  const truck = (a: number) => eta(a) + eta(a + WHEEL_GAUGE);
+  const truckKinks = etaKinks.flatMap((k) => [k, k - gauge]);
+  const wMin = toEdge; // left wheel offset within the lane
+  const wMax = laneWidth - toEdge - gauge;
+  const truck = (a: number) => eta(a) + eta(a + gauge);
 
   /** Best left-wheel position and response for a lane with its left edge at L. */
   const lane = (L: number): { a: number; r: number } => {
@@ -213,7 +218,7 @@ export function leverRule(
         laneRight: L + laneWidth,
         wheels: [
           { offset: a, ordinate: eta(a) },
-          { offset: a + WHEEL_GAUGE, ordinate: eta(a + WHEEL_GAUGE) },
+          { offset: a + gauge, ordinate: eta(a + gauge) },
         ],
       });
       c = back[j - 1][c];
@@ -227,7 +232,7 @@ export function leverRule(
     cases.push({ loadedLanes: k, multiplePresence: m, trucks: loading, trucksBeyondHinges: trucks.length - loading.length, sumOrdinates, reaction, value: m * reaction });
   }
   if (cases.length === 0) {
-    throw new DeckInputError(['barrierRight', 'width'], 'no design lane fits between the barrier faces, so the lever rule cannot place a truck (Art. 3.6.1.1.1)');
+    throw new DeckInputError(['barrierRight', 'width'], `no design lane fits between the barrier faces, so the lever rule cannot place a truck (${citeArticle(values, 'Art. 3.6.1.1.1')})`);
   }
   let governingCase = 0;
   cases.forEach((cs, i) => {
@@ -240,8 +245,8 @@ export function leverRule(
     curbLeft,
     curbRight,
     laneWidth,
-    gauge: WHEEL_GAUGE,
-    wheelToLaneEdge: WHEEL_TO_LANE_EDGE,
+    gauge,
+    wheelToLaneEdge: toEdge,
     cases,
     governingCase,
   };
@@ -256,8 +261,7 @@ export function leverRule(
           description: `wheel ${wi + 1} of truck ${ti + 1}, offset from girder 1 (ordinate ${w.ordinate.toFixed(4)})`,
           value: w.offset,
           kind: 'length' as const,
-          formulaValue: toUs.ft(w.offset),
-          formulaUnit: 'ft',
+          ...formulaLength(values, w.offset),
         })),
       ),
       { symbol: 'Σηᵢ', description: 'sum of the wheel ordinates', value: cs.sumOrdinates, kind: 'none' as const },
@@ -265,7 +269,7 @@ export function leverRule(
     ],
     value: cs.value,
     kind: 'none',
-    article: 'AASHTO LRFD Art. 4.6.2.2.1 (lever rule), Art. 3.6.1.3.1 (wheel placement), Table 3.6.1.1.2-1',
+    article: citeArticle(values, 'AASHTO LRFD Art. 4.6.2.2.1 (lever rule), Art. 3.6.1.3.1 (wheel placement), Table 3.6.1.1.2-1'),
     note: `hinged at ${hingeText}; reaction ${cs.reaction.toFixed(4)} lanes before m${
       cs.trucksBeyondHinges ? `; ${cs.trucksBeyondHinges} more loaded lane${cs.trucksBeyondHinges > 1 ? 's stand' : ' stands'} beyond the hinges (ordinates 0)` : ''
     }`,

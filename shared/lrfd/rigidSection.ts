@@ -13,14 +13,14 @@
  * Units: offsets in m from girder 1 (positive right); distances signed, positive right.
  * Truck placement: lanes side by side from the curb face nearest the exterior girder, the
  * truck in each lane as far toward that curb as Art. 3.6.1.3.1 allows (outer wheel 2 ft
- * from the lane edge, so the truck centre is 2 ft + 3 ft from it) — the placement giving
- * each lane its largest eccentricity toward the girder.
+ * from the lane edge, so the truck centre is 2 ft + 3 ft from it; with the SI edition's values
+ * 600 mm + 900 mm: `values`, shared/loads/designValues.ts) — the placement giving each lane its
+ * largest eccentricity toward the girder.
  */
 import type { TraceStep } from '../trace.js';
-import { toUs } from '../units.js';
+import { citeArticle, formulaLength, US_CUSTOMARY_VALUES, type DesignValues } from '../loads/designValues.js';
 import { lengthInText } from '../quantities/inText.js';
 import { multiplePresenceFactor } from './lanes.js';
-import { WHEEL_GAUGE, WHEEL_TO_LANE_EDGE } from './leverRule.js';
 
 export interface RigidSectionCase {
   loadedLanes: number;
@@ -56,12 +56,19 @@ export interface RigidSectionResult {
   trace: TraceStep[];
 }
 
+/** Σx² in ft² beside its SI value for the US customary values (formulaLength squared); none for the SI edition's. */
+function squaredFormulaLength(values: DesignValues, m2: number): { formulaValue?: number; formulaUnit?: string } {
+  const once = formulaLength(values, m2).formulaValue;
+  return once === undefined ? {} : { formulaValue: formulaLength(values, once).formulaValue, formulaUnit: 'ft²' };
+}
+
 /**
  * Rigid-section distribution factors of an exterior girder, every number of loaded lanes.
  * @param offsets girder offsets, m from girder 1 (increasing).
  * @param side which exterior girder: 'left' (girder 1) or 'right' (girder Nb).
  * @param curbLeft left curb face, m from girder 1; @param curbRight right curb face, m.
  * @param laneWidth design lane width, m; @param designLaneCount NL.
+ * @param values the deck's design values (gauge, wheel-to-lane-edge); the US customary ones by default.
  */
 export function rigidSection(
   offsets: number[],
@@ -70,6 +77,7 @@ export function rigidSection(
   curbRight: number,
   laneWidth: number,
   designLaneCount: number,
+  values: DesignValues = US_CUSTOMARY_VALUES,
 ): RigidSectionResult {
   const nb = offsets.length;
   const centroid = offsets.reduce((s, o) => s + o, 0) / nb;
@@ -77,7 +85,7 @@ export function rigidSection(
   const sumX2 = x.reduce((s, v) => s + v * v, 0);
   const girder = side === 'left' ? 0 : nb - 1;
   const xExt = x[girder];
-  const toCentre = WHEEL_TO_LANE_EDGE + WHEEL_GAUGE / 2;
+  const toCentre = values.wheelToLaneEdge + values.gauge / 2;
   const e: number[] = [];
   for (let j = 0; j < designLaneCount; j++) {
     const centre = side === 'left' ? curbLeft + j * laneWidth + toCentre : curbRight - j * laneWidth - toCentre;
@@ -102,14 +110,14 @@ export function rigidSection(
     inputs: [
       { symbol: 'NL', description: 'number of loaded lanes', value: cs.loadedLanes, kind: 'none' },
       { symbol: 'Nb', description: 'number of girders', value: nb, kind: 'none' },
-      { symbol: 'X_ext', description: 'exterior girder from the centre of the girders', value: xExt, kind: 'length', formulaValue: toUs.ft(xExt), formulaUnit: 'ft' },
-      { symbol: 'Σe', description: `sum of truck eccentricities (${cs.eccentricities.map((v) => lengthInText(v)).join(', ')})`, value: cs.sumE, kind: 'length', formulaValue: toUs.ft(cs.sumE), formulaUnit: 'ft' },
-      { symbol: 'Σx²', description: 'sum of squared girder distances from the centre', value: sumX2, kind: 'lengthSquared', formulaValue: toUs.ft(toUs.ft(sumX2)), formulaUnit: 'ft²' },
+      { symbol: 'X_ext', description: 'exterior girder from the centre of the girders', value: xExt, kind: 'length', ...formulaLength(values, xExt) },
+      { symbol: 'Σe', description: `sum of truck eccentricities (${cs.eccentricities.map((v) => lengthInText(v)).join(', ')})`, value: cs.sumE, kind: 'length', ...formulaLength(values, cs.sumE) },
+      { symbol: 'Σx²', description: 'sum of squared girder distances from the centre', value: sumX2, kind: 'lengthSquared', ...squaredFormulaLength(values, sumX2) },
       { symbol: 'm', description: 'multiple presence factor', value: cs.multiplePresence, kind: 'none' },
     ],
     value: cs.value,
     kind: 'none',
-    article: 'AASHTO LRFD Art. 4.6.2.2.2d, Eq. C4.6.2.2.2d-1; Table 3.6.1.1.2-1',
+    article: citeArticle(values, 'AASHTO LRFD Art. 4.6.2.2.2d, Eq. C4.6.2.2.2d-1; Table 3.6.1.1.2-1'),
     note: `reaction ${cs.reaction.toFixed(4)} lanes before m`,
   }));
   return {

@@ -30,6 +30,11 @@
  * here as: on a lane edge that is the curb face, the wheel limit is 1 ft from the curb face
  * instead of 2 ft from the lane edge; on every other lane edge the 2 ft rule stays.
  *
+ * The lane width, the gauge and the wheel distances are the deck's design values
+ * (shared/loads/designValues.ts): 12 ft, 6 ft, 2 ft and 1 ft with the US customary values;
+ * 3600 mm, 1800 mm, 600 mm and 300 mm with the SI edition's (AASHTO LRFD (SI) Art. 3.6.1.3.1,
+ * Figure 3.6.1.2.2-1).
+ *
  * Limits are checked with a tolerance of 1 nm (RULE_TOLERANCE) so that values that land on
  * a limit after arithmetic count as on it.
  */
@@ -37,13 +42,13 @@ import { DeckInputError, type Deck, type DeckIssue } from '../deck/schema.js';
 import { deckGeometry } from '../deck/geometry.js';
 import { designLanes } from '../lrfd/lanes.js';
 import type { Vehicle } from '../loads/vehicles.js';
-import { WHEEL_GAUGE } from '../loads/vehicles.js';
-import { fromUs, toUs } from '../units.js';
+import { designValuesOf, US_CUSTOMARY_VALUES, type DesignValues } from '../loads/designValues.js';
+import { toUs } from '../units.js';
 
-/** Least distance from a wheel centre to its lane's edge, 2 ft (Art. 3.6.1.3.1), m. */
-export const WHEEL_TO_LANE_EDGE = fromUs.ft(2);
-/** Least distance from a wheel centre to the curb face for deck-overhang design, 1 ft (Art. 3.6.1.3.1), m. */
-export const WHEEL_TO_CURB_FOR_OVERHANG = fromUs.ft(1);
+/** Least distance from a wheel centre to its lane's edge, 2 ft (Art. 3.6.1.3.1; US customary values), m. */
+export const WHEEL_TO_LANE_EDGE = US_CUSTOMARY_VALUES.wheelToLaneEdge;
+/** Least distance from a wheel centre to the curb face for deck-overhang design, 1 ft (Art. 3.6.1.3.1; US customary values), m. */
+export const WHEEL_TO_CURB_FOR_OVERHANG = US_CUSTOMARY_VALUES.wheelToCurbForOverhang;
 /** Tolerance on every limit, m. */
 export const RULE_TOLERANCE = 1e-9;
 
@@ -52,16 +57,26 @@ export interface PlacementRules {
   curbLeft: number;
   /** Right curb (or barrier) face, m (y). */
   curbRight: number;
-  /** Width of one design lane, m (12 ft, or w/2 for 20 ft ≤ w ≤ 24 ft). */
+  /** Width of one design lane, m (12 ft, or w/2 for 20 ft ≤ w ≤ 24 ft; SI edition 3.6 m, or w/2 for 6.0 m ≤ w ≤ 7.2 m). */
   laneWidth: number;
   /** Number of design lanes NL. */
   laneCount: number;
-  /** Transverse spacing of the wheel lines, m (6 ft). */
+  /** Transverse spacing of the wheel lines, m (6 ft; SI edition 1.8 m). */
   gauge: number;
-  /** Least distance from a wheel centre to its lane's edge, m (2 ft). */
+  /** Least distance from a wheel centre to its lane's edge, m (2 ft; SI edition 0.6 m). */
   wheelToLaneEdge: number;
-  /** Deck-overhang option: least distance from a wheel centre to a curb face, m (1 ft); null when off. */
+  /** Deck-overhang option: least distance from a wheel centre to a curb face, m (1 ft; SI edition 0.3 m); null when off. */
   wheelToCurb: number | null;
+  /** Which design values the rules come from (shared/loads/designValues.ts); absent: the US customary ones. */
+  designValues?: DesignValues['name'];
+}
+
+/** Options of the rules: the deck-overhang rule, a wheel gauge other than the vehicles', the design values. */
+export interface PlacementRuleOptions {
+  overhang?: boolean;
+  gauge?: number;
+  /** The deck's design values; the US customary ones by default. */
+  values?: DesignValues;
 }
 
 /** One loaded lane. */
@@ -117,38 +132,41 @@ const ft = (m: number) => `${toUs.ft(m).toFixed(2)} ft`;
 
 /**
  * Rules from a roadway.
- * @param roadway curbLeft, curbRight: y of the curb faces, m (curbRight − curbLeft ≥ 12 ft).
- * @param options overhang: apply the deck-overhang rule (wheel centre 1 ft from the curb face);
- *   gauge: wheel-line spacing, m (default the design truck's 6 ft).
+ * @param roadway curbLeft, curbRight: y of the curb faces, m (curbRight − curbLeft ≥ one design lane).
+ * @param options overhang: apply the deck-overhang rule (wheel centre 1 ft, SI edition 300 mm,
+ *   from the curb face); gauge: wheel-line spacing, m (default the design values' 6 ft or
+ *   1800 mm); values: the deck's design values (default the US customary ones).
  */
-export function placementRules(
-  roadway: { curbLeft: number; curbRight: number },
-  options: { overhang?: boolean; gauge?: number } = {},
-): PlacementRules {
+export function placementRules(roadway: { curbLeft: number; curbRight: number }, options: PlacementRuleOptions = {}): PlacementRules {
   const { curbLeft, curbRight } = roadway;
   if (!Number.isFinite(curbLeft)) fail(['curbLeft'], 'the left curb face must be a finite number of metres');
   if (!Number.isFinite(curbRight)) fail(['curbRight'], 'the right curb face must be a finite number of metres');
-  const lanes = designLanes(curbRight - curbLeft);
-  const gauge = options.gauge ?? WHEEL_GAUGE;
+  const values = options.values ?? US_CUSTOMARY_VALUES;
+  const lanes = designLanes(curbRight - curbLeft, values);
+  const gauge = options.gauge ?? values.gauge;
   if (!(Number.isFinite(gauge) && gauge > 0)) fail(['gauge'], 'the wheel gauge must be a positive number of metres');
-  if (lanes.width - 2 * WHEEL_TO_LANE_EDGE - gauge < -RULE_TOLERANCE) {
-    fail(['gauge'], `a ${ft(gauge)} wheel gauge does not fit in a ${ft(lanes.width)} lane with wheels 2 ft from its edges`);
+  if (lanes.width - 2 * values.wheelToLaneEdge - gauge < -RULE_TOLERANCE) {
+    const shown = values.name === 'us-customary' ? ft : (m: number) => `${m.toFixed(3)} m`;
+    fail(['gauge'], `a ${shown(gauge)} wheel gauge does not fit in a ${shown(lanes.width)} lane with wheels ${values.printed.wheelToLaneEdge} from its edges`);
   }
-  return {
+  const rules: PlacementRules = {
     curbLeft,
     curbRight,
     laneWidth: lanes.width,
     laneCount: lanes.count,
     gauge,
-    wheelToLaneEdge: WHEEL_TO_LANE_EDGE,
-    wheelToCurb: options.overhang ? WHEEL_TO_CURB_FOR_OVERHANG : null,
+    wheelToLaneEdge: values.wheelToLaneEdge,
+    wheelToCurb: options.overhang ? values.wheelToCurbForOverhang : null,
   };
+  // named only when not the default, so the US customary rules are the same object as before
+  if (values.name !== 'us-customary') rules.designValues = values.name;
+  return rules;
 }
 
-/** Rules for a deck's roadway (curb faces from deck/geometry.ts). */
-export function placementRulesForDeck(deck: Deck, options: { overhang?: boolean; gauge?: number } = {}): PlacementRules {
+/** Rules for a deck's roadway (curb faces from deck/geometry.ts), with the deck's design values. */
+export function placementRulesForDeck(deck: Deck, options: Omit<PlacementRuleOptions, 'values'> = {}): PlacementRules {
   const g = deckGeometry(deck);
-  return placementRules({ curbLeft: g.curbLeft, curbRight: g.curbRight }, options);
+  return placementRules({ curbLeft: g.curbLeft, curbRight: g.curbRight }, { ...options, values: designValuesOf(deck) });
 }
 
 /** Leftmost legal left edge of a lane, m. */

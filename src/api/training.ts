@@ -58,6 +58,9 @@ export interface Roadway {
   laneWidth: number;
   laneCount: number;
   girderOffsets: number[];
+  /** Wheel-line spacing and least wheel-to-lane-edge distance, m (the deck's design values; absent in older answers: 6 ft and 2 ft). */
+  gauge?: number;
+  wheelToLaneEdge?: number;
 }
 
 export interface ExpectedAnswer {

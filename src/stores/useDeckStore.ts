@@ -5,7 +5,7 @@
  */
 import { defineStore } from 'pinia';
 import { computed, reactive, ref, shallowRef, watch } from 'vue';
-import type { DeckInput } from '@shared/deck/schema';
+import type { DeckInput, DesignValuesName } from '@shared/deck/schema';
 import type { UnitSystem } from '@shared/units';
 import * as decksApi from '@/api/decks';
 import * as projectsApi from '@/api/projects';
@@ -56,6 +56,11 @@ export function isSavedPlacements(value: unknown): value is SavedPlacements {
 }
 
 export type WorkspaceMode = 'new' | 'edit' | 'read-only';
+
+/** The design values a deck created in a project of these units starts with (shared/loads/designValues.ts). */
+export function designValuesForUnits(system: UnitSystem): DesignValuesName {
+  return system === 'SI' ? 'si-edition' : 'us-customary';
+}
 
 /** The name a new deck is computed under until the user names it (never saved). */
 export const UNNAMED_DECK = 'New deck (not named yet)';
@@ -142,8 +147,10 @@ export const useDeckStore = defineStore('deck', () => {
     versionsPage.value = null;
     version.value = null;
     basedOnVersionId.value = null;
-    // a new deck's name starts empty: the user names it (the template's name is no name of theirs)
-    draft.value = { ...deckTemplate(template).build(), name: '' };
+    // a new deck's name starts empty: the user names it (the template's name is no name of theirs);
+    // its design values follow the project's units (SI edition in an SI project), and it keeps
+    // them from then on, written on every version it is saved as
+    draft.value = { ...deckTemplate(template).build(), name: '', designValues: designValuesForUnits(system) };
     lastValidDeck.value = computableValidation.value.deck;
     templateKey.value = template;
     units.value = system;
@@ -156,8 +163,8 @@ export const useDeckStore = defineStore('deck', () => {
   /** Starts the draft from another template; the name typed so far (or none) is kept. */
   function useTemplate(template: DeckTemplateKey): void {
     if (mode.value === 'read-only') return;
-    const name = draft.value.name;
-    draft.value = { ...deckTemplate(template).build(), name };
+    const { name, designValues } = draft.value;
+    draft.value = { ...deckTemplate(template).build(), name, designValues: designValues ?? 'us-customary' };
     // another starting deck: what was computed before belongs to the deck left behind
     lastValidDeck.value = computableValidation.value.deck;
     templateKey.value = template;

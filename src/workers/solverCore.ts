@@ -35,7 +35,8 @@ import {
   type PlacementRules,
   type SampledSurface,
 } from '../../shared/placement/index';
-import { DESIGN_TANDEM, DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from '../../shared/loads/vehicles';
+import type { Vehicle } from '../../shared/loads/vehicles';
+import { designValuesOf, vehicleOf } from '../../shared/loads/designValues';
 import { influenceLine, maxVehicleEffect, type BeamModel } from '../../shared/loads/influenceLine';
 import { hl93BeamLineEffects, type BeamLineEffects } from '../../shared/loads/beamLine';
 import { girderLiveLoadEffects } from '../../shared/loads/girderEffects';
@@ -46,11 +47,10 @@ import { compareFactors, type FactorComparison } from '../../shared/grillage/com
 export type VehicleKey = 'design truck' | 'design tandem' | 'fatigue truck';
 export type StudyEffect = 'moment' | 'shear';
 
-export const VEHICLES: Record<VehicleKey, Vehicle> = {
-  'design truck': DESIGN_TRUCK,
-  'design tandem': DESIGN_TANDEM,
-  'fatigue truck': FATIGUE_TRUCK,
-};
+/** A vehicle of the deck's design values (shared/loads/designValues.ts) by its key; undefined for an unknown key. */
+export function vehicleForDeck(deck: Deck, key: VehicleKey): Vehicle | undefined {
+  return vehicleOf(designValuesOf(deck), key);
+}
 
 /** Thrown between steps of long work when the user cancels it. */
 export class CancelledError extends Error {
@@ -257,7 +257,7 @@ export class SolverSession {
     await ctx.checkpoint();
     ctx.progress('beam-line envelopes', 0.6);
     const beam: BeamModel = { spans: deck.spans.map((s) => s.length), continuous: deck.continuous };
-    const beamLine = hl93BeamLineEffects(beam, { fatigue: true });
+    const beamLine = hl93BeamLineEffects(beam, { fatigue: true, values: designValuesOf(deck) });
     const t3 = now();
     this.deck = deck;
     this.code = code;
@@ -307,7 +307,7 @@ export class SolverSession {
     if (!Number.isInteger(span) || span < 0 || span >= deck.spans.length) {
       throw new DeckInputError(['study', 'span'], `the studied span must be a whole number from 1 to ${deck.spans.length}`);
     }
-    const vehicle = VEHICLES[vehicleKey];
+    const vehicle = vehicleForDeck(deck, vehicleKey);
     if (!vehicle) throw new DeckInputError(['study', 'vehicle'], `unknown vehicle ${String(vehicleKey)}`);
     const t0 = now();
     this.governingCache.clear();
@@ -342,8 +342,9 @@ export class SolverSession {
     const ml = influenceLine(beam, { kind: 'moment', x: momentX });
     const sl = influenceLine(beam, { kind: 'shear', x: spanStart, side: 'right' });
     const beamLineOf = (key: VehicleKey) => {
-      const me = maxVehicleEffect(ml, VEHICLES[key], 'positive');
-      const se = maxVehicleEffect(sl, VEHICLES[key], 'positive');
+      const v = vehicleForDeck(deck, key)!;
+      const me = maxVehicleEffect(ml, v, 'positive');
+      const se = maxVehicleEffect(sl, v, 'positive');
       if (!(me.value > 0) || !(se.value > 0)) {
         throw new DeckInputError(['spans', span], `the beam-line effect of one lane of the ${key} is not positive at the studied point`);
       }
@@ -376,11 +377,11 @@ export class SolverSession {
 
   /** Applies the placement rules (what a drag may reach), with the vehicle's longitudinal limits. */
   clamp(lanes: LanePlacement[], dragged?: number): LanePlacement[] {
-    const { model, rules } = this.need();
+    const { deck, model, rules } = this.need();
     const { summary } = this.needStudy();
     const placement = clampPlacement({ lanes }, rules, {
       dragged,
-      vehicle: VEHICLES[summary.vehicle],
+      vehicle: vehicleForDeck(deck, summary.vehicle)!,
       extent: { xMin: model.extent.xMin, xMax: model.extent.xMax },
     });
     return placement.lanes;
@@ -393,9 +394,9 @@ export class SolverSession {
    */
   evaluate(lanes: LanePlacement[], effect: StudyEffect, options: { countAdverseAxles?: boolean } = {}): LiveShares {
     const t0 = now();
-    const { rules } = this.need();
+    const { deck, rules } = this.need();
     const state = this.needStudy();
-    const vehicle = VEHICLES[state.summary.vehicle];
+    const vehicle = vehicleForDeck(deck, state.summary.vehicle)!;
     const placement: Placement = { lanes: this.clamp(lanes) };
     const E1 = state.summary.beamLineMax[effect];
     // The surfaces themselves (not their samples): the share at a governing placement is then
@@ -418,7 +419,7 @@ export class SolverSession {
    * defaults to the studied vehicle; the surfaces serve every vehicle.
    */
   governing(girder: number, effect: StudyEffect, vehicleKey?: VehicleKey): GoverningSummary {
-    const { rules } = this.need();
+    const { deck, rules } = this.need();
     const state = this.needStudy();
     const key = vehicleKey ?? state.summary.vehicle;
     const cacheKey = `${key}|${girder}|${effect}`;
@@ -428,7 +429,7 @@ export class SolverSession {
     if (!Number.isInteger(girder) || girder < 0 || girder >= surfaces.length) {
       throw new DeckInputError(['girder'], `the girder must be a whole number from 1 to ${surfaces.length}`);
     }
-    const vehicle = VEHICLES[key];
+    const vehicle = vehicleForDeck(deck, key);
     if (!vehicle) throw new DeckInputError(['vehicle'], `unknown vehicle ${String(key)}`);
     const t0 = now();
     const fatigue = key === 'fatigue truck';
@@ -462,7 +463,7 @@ export class SolverSession {
     const beam: BeamModel = { spans, continuous: deck.continuous };
     const start = spans.slice(0, summary.span).reduce((a, b) => a + b, 0);
     const line = effect === 'moment' ? influenceLine(beam, { kind: 'moment', x: summary.momentX }) : influenceLine(beam, { kind: 'shear', x: start, side: 'right' });
-    return maxVehicleEffect(line, VEHICLES[key], 'positive').value;
+    return maxVehicleEffect(line, vehicleForDeck(deck, key)!, 'positive').value;
   }
 
   /**

@@ -299,3 +299,44 @@ describe('loads of the refined analysis', () => {
     expect(store.draft.refinedLoading).toBe('design-truck');
   });
 });
+
+describe('design values', () => {
+  // Sources: AASHTO LRFD (SI) Art. 3.6.1.1.1 and Figure 3.6.1.2.2-1 (3.6 m lanes, 1.8 m gauge,
+  // 35/145/145 kN truck; from memory of the 4th edition 2007 SI); AASHTO LRFD Art. 3.6.1.1.1
+  // (12 ft lanes), converted exactly (1 ft = 0.3048 m, NIST SP 811).
+  it('a new deck in an SI project starts with the SI edition values; one in a US project with the converted US values', async () => {
+    expect(store.draft.designValues).toBe('us-customary');
+    document.body.innerHTML = '';
+    const pinia = createPinia();
+    setActivePinia(pinia);
+    store = useDeckStore();
+    store.startNew(1, 'SI', 'precast-one-span');
+    wrapper = mount(DeckEditor, { global: { plugins: [pinia] }, attachTo: document.body });
+    await flushPromises();
+    expect(store.draft.designValues).toBe('si-edition');
+    // another starting deck keeps the choice
+    store.useTemplate('steel-three-span');
+    expect(store.draft.designValues).toBe('si-edition');
+  });
+
+  it('switches between the SI edition and the converted US values; the lanes shown follow', async () => {
+    await openPanel('policy');
+    const group = wrapper.find('[data-test="design-values"]');
+    expect(wrapper.find(`#${group.attributes('aria-labelledby')}`).text()).toBe('Design values');
+    await wrapper.find('[data-test="design-values-si"] input').trigger('change');
+    await flushPromises();
+    expect(store.draft.designValues).toBe('si-edition');
+    expect(store.issues).toEqual([]);
+    store.units = 'SI';
+    await flushPromises();
+    const summary = wrapper.find('[data-test="design-values-summary"]').text();
+    expect(summary).toContain('Design lane 3.600 m');
+    expect(summary).toContain('35.0 kN, 145.0 kN, 145.0 kN');
+    await openPanel('roadway');
+    expect(wrapper.find('[data-test="design-lanes"]').text()).toContain('3.600 m');
+    await wrapper.find('[data-test="design-values-us"] input').trigger('change');
+    await flushPromises();
+    expect(store.draft.designValues).toBe('us-customary');
+    expect(wrapper.find('[data-test="design-values-summary"]').text()).toContain(`Design lane ${(12 * 0.3048).toFixed(3)} m`);
+  });
+});

@@ -6,6 +6,8 @@
  * (NIST SP 811 and the AASHTO LRFD editions' symbols; common practice, no source). An SI
  * package may give, in brackets and labelled "in the formula", the US customary value an
  * empirical formula of the US customary edition works with; those are allowed and counted.
+ * In the SI project each deck is also saved with the SI edition's design values (deck field
+ * designValues, shared/loads/designValues.ts), whose traces name their own loads and lanes.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
@@ -47,8 +49,12 @@ beforeAll(async () => {
 afterAll(() => ctx.close());
 
 describe.each(exampleDecks())('$name', ({ deck }) => {
-  it.each(['US', 'SI'] as const)('in a %s project, the package and the CSV tables print its units only, and no exponent', async (units) => {
-    const saved = await send.post(designer, `/api/projects/${projects[units]}/decks`, { deck, message: 'unit check' });
+  it.each([
+    ['US', 'us-customary'],
+    ['SI', 'us-customary'],
+    ['SI', 'si-edition'],
+  ] as const)('in a %s project with the %s design values, the package and the CSV tables print its units only, and no exponent', async (units, designValues) => {
+    const saved = await send.post(designer, `/api/projects/${projects[units]}/decks`, { deck: { ...deck, designValues }, message: 'unit check' });
     expect(saved.status, JSON.stringify(saved.body)).toBe(201);
     const base = `/api/reports/decks/${saved.body.deck.id}/versions/1`;
     const pdf = await designer.get(`${base}/package.pdf`).buffer(true).parse(binary);

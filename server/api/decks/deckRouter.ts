@@ -11,6 +11,12 @@ import { pageQuery } from '../pagination.js';
 type StorageConfig = Pick<Config, 'firmStorageQuotaBytes'>;
 const policyOf = (config: StorageConfig): StoragePolicy => ({ firmQuotaBytes: config.firmStorageQuotaBytes });
 
+/** Whether the request's deck named its design values: the raw body tells (the parsed deck has the schema's default). */
+function designValuesGiven(body: unknown): boolean {
+  const deck = (body as { deck?: unknown } | undefined)?.deck;
+  return typeof deck === 'object' && deck !== null && (deck as { designValues?: unknown }).designValues !== undefined;
+}
+
 export function projectDecksRouter(db: Db, config: StorageConfig): Router {
   const r = Router({ mergeParams: true });
   r.get('/', allow('project:read'), validate({ params: idParams('projectId') }), (req, res) => {
@@ -32,7 +38,7 @@ export function deckRouter(db: Db, config: StorageConfig): Router {
     res.json({ versions, page });
   });
   r.post('/:deckId/versions', allow('deck:save'), validate({ params: idParams('deckId'), body: versionCreateBody }), (req, res) => {
-    res.status(201).json({ version: saveVersion(db, req.user!, res.locals.params.deckId, res.locals.body, policyOf(config)) });
+    res.status(201).json({ version: saveVersion(db, req.user!, res.locals.params.deckId, res.locals.body, policyOf(config), { designValuesGiven: designValuesGiven(req.body) }) });
   });
   r.get('/:deckId/versions/:number', allow('project:read'), validate({ params: versionParams, query: versionQuery }), (req, res) => {
     res.json({ version: getVersion(db, req.user!, res.locals.params.deckId, res.locals.params.number, res.locals.query.include === 'results') });

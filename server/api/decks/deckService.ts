@@ -194,6 +194,12 @@ function insertVersion(tx: Tx, deckId: number, actor: Actor, input: SaveInput, s
   return v;
 }
 
+/**
+ * Creates a deck and its first version. A deck that does not name its design values has the
+ * schema's default, the converted US customary ones, as every deck stored before the field
+ * (shared/loads/designValues.ts); the workspace names the SI edition's for a new deck of an SI
+ * project (src/stores/useDeckStore.ts startNew).
+ */
 export function createDeck(db: Db, actor: Actor, projectId: number, input: SaveInput, policy: StoragePolicy = defaultPolicy) {
   const project = findProject(db, actor.firmId, projectId);
   if (project.archived) throw ApiError.conflict('the project is archived: restore it before adding decks');
@@ -208,10 +214,21 @@ export function createDeck(db: Db, actor: Actor, projectId: number, input: SaveI
   return { deck: deckSummary(db, d), version: fullVersion(db, v) };
 }
 
-export function saveVersion(db: Db, actor: Actor, deckId: number, input: SaveInput, policy: StoragePolicy = defaultPolicy) {
+/** The design values a stored version was computed with (a deck stored before the field: the US customary ones). */
+function storedDesignValues(v: DeckVersionRow): Deck['designValues'] {
+  return (JSON.parse(v.deckJson) as Partial<Deck>).designValues === 'si-edition' ? 'si-edition' : 'us-customary';
+}
+
+/**
+ * Saves a new version. `designValuesGiven: false` (the request's deck did not name its design
+ * values): the version keeps the deck's latest version's, so a save that leaves the field out
+ * never switches a deck's values.
+ */
+export function saveVersion(db: Db, actor: Actor, deckId: number, given: SaveInput, policy: StoragePolicy = defaultPolicy, options: { designValuesGiven?: boolean } = {}) {
   const d = findDeck(db, actor.firmId, deckId);
   const project = findProject(db, actor.firmId, d.projectId);
   if (project.archived) throw ApiError.conflict('the project is archived: restore it before saving');
+  const input = options.designValuesGiven === false ? { ...given, deck: { ...given.deck, designValues: storedDesignValues(latestVersion(db, deckId)) } } : given;
   if (input.basedOnVersionId !== undefined) {
     const base = db.select().from(deckVersions).where(and(eq(deckVersions.id, input.basedOnVersionId), eq(deckVersions.deckId, deckId))).get();
     if (!base) throw ApiError.badRequest('basedOnVersionId: no such version of this deck', [{ path: 'body.basedOnVersionId', message: 'no such version of this deck' }]);

@@ -45,7 +45,7 @@ export interface ExpectedAnswer {
   /** Truck-position questions: the governing placement, its wheel lines (m) and the roadway. */
   placement?: Placement;
   wheelLines?: [number, number][];
-  roadway?: { curbLeft: number; curbRight: number; laneWidth: number; laneCount: number; girderOffsets: number[] };
+  roadway?: { curbLeft: number; curbRight: number; laneWidth: number; laneCount: number; girderOffsets: number[]; gauge?: number; wheelToLaneEdge?: number };
 }
 
 /** Where a factor's skew correction stands in the question: absent (no correction at this place), included, or left out. */
@@ -216,7 +216,7 @@ export function expectedTruckPosition(deck: Deck, p: TruckPositionParams): Expec
     loadedLanes: best.loadedLanes,
     placement: best.placement,
     wheelLines: wl,
-    roadway: { curbLeft: rules.curbLeft, curbRight: rules.curbRight, laneWidth: rules.laneWidth, laneCount: rules.laneCount, girderOffsets: g.offsets },
+    roadway: { curbLeft: rules.curbLeft, curbRight: rules.curbRight, laneWidth: rules.laneWidth, laneCount: rules.laneCount, girderOffsets: g.offsets, gauge: rules.gauge, wheelToLaneEdge: rules.wheelToLaneEdge },
   };
 }
 

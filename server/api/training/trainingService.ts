@@ -95,7 +95,7 @@ function presentAssignment(db: Db, a: AssignmentRow, withAnswer: boolean) {
     /** When and by whom the exercise was opened to all (answer and results shown to every trainee), or null. */
     openedToAll: a.resultsOpenedAt ? { at: a.resultsOpenedAt, by: userRef(db, a.resultsOpenedBy) } : null,
     /** What the trainee needs to draw the roadway for a placement (never the answer). */
-    roadway: expected.roadway ? { curbLeft: expected.roadway.curbLeft, curbRight: expected.roadway.curbRight, laneWidth: expected.roadway.laneWidth, laneCount: expected.roadway.laneCount, girderOffsets: expected.roadway.girderOffsets } : null,
+    roadway: expected.roadway ? { curbLeft: expected.roadway.curbLeft, curbRight: expected.roadway.curbRight, laneWidth: expected.roadway.laneWidth, laneCount: expected.roadway.laneCount, girderOffsets: expected.roadway.girderOffsets, gauge: expected.roadway.gauge, wheelToLaneEdge: expected.roadway.wheelToLaneEdge } : null,
     expected: withAnswer ? expected : null,
     caution: CAUTION,
   };

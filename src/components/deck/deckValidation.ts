@@ -6,6 +6,7 @@
 import { DeckInputError, parseDeck, type Deck, type DeckIssue } from '@shared/deck/schema';
 import { deckGeometry } from '@shared/deck/geometry';
 import { designLanes } from '@shared/lrfd/lanes';
+import { designValuesOf } from '@shared/loads/designValues';
 import { pathKey } from './deckPaths';
 
 export interface DeckValidation {
@@ -25,7 +26,7 @@ export function validateDeck(draft: unknown): DeckValidation {
     issues = [];
     try {
       const geometry = deckGeometry(parsed.deck);
-      designLanes(geometry.roadwayWidth);
+      designLanes(geometry.roadwayWidth, designValuesOf(parsed.deck));
       deck = parsed.deck;
     } catch (error) {
       if (!(error instanceof DeckInputError)) throw error;
@@ -96,6 +97,7 @@ export function describePath(path: readonly (string | number)[]): string {
     barrierLeft: 'Left barrier',
     barrierRight: 'Right barrier',
     roadwayWidth: 'Roadway',
+    designValues: 'Design values',
     slab: 'Slab',
     section: 'Girder section',
     materials: 'Materials',

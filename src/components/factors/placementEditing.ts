@@ -7,14 +7,18 @@
  * Units: m; y from girder 1's centreline (positive right), x along girder 1 from support 0.
  */
 import { clampPlacement, laneLeftMin, type LanePlacement, type PlacementRules } from '@shared/placement/rules';
-import { DESIGN_TANDEM, DESIGN_TRUCK, FATIGUE_TRUCK, type Vehicle } from '@shared/loads/vehicles';
+import type { Vehicle } from '@shared/loads/vehicles';
+import { designValuesOf, US_CUSTOMARY_VALUES, vehicleOf } from '@shared/loads/designValues';
 import type { VehicleKey } from '@/stores/useDeckStore';
 
-export const VEHICLE_BY_KEY: Record<VehicleKey, Vehicle> = {
-  'design truck': DESIGN_TRUCK,
-  'design tandem': DESIGN_TANDEM,
-  'fatigue truck': FATIGUE_TRUCK,
-};
+/**
+ * The vehicle of `key` in the design values the rules were made with (`rules.designValues`,
+ * shared/placement/rules.ts; without rules, a deck's): the SI edition's 35/145/145 kN truck on
+ * an SI-edition deck, the 8/32/32 kip truck otherwise.
+ */
+export function vehicleFor(key: VehicleKey, source: { designValues?: PlacementRules['designValues'] } | null | undefined): Vehicle {
+  return vehicleOf(source ? designValuesOf(source) : US_CUSTOMARY_VALUES, key) ?? US_CUSTOMARY_VALUES.truck;
+}
 
 export interface LongitudinalDefault {
   frontAxleAt: number;
@@ -45,7 +49,8 @@ function withVehicle(lane: LanePlacement, vehicle: Vehicle): LanePlacement {
 
 /**
  * `count` loaded lanes: the existing ones kept (left to right), new ones added side by side to
- * their right (or from the left curb), each with its wheels 2 ft from its left edge and the
+ * their right (or from the left curb), each with its wheels the least distance (2 ft, SI edition
+ * 600 mm) from its left edge and the
  * given longitudinal position; then the rules.
  */
 export function layoutLanes(count: number, existing: LanePlacement[], ctx: PlacementContext, longitudinal: LongitudinalDefault): LanePlacement[] {
