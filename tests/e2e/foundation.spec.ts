@@ -39,7 +39,7 @@ describe('foundation in the browser', () => {
       );
     });
     await page.goto(h.url('/sign-in'));
-    await page.locator('input[data-test="email"]').waitFor();
+    await page.getByLabel('E-mail', { exact: true }).waitFor();
     await page.waitForLoadState('networkidle');
     const scripts = (await Promise.all(sizes)).filter((r) => r.js);
     const total = scripts.reduce((a, r) => a + r.bytes, 0);
@@ -68,13 +68,19 @@ describe('foundation in the browser', () => {
     // The form's own check, before anything is sent.
     await page.locator('button[data-test="sign-in"]').click();
     await page.getByText('Enter your e-mail address.').waitFor();
+    // the refusal is tied to its box: marked invalid, described by the announced message
+    const email = page.getByLabel('E-mail', { exact: true });
+    expect(await email.getAttribute('aria-invalid')).toBe('true');
+    const described = await email.getAttribute('aria-describedby');
+    const message = page.locator(`[role="alert"] [id="${described}"]`);
+    expect(await message.innerText()).toBe('Enter your e-mail address.');
     await h.screenshot('01-sign-in-empty-fields');
   });
 
   it('refuses a wrong password with a readable message', async () => {
     const { page } = h;
-    await page.locator('input[data-test="email"]').fill(DEMO_USERS.designer);
-    await page.locator('input[data-test="password"]').fill('not-the-password');
+    await page.getByLabel('E-mail', { exact: true }).fill(DEMO_USERS.designer);
+    await page.getByLabel('Password', { exact: true }).fill('not-the-password');
     await page.locator('button[data-test="sign-in"]').click();
     const alert = page.locator('[data-test="signin-error"]');
     await alert.waitFor();
@@ -102,11 +108,12 @@ describe('foundation in the browser', () => {
     // An empty name is refused beside the field, before anything is sent.
     await dialog.locator('button[data-test="create-project"]').click();
     await dialog.getByText('Give the project a name.').waitFor();
-    await dialog.locator('input[data-test="project-name"]').fill(name);
-    await dialog.locator('input[data-test="project-agency"]').fill('Harlow County Highway Department');
-    await dialog.locator('input[data-test="project-location"]').fill('Mill Race Road, mile 3.2');
-    await dialog.locator('[data-test="project-units"]').getByText('SI (metric)').click();
-    await dialog.locator('textarea[data-test="project-notes"]').fill('Single-span box culvert replacement study.');
+    await dialog.getByLabel('Name', { exact: true }).fill(name);
+    await dialog.getByLabel('Owner agency', { exact: true }).fill('Harlow County Highway Department');
+    await dialog.getByLabel('Location', { exact: true }).fill('Mill Race Road, mile 3.2');
+    // the units choice is a group named by its label; its buttons are named by their text
+    await dialog.getByLabel('Preferred units', { exact: true }).getByText('SI (metric)', { exact: true }).click();
+    await dialog.getByLabel('Notes', { exact: true }).fill('Single-span box culvert replacement study.');
     await h.screenshot('02-new-project-form');
     await dialog.locator('button[data-test="create-project"]').click();
     await dialog.waitFor({ state: 'hidden' });
@@ -118,10 +125,10 @@ describe('foundation in the browser', () => {
     expect(await row.innerText()).toContain('SI (metric)');
 
     // Search narrows the list to the new project (by location text).
-    await page.locator('[data-test="project-search"] input, input[data-test="project-search"]').first().fill('mile 3.2');
+    await page.getByLabel('Search projects', { exact: true }).fill('mile 3.2');
     await expect(table.locator('tbody tr.ant-table-row').count()).resolves.toBe(1);
     await h.screenshot('03-projects-after-create');
-    await page.locator('[data-test="project-search"] input, input[data-test="project-search"]').first().fill('');
+    await page.getByLabel('Search projects', { exact: true }).fill('');
 
     // The project view shows the same text, and the audit trail records the creation.
     await row.locator('a').first().click();
@@ -136,7 +143,7 @@ describe('foundation in the browser', () => {
 
   it('lets the designer rename, archive and restore the project', async () => {
     const { page } = h;
-    const nameInput = page.locator('input[data-test="project-name"]');
+    const nameInput = page.getByLabel('Name', { exact: true });
     const renamed = `Mill Race Culvert (renamed ${Date.now()})`;
     await nameInput.fill(renamed);
     await page.locator('button[data-test="save-project"]').click();
@@ -204,9 +211,9 @@ describe('foundation in the browser', () => {
     await page.locator('button[data-test="new-user"]').click();
     const dialog = page.locator('.ant-modal', { hasText: 'New user' });
     await dialog.waitFor();
-    await dialog.locator('input[data-test="user-email"]').fill(email);
-    await dialog.locator('input[data-test="user-name"]').fill('Morgan Feld');
-    await dialog.locator('[data-role="reviewer"]').click();
+    await dialog.getByLabel('E-mail', { exact: true }).fill(email);
+    await dialog.getByLabel('Name', { exact: true }).fill('Morgan Feld');
+    await dialog.getByLabel('Roles', { exact: true }).getByLabel('Reviewer').check();
     await dialog.locator('.ant-btn-primary', { hasText: 'Create user' }).click();
     const handover = page.locator('[data-test="temporary-password"]');
     await handover.waitFor();
@@ -225,14 +232,17 @@ describe('foundation in the browser', () => {
     // Every other screen sends the user back here until the password is changed.
     await page.goto(h.url('/projects'));
     await page.waitForURL(/\/change-password$/);
-    await page.locator('input[data-test="current-password"]').fill(temporary);
-    await page.locator('input[data-test="new-password"]').fill('short');
-    await page.locator('input[data-test="confirm-password"]').fill('short');
+    const newPassword = page.getByLabel('New password', { exact: true });
+    const confirm = page.getByLabel('New password again', { exact: true });
+    await page.getByLabel('Current password', { exact: true }).fill(temporary);
+    await newPassword.fill('short');
+    await confirm.fill('short');
     await page.locator('button[data-test="save-password"]').click();
     await page.getByText('The new password needs at least 10 characters.').waitFor();
+    expect(await newPassword.getAttribute('aria-invalid')).toBe('true');
     await h.screenshot('08-change-password');
-    await page.locator('input[data-test="new-password"]').fill('morgan-own-password-1');
-    await page.locator('input[data-test="confirm-password"]').fill('morgan-own-password-1');
+    await newPassword.fill('morgan-own-password-1');
+    await confirm.fill('morgan-own-password-1');
     await page.locator('button[data-test="save-password"]').click();
     await page.waitForURL(/\/projects$/);
     await page.locator('[data-test="projects-table"] tbody tr.ant-table-row').first().waitFor();

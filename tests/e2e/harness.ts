@@ -16,7 +16,7 @@ import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type BrowserContext, type Locator, type Page } from 'playwright-core';
 
 export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
 export const SCREENSHOT_DIR = join(ROOT, 'tests/e2e/screenshots');
@@ -223,10 +223,26 @@ export async function startHarness(options: HarnessOptions = {}): Promise<Harnes
 /** Signs in through the sign-in form and waits until the app has left the sign-in screen. */
 export async function signIn(page: Page, baseUrl: string, email: string, password: string = DEMO_PASSWORD): Promise<void> {
   if (!page.url().includes('/sign-in')) await page.goto(`${baseUrl}/sign-in`);
-  await page.locator('input[data-test="email"]').fill(email);
-  await page.locator('[data-test="password"] input, input[data-test="password"]').first().fill(password);
+  // the fields by their labels, as a user (and a screen reader) finds them
+  await page.getByLabel('E-mail', { exact: true }).fill(email);
+  await page.getByLabel('Password', { exact: true }).fill(password);
   await page.locator('button[data-test="sign-in"]').click();
   await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}
+
+/** The box of an ant-design Select whose combobox has this label (it shows the chosen value). */
+export function selectByLabel(page: Page, label: string, scope: Page | Locator = page): Locator {
+  return scope.locator('.ant-select', { has: page.getByLabel(label, { exact: true }) });
+}
+
+/**
+ * Picks an option of an ant-design Select found by its label: clicks the Select box that holds
+ * the labelled combobox (the box's shown value lies over the combobox input itself), then the
+ * open list's option with this text. `scope` narrows the label's search (a dialog, say).
+ */
+export async function chooseByLabel(page: Page, label: string, option: string, scope: Page | Locator = page): Promise<void> {
+  await selectByLabel(page, label, scope).click();
+  await page.locator('.ant-select-dropdown:not(.ant-select-dropdown-hidden) .ant-select-item-option', { hasText: option }).first().click();
 }
 
 /** Signs out through the user menu and waits for the sign-in screen. */

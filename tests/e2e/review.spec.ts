@@ -11,16 +11,20 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, signIn, signOut, startHarness, type Harness } from './harness';
+import { CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, chooseByLabel, selectByLabel, signIn, signOut, startHarness, type Harness } from './harness';
 import { quarryCreekDeck } from '../fixtures/decks';
 import { api } from './pageApi';
 
 const DECK_NAME = `Quarry Creek review deck ${Date.now()}`;
 
-/** Picks an option of an ant-design Select by its visible text. */
-async function choose(page: Page, testId: string, text: string): Promise<void> {
-  await page.locator(`[data-test="${testId}"]`).click();
-  await page.locator('.ant-select-dropdown:not(.ant-select-dropdown-hidden) .ant-select-item-option', { hasText: text }).first().click();
+/**
+ * Chooses a file through the upload button with this text, as a user does: the button opens
+ * the browser's file chooser (its file input is hidden inside the button).
+ */
+async function chooseFile(page: Page, button: string, file: { name: string; mimeType: string; buffer: Buffer }): Promise<void> {
+  // (the button's name also reads its icon: "upload Choose a CSV file")
+  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: button }).last().click()]);
+  await chooser.setFiles(file);
 }
 
 /** Calls the API from inside the signed-in page (same cookies, CSRF header from the cookie). */
@@ -61,11 +65,12 @@ describe('review round trip in the browser', () => {
     await designer.locator('nav[aria-label="Main"] a', { hasText: 'Reviews' }).waitFor();
     await designer.locator('[data-test="new-review"]').click();
     await designer.waitForURL(/\/reviews\/new/);
-    await choose(designer, 'submit-project', 'Quarry Creek Overpass');
-    await choose(designer, 'submit-deck', DECK_NAME);
+    // Every field found by its label.
+    await chooseByLabel(designer, 'Project', 'Quarry Creek Overpass');
+    await chooseByLabel(designer, 'Deck', DECK_NAME);
     await designer.locator('[data-test="submit-version"]').getByText('Version 1').waitFor();
-    await choose(designer, 'submit-reviewer', 'Ruth Castellanos');
-    await designer.locator('[data-test="submit-note"]').fill('Please check the exterior girder factors.');
+    await chooseByLabel(designer, 'Reviewer', 'Ruth Castellanos');
+    await designer.getByLabel('Note to the reviewer (optional)', { exact: true }).fill('Please check the exterior girder factors.');
     await h.screenshot('review-01-submit-form', designer);
     await designer.locator('[data-test="submit-review"]').click();
     await designer.waitForURL(/\/reviews\/\d+$/);
@@ -92,18 +97,25 @@ describe('review round trip in the browser', () => {
     expect(await reviewer.getByText('licensed engineer').count()).toBe(1);
     expect(await summary.locator('[data-test="no-range-findings"]').count()).toBe(1);
 
-    await reviewer.locator('[data-test="comment-body"]').fill('Check the lever-rule wheel position over girder 1.');
-    await reviewer.getByText('About one value').click();
-    await choose(reviewer, 'anchor-girder', 'Girder 1');
-    await choose(reviewer, 'anchor-effect', 'moment');
+    await reviewer.getByLabel('Your comment', { exact: true }).fill('Check the lever-rule wheel position over girder 1.');
+    await reviewer.getByLabel('About one value', { exact: true }).check();
+    await chooseByLabel(reviewer, 'Girder', 'Girder 1');
+    await chooseByLabel(reviewer, 'Effect', 'moment');
     await reviewer.locator('[data-test="send-comment"]').click();
     await reviewer.locator('[data-test="comment-anchor"]', { hasText: 'girder 1, moment' }).waitFor();
 
-    await reviewer.locator('[data-test="refined-no"]').click();
-    await reviewer.locator('[data-test="refined-reason"]').fill('Every formula within its range; skew 20°, below 30°.');
+    // Recording the decision without a reason is refused, tied to the reason's box.
+    const reason = reviewer.getByLabel('Reason for the refined-analysis decision', { exact: true });
+    await reviewer.getByLabel('Refined analysis not justified', { exact: true }).check();
+    await reviewer.locator('[data-test="record-refined"]').click();
+    await reviewer.getByRole('alert').filter({ hasText: 'Give the reason for the refined-analysis decision.' }).waitFor();
+    expect(await reason.getAttribute('aria-invalid')).toBe('true');
+    const describedBy = await reason.getAttribute('aria-describedby');
+    expect(await reviewer.locator(`[id="${describedBy}"]`).getAttribute('role')).toBe('alert');
+    await reason.fill('Every formula within its range; skew 20°, below 30°.');
     await reviewer.locator('[data-test="record-refined"]').click();
     await reviewer.locator('[data-test="refined-recorded"]').waitFor();
-    await reviewer.locator('[data-test="decision-note"]').fill('Answer the comment and reduce the left overhang.');
+    await reviewer.getByLabel('Note to the designer (required to send back)', { exact: true }).fill('Answer the comment and reduce the left overhang.');
     await h.screenshot('review-02-reviewer-page', reviewer);
     await reviewer.locator('[data-test="send-back"]').click();
     await reviewer.locator('[data-test="sent-back-banner"]').waitFor();
@@ -115,7 +127,7 @@ describe('review round trip in the browser', () => {
     await designer.locator('[data-test="sent-back-banner"]').waitFor();
     const comment = designer.locator('[data-test="comments"] > li').first();
     await comment.locator('button', { hasText: 'Answer' }).click();
-    await designer.locator('[data-test="answer-body"]').fill('The outer wheel is 2 ft from the barrier face, over girder 1 (Art. 3.6.1.3.1). Overhang reduced in version 2.');
+    await designer.getByLabel('Your answer', { exact: true }).fill('The outer wheel is 2 ft from the barrier face, over girder 1 (Art. 3.6.1.3.1). Overhang reduced in version 2.');
     await designer.locator('[data-test="send-answer"]').click();
     await designer.getByText('Overhang reduced in version 2.').waitFor();
 
@@ -125,7 +137,7 @@ describe('review round trip in the browser', () => {
     await designer.locator('[data-test="resubmit"]').click();
     await designer.waitForURL(/\/reviews\/new\?/);
     await designer.locator('[data-test="submit-version"]').getByText('Version 2').waitFor();
-    await designer.locator('[data-test="submit-reviewer"]').getByText('Ruth Castellanos').waitFor();
+    await selectByLabel(designer, 'Reviewer').getByText('Ruth Castellanos').waitFor();
     await designer.locator('[data-test="submit-review"]').click();
     await designer.waitForURL((u) => /\/reviews\/\d+$/.test(u.pathname) && u.href !== firstReviewUrl);
     expect(await designer.locator('[data-test="review-title"]').innerText()).toBe(`${DECK_NAME}, version 2`);
@@ -138,8 +150,8 @@ describe('review round trip in the browser', () => {
     await row.locator('a').first().click();
     await reviewer.locator('[data-test="refined-summary"]').waitFor();
     expect(await reviewer.getByText('Earlier rounds of this deck').count()).toBe(1);
-    await reviewer.locator('[data-test="refined-no"]').click();
-    await reviewer.locator('[data-test="refined-reason"]').fill('Within every range; no refined analysis needed.');
+    await reviewer.getByLabel('Refined analysis not justified', { exact: true }).check();
+    await reviewer.getByLabel('Reason for the refined-analysis decision', { exact: true }).fill('Within every range; no refined analysis needed.');
     await reviewer.locator('[data-test="record-refined"]').click();
     await reviewer.locator('[data-test="refined-recorded"]').waitFor();
     await reviewer.locator('[data-test="approve"]').click();
@@ -209,12 +221,15 @@ describe('review round trip in the browser', () => {
     // The reviewer's browser stands in for the new user's: the link signs them in.
     await reviewer.goto(link!);
     await reviewer.getByText('Welcome, ').waitFor();
-    await reviewer.locator('[data-test="new-password"]').fill('short');
-    await reviewer.locator('[data-test="repeat-password"]').fill('short');
+    const password = reviewer.getByLabel('New password (at least 10 characters)', { exact: true });
+    const repeat = reviewer.getByLabel('The same password again', { exact: true });
+    await password.fill('short');
+    await repeat.fill('short');
     await reviewer.locator('[data-test="set-password"]').click();
     await reviewer.getByText('The password must have at least 10 characters.').waitFor();
-    await reviewer.locator('[data-test="new-password"]').fill('noor-chose-this-1');
-    await reviewer.locator('[data-test="repeat-password"]').fill('noor-chose-this-1');
+    expect(await password.getAttribute('aria-invalid')).toBe('true');
+    await password.fill('noor-chose-this-1');
+    await repeat.fill('noor-chose-this-1');
     await h.screenshot('review-05-set-password', reviewer);
     await reviewer.locator('[data-test="set-password"]').click();
     await reviewer.waitForURL(/\/projects$/);
@@ -233,15 +248,13 @@ describe('review round trip in the browser', () => {
     await designer.locator('[data-test="drawings"]').waitFor();
     // A 1 × 1 PNG (the smallest valid one: signature, IHDR, IDAT, IEND).
     const png = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010806000000' + '1f15c4890000000d49444154789c6360000002000100e221bc330000000049454e44ae426082', 'hex');
-    await designer.locator('[data-test="drawing-title"]').fill('General arrangement, sheet 2');
-    await designer.locator('[data-test="drawing-upload"] input[type="file"]').setInputFiles({ name: 'ga-sheet-2.png', mimeType: 'image/png', buffer: png });
+    await designer.getByLabel('Title of the drawing (optional)', { exact: true }).fill('General arrangement, sheet 2');
+    await chooseFile(designer, 'Attach PDF, PNG or JPEG', { name: 'ga-sheet-2.png', mimeType: 'image/png', buffer: png });
     await designer.locator('[data-test="drawings"] tbody tr', { hasText: 'General arrangement, sheet 2' }).waitFor();
     await designer.locator('[data-test="import-girders"]').click();
     await designer.locator('[data-test="girder-import"]').waitFor();
-    await choose(designer, 'import-deck', DECK_NAME);
-    // The component library's upload control (its file input sits inside it).
-    const file = designer.locator('[data-test="csv-upload"] input[type="file"]');
-    await file.setInputFiles({ name: 'girders.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft,inertia_in4\n1,,545894\n2,9.6667,abc\n3,-9.5,\n') });
+    await chooseByLabel(designer, 'Deck to import into', DECK_NAME);
+    await chooseFile(designer, 'Choose a CSV file', { name: 'girders.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft,inertia_in4\n1,,545894\n2,9.6667,abc\n3,-9.5,\n') });
     await designer.locator('[data-test="check-csv"]').click();
     const error = designer.locator('[data-test="import-error"]');
     await error.waitFor();
@@ -250,7 +263,7 @@ describe('review round trip in the browser', () => {
     expect(text).toContain('row 3, column inertia_in4: “abc” is not a number');
     expect(text).toContain('row 4, column spacing_ft: the spacing must be greater than 0 (got -9.5)');
     await h.screenshot('review-06-csv-errors', designer);
-    await file.setInputFiles({ name: 'girders-fixed.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft\n1,\n2,9.5\n3,9.5\n4,9.5\n5,9.5\n6,9.5\n') });
+    await chooseFile(designer, 'Choose a CSV file', { name: 'girders-fixed.csv', mimeType: 'text/csv', buffer: Buffer.from('girder,spacing_ft\n1,\n2,9.5\n3,9.5\n4,9.5\n5,9.5\n6,9.5\n') });
     // One file at a time: the new one replaces the first in the list.
     await expect.poll(() => designer.locator('[data-test="girder-import"] .ant-upload-list-item:not(.ant-upload-animate-leave)').allInnerTexts()).toEqual([expect.stringContaining('girders-fixed.csv')]);
     await designer.locator('[data-test="import-csv"]').click();

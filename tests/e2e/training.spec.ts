@@ -14,7 +14,7 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, signIn, signOut, startHarness, type Harness } from './harness';
+import { CHROMIUM_ARGS, CHROMIUM_PATH, DEMO_USERS, chooseByLabel, selectByLabel, signIn, signOut, startHarness, type Harness } from './harness';
 import { quarryCreekDeck, quarryCreekUs } from '../fixtures/decks';
 
 const DECK_NAME = `Training deck ${Date.now()}`;
@@ -23,15 +23,6 @@ const DECK_NAME = `Training deck ${Date.now()}`;
 const S = quarryCreekUs.girders.spacing;
 const LEVER = 1.2 * 0.5 * (1 + (S - 6) / S);
 
-async function choose(page: Page, testId: string, text: string): Promise<void> {
-  await page.locator(`[data-test="${testId}"]`).click();
-  await page.locator('.ant-select-dropdown:not(.ant-select-dropdown-hidden) .ant-select-item-option', { hasText: text }).first().click();
-}
-
-/** An ant-design InputNumber's input, whether the test id lands on the input or its wrapper. */
-function numberField(page: Page, testId: string) {
-  return page.locator(`input[data-test="${testId}"], [data-test="${testId}"] input`).first();
-}
 
 describe('training exercise in the browser', () => {
   let h: Harness;
@@ -72,14 +63,15 @@ describe('training exercise in the browser', () => {
     await instructor.goto(h.url('/training'));
     await instructor.locator('[data-test="new-exercise"]').click();
     await instructor.waitForURL(/\/training\/new$/);
-    await choose(instructor, 'exercise-project', 'Quarry Creek Overpass');
-    await choose(instructor, 'exercise-deck', DECK_NAME);
-    await instructor.locator('[data-test="exercise-version"]').getByText('Version 1').waitFor();
-    await choose(instructor, 'exercise-question', 'The governing truck position for the exterior girder');
+    // Every field found by its label.
+    await chooseByLabel(instructor, 'Project', 'Quarry Creek Overpass');
+    await chooseByLabel(instructor, 'Deck', DECK_NAME);
+    await selectByLabel(instructor, 'Version').getByText('Version 1').waitFor();
+    await chooseByLabel(instructor, 'Question', 'The governing truck position for the exterior girder');
     await instructor.locator('[data-test="truck-params"]').waitFor();
-    await numberField(instructor, 'exercise-tolerance').fill('1');
-    await choose(instructor, 'exercise-trainees', 'Theo Brandt');
-    await instructor.locator('[data-test="exercise-instructions"]').fill('Place the wheels by the rules of Art. 3.6.1.3.1 and give the lever-rule factor.');
+    await instructor.getByLabel('Tolerance (%)', { exact: true }).fill('1');
+    await chooseByLabel(instructor, 'Trainees', 'Theo Brandt');
+    await instructor.getByLabel('Instructions (optional)', { exact: true }).fill('Place the wheels by the rules of Art. 3.6.1.3.1 and give the lever-rule factor.');
     await h.screenshot('training-01-new-exercise', instructor);
     await instructor.locator('[data-test="create-exercise"]').click();
     await instructor.waitForURL(/\/training\/\d+$/);
@@ -93,14 +85,14 @@ describe('training exercise in the browser', () => {
 
   it('a factor question says whether the skew correction is in the value, and a literal answer to it passes', async () => {
     await instructor.goto(h.url('/training/new'));
-    await choose(instructor, 'exercise-project', 'Quarry Creek Overpass');
-    await choose(instructor, 'exercise-deck', DECK_NAME);
-    await instructor.locator('[data-test="exercise-version"]').getByText('Version 1').waitFor();
-    await choose(instructor, 'exercise-question', 'The lever-rule factor for shear of the exterior girder, one lane, before');
+    await chooseByLabel(instructor, 'Project', 'Quarry Creek Overpass');
+    await chooseByLabel(instructor, 'Deck', DECK_NAME);
+    await selectByLabel(instructor, 'Version').getByText('Version 1').waitFor();
+    await chooseByLabel(instructor, 'Question', 'The lever-rule factor for shear of the exterior girder, one lane, before');
     const skew = instructor.locator('[data-test="exercise-skew"]');
     expect(await skew.innerText()).toContain('before the skew correction');
-    await numberField(instructor, 'exercise-tolerance').fill('1');
-    await choose(instructor, 'exercise-trainees', 'Theo Brandt');
+    await instructor.getByLabel('Tolerance (%)', { exact: true }).fill('1');
+    await chooseByLabel(instructor, 'Trainees', 'Theo Brandt');
     await instructor.keyboard.press('Escape'); // close the trainees' list, which stays open for more choices
     await h.screenshot('training-01b-new-factor-exercise', instructor);
     await instructor.locator('[data-test="create-exercise"]').click();
@@ -115,7 +107,7 @@ describe('training exercise in the browser', () => {
     await trainee.goto(url);
     expect(await trainee.locator('[data-test="exercise-question"]').innerText()).toBe(question);
     // The literal lever-rule answer (hand calculation: 1.2 · ½ (1 + (S − 6)/S) = 0.828).
-    await numberField(trainee, 'answer-value').fill('0.828');
+    await trainee.getByLabel('Your value of the factor (lanes per girder)', { exact: true }).fill('0.828');
     await trainee.locator('[data-test="submit-answer"]').click();
     await trainee.locator('[data-test="grade-banner"]').waitFor();
     expect(await trainee.locator('[data-test="grade-banner"]').innerText()).toContain('Within tolerance');
@@ -164,18 +156,25 @@ describe('training exercise in the browser', () => {
     await trainee.mouse.down();
     await trainee.mouse.move(box.x - 500, box.y + box.height / 2, { steps: 8 });
     await trainee.mouse.up();
-    await expect.poll(async () => Number(await numberField(trainee, 'lane-left-0').inputValue())).toBeCloseTo(-2, 3);
+    await expect.poll(async () => Number(await trainee.getByLabel('Lane 1 left edge from girder 1 (ft)', { exact: true }).inputValue())).toBeCloseTo(-2, 3);
     // Wheels 2 ft from the lane edge; the sketch refuses less (it clamps to the 2 ft rule).
-    const wheel = numberField(trainee, 'lane-wheel-0');
+    const wheel = trainee.getByLabel('Lane 1 left wheel from the lane edge (ft)', { exact: true });
     await wheel.fill('1');
     await wheel.press('Tab');
     await expect.poll(async () => Number(await wheel.inputValue())).toBeCloseTo(2, 3);
 
     expect(await trainee.locator('[data-test="answer-rule"]').innerText()).toMatch(/^You submit once: /);
-    await numberField(trainee, 'answer-value').fill(LEVER.toFixed(3));
+    // Submitting without a value is refused beside the value box, which is marked and described by it.
+    const value = trainee.getByLabel('Your value of the factor (lanes per girder)', { exact: true });
+    await trainee.locator('[data-test="submit-answer"]').click();
+    await trainee.getByRole('alert').filter({ hasText: 'Enter your value of the factor.' }).waitFor();
+    expect(await value.getAttribute('aria-invalid')).toBe('true');
+    expect(await value.getAttribute('aria-describedby')).toBe('answer-value-message');
+    await value.fill(LEVER.toFixed(3));
     await trainee.locator('[data-test="add-step"]').click();
-    await trainee.locator('[data-test="step-label-0"]').fill('Lane share, outer wheel over girder 1');
-    await numberField(trainee, 'step-value-0').fill((LEVER / 1.2).toFixed(4));
+    await trainee.getByLabel('Step 1: what it computes', { exact: true }).fill('Lane share, outer wheel over girder 1');
+    await trainee.getByLabel('Step 1: value', { exact: true }).fill((LEVER / 1.2).toFixed(4));
+    expect(await value.getAttribute('aria-invalid')).toBeNull();
     await h.screenshot('training-02-answer', trainee);
     await trainee.locator('[data-test="submit-answer"]').click();
     const banner = trainee.locator('[data-test="grade-banner"]');

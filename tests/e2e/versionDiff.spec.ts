@@ -35,7 +35,7 @@ describe('comparing two saved versions', () => {
     await page.goto(h.url(`/decks/${deckId}`));
     await page.locator('[data-test="version-tag"]').waitFor({ timeout: 60_000 });
     await page.locator('[data-test="save-deck"]:not([disabled])').click();
-    await page.locator('input[data-test="save-message"]').fill('Saved again, nothing changed');
+    await page.getByLabel('What changed', { exact: true }).fill('Saved again, nothing changed');
     await page.locator('.ant-modal .ant-btn-primary', { hasText: 'Save' }).click();
     await page.locator('.ant-message', { hasText: 'Saved version 2' }).waitFor({ timeout: 30_000 });
   });

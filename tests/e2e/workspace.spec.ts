@@ -10,7 +10,7 @@
  * Screenshots go to tests/e2e/screenshots/workspace-*.png.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Page } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 import { DEMO_USERS, signIn, startHarness, type Harness } from './harness';
 
 /**
@@ -121,6 +121,21 @@ async function comparisonValues(page: Page): Promise<Record<string, string>> {
   });
 }
 
+/**
+ * The problem a field is described by, as the browser has it: the text of the elements its
+ * aria-describedby names that sit in an announced region (role="alert"); '' when none.
+ */
+async function announcedProblem(field: Locator): Promise<string> {
+  return field.evaluate((el) =>
+    (el.getAttribute('aria-describedby') ?? '')
+      .split(/\s+/)
+      .map((id) => document.getElementById(id))
+      .filter((e): e is HTMLElement => e !== null && e.closest('[role="alert"]') !== null)
+      .map((e) => e.innerText.trim())
+      .join(' '),
+  );
+}
+
 async function chooseView(page: Page, label: string): Promise<void> {
   await page.locator('[data-test="scene-view"] label', { hasText: label }).click();
   await page.waitForTimeout(600);
@@ -150,14 +165,20 @@ describe('deck workspace in the browser', () => {
     await page.locator('[data-test="new-deck"]').click();
     await page.waitForURL(/\/projects\/\d+\/decks\/new$/);
     await page.locator('[data-test="deck-editor"]').waitFor();
-    await page.locator('input[data-test="field-name"]').fill('Main span, browser check');
-    // A problem appears beside its field as it is typed, and goes when fixed.
-    const spacing = page.locator('input[data-test="field-girders.spacing"]');
+    // Fields found by their labels (each label's `for` names its box).
+    await page.getByLabel('Deck name', { exact: true }).fill('Main span, browser check');
+    // A problem appears beside its field as it is typed, marks the box invalid and describes
+    // it (announced), and goes when fixed.
+    const spacing = page.getByLabel('Spacing S', { exact: true });
     await spacing.fill('-3');
     await page.locator('[data-field="girders.spacing"] .ant-form-item-explain', { hasText: 'girder spacing must be greater than 0' }).waitFor();
+    expect(await spacing.getAttribute('aria-invalid')).toBe('true');
+    expect(await announcedProblem(spacing)).toBe('girder spacing must be greater than 0');
     await page.locator('[data-test="deck-problems"]').waitFor();
     await spacing.fill('9.666667');
     await page.locator('[data-test="deck-problems"]').waitFor({ state: 'detached' });
+    expect(await spacing.getAttribute('aria-invalid')).toBeNull();
+    expect(await announcedProblem(spacing)).toBe('');
 
     await page.locator('[data-test="deck-scene"][data-ready="true"]').waitFor({ timeout: 60_000 });
     await waitForShares(page);
@@ -232,7 +253,7 @@ describe('deck workspace in the browser', () => {
   it('saves the deck with its placement, reloads and shows the same factors', async () => {
     const { page } = h;
     await page.locator('[data-test="save-deck"]').click();
-    await page.locator('input[data-test="save-message"]').fill('First version from the browser check');
+    await page.getByLabel('What changed', { exact: true }).fill('First version from the browser check');
     await page.locator('.ant-modal .ant-btn-primary', { hasText: 'Save' }).click();
     await page.waitForURL(/\/decks\/\d+$/);
     deckPath = new URL(page.url()).pathname;
@@ -258,19 +279,19 @@ describe('deck workspace in the browser', () => {
     await waitForRefined(page);
     expect(await comparisonValues(page)).toEqual(savedComparison);
     // Inputs of a saved version cannot be changed.
-    expect(await page.locator('input[data-test="field-girders.spacing"]').isDisabled()).toBe(true);
-    expect(await page.locator('input[data-test="field-name"]').isDisabled()).toBe(true);
+    expect(await page.getByLabel('Spacing S', { exact: true }).isDisabled()).toBe(true);
+    expect(await page.getByLabel('Deck name', { exact: true }).isDisabled()).toBe(true);
     await h.screenshot('workspace-05-read-only-version');
 
     await page.locator('[data-test="start-from-version"]').click();
     await page.waitForURL((url) => url.pathname === deckPath);
     await page.locator('[data-test="panel-slab"] .ant-collapse-header').click();
-    const thickness = page.locator('input[data-test="field-slab.thickness"]');
+    const thickness = page.getByLabel('Structural thickness ts', { exact: true });
     await thickness.waitFor();
     expect(await thickness.isDisabled()).toBe(false);
     await thickness.fill('9');
     await page.locator('[data-test="save-deck"]').click();
-    await page.locator('input[data-test="save-message"]').fill('Slab thickened to 9 in');
+    await page.getByLabel('What changed', { exact: true }).fill('Slab thickened to 9 in');
     await page.locator('.ant-modal .ant-btn-primary', { hasText: 'Save' }).click();
     await page.locator('.ant-message', { hasText: 'Saved version 2' }).waitFor();
 
@@ -287,7 +308,7 @@ describe('deck workspace in the browser', () => {
     // Any saved version can be the start of a new one: back to version 1's 8 in slab.
     await page.locator('[data-test="start-from-1"]').click();
     await page.locator('[data-test="version-tag"]', { hasText: 'from version 1' }).waitFor();
-    await expect.poll(() => page.locator('input[data-test="field-slab.thickness"]').inputValue()).toBe('8');
+    await expect.poll(() => page.getByLabel('Structural thickness ts', { exact: true }).inputValue()).toBe('8');
     expect(h.pageErrors.filter((e) => !e.includes('401'))).toEqual([]);
   });
 
@@ -355,7 +376,7 @@ describe('deck workspace in the browser', () => {
     };
     const oneLane = await measure();
     // Drag-path evaluations in the worker, from keyboard moves of a seven-lane placement.
-    await page.locator('[data-test="loaded-lanes"] label', { hasText: '7' }).click();
+    await page.getByLabel('Loaded lanes', { exact: true }).getByText('7', { exact: true }).click();
     await page.locator('[data-test="lane-list"]').focus();
     for (let i = 0; i < 40; i++) await page.keyboard.press(i % 2 ? 'Shift+ArrowRight' : 'Shift+ArrowLeft');
     await page.waitForTimeout(500);
