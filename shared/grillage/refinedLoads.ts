@@ -26,7 +26,8 @@ import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } fr
 import { uniformLoadEffect } from '../loads/movingLoad.js';
 import type { Sense } from '../placement/evaluate.js';
 import type { PlacementRules } from '../placement/rules.js';
-import { toUs } from '../units.js';
+import { fromUs } from '../units.js';
+import { lengthInText } from '../quantities/inText.js';
 
 /** One load a target is searched under: its vehicle in every loaded lane, with or without the lane load. */
 export interface TargetLoad {
@@ -70,7 +71,7 @@ export function strengthLoads(loading: RefinedLoading, overPier: boolean, maxHea
         label: 'HL-93 90 % of two trucks + lane',
         laneLoad: true,
         laneIntensity: TWO_TRUCK_REDUCTION * DESIGN_LANE_LOAD,
-        reason: `90 % of two design trucks (14 ft rear spacings, at least 50 ft apart) with ${Math.round(IM_STRENGTH_SERVICE * 100)} % dynamic load allowance and 90 % of the lane load, per loaded lane (Art. 3.6.1.3.1)`,
+        reason: `90 % of two design trucks (${lengthInText(fromUs.ft(14))} rear spacings, at least ${lengthInText(fromUs.ft(50))} apart) with ${Math.round(IM_STRENGTH_SERVICE * 100)} % dynamic load allowance and 90 % of the lane load, per loaded lane (Art. 3.6.1.3.1)`,
       });
     }
     return loads;
@@ -90,7 +91,7 @@ export function assertLoadingFits(loading: RefinedLoading, rules: PlacementRules
   if (loading !== 'hl93' || rules.laneWidth >= LANE_LOAD_WIDTH - 1e-9) return;
   throw new DeckInputError(
     ['refinedLoading'],
-    `the design lanes of this roadway are ${toUs.ft(rules.laneWidth).toFixed(2)} ft wide, narrower than the 10 ft width of the design lane load (Art. 3.6.1.2.4): choose 'design-truck' for the refined run`,
+    `the design lanes of this roadway are ${lengthInText(rules.laneWidth)} wide, narrower than the ${lengthInText(LANE_LOAD_WIDTH)} width of the design lane load (Art. 3.6.1.2.4): choose 'design-truck' for the refined run`,
   );
 }
 
