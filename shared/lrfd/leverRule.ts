@@ -18,12 +18,14 @@ import { DeckInputError } from '../deck/schema.js';
 import type { TraceStep } from '../trace.js';
 import { fromUs, toUs } from '../units.js';
 import { multiplePresenceFactor } from './lanes.js';
+import { closeOnGoverningCase } from './choice.js';
 
 /** Transverse spacing of the wheels of the design truck and tandem, 6 ft (Art. 3.6.1.2.2). */
 export const WHEEL_GAUGE = fromUs.ft(6);
 /** Least distance from a wheel centre to the edge of its design lane, 2 ft (Art. 3.6.1.3.1). */
 export const WHEEL_TO_LANE_EDGE = fromUs.ft(2);
 
+const LEVER_ARTICLE = 'AASHTO LRFD Art. 4.6.2.2.1 (lever rule), Art. 3.6.1.3.1 (wheel placement), Table 3.6.1.1.2-1';
 const EPS = 1e-9;
 
 export interface LeverRuleWheel {
@@ -265,11 +267,11 @@ export function leverRule(
     ],
     value: cs.value,
     kind: 'none',
-    article: 'AASHTO LRFD Art. 4.6.2.2.1 (lever rule), Art. 3.6.1.3.1 (wheel placement), Table 3.6.1.1.2-1',
+    article: LEVER_ARTICLE,
     note: `hinged at ${hingeText}; reaction ${cs.reaction.toFixed(4)} lanes before m${
       cs.trucksBeyondHinges ? `; ${cs.trucksBeyondHinges} more loaded lane${cs.trucksBeyondHinges > 1 ? 's stand' : ' stands'} beyond the hinges (ordinates 0)` : ''
     }`,
   }));
   const g = cases[governingCase];
-  return { value: g.value, loadedLanes: g.loadedLanes, worksheet, trace };
+  return { value: g.value, loadedLanes: g.loadedLanes, worksheet, trace: closeOnGoverningCase(trace, cases, g, 'Lever rule', LEVER_ARTICLE) };
 }
