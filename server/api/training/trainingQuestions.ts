@@ -20,6 +20,7 @@ import { checkPlacement, evaluateTransverse, governingTransversePlacement, lever
 import { ApiError } from '../../middleware/errors.js';
 import { lengthInText } from '../../../shared/quantities/inText.js';
 import { factorArticle } from '../reviews/versionResults.js';
+import { EFFECT_LABELS, factorText } from '../../../shared/lrfd/words.js';
 import type { FactorParams, PlacementInput, SubmissionBody, TruckPositionParams } from './trainingModel.js';
 
 export interface ExpectedAnswer {
@@ -42,15 +43,6 @@ export interface ExpectedAnswer {
   roadway?: { curbLeft: number; curbRight: number; laneWidth: number; laneCount: number; girderOffsets: number[] };
 }
 
-const EFFECT_WORDS: Record<string, string> = {
-  moment: 'moment',
-  'negative-moment': 'negative moment',
-  shear: 'shear',
-  reaction: 'reaction',
-  'fatigue-moment': 'fatigue moment',
-  'fatigue-shear': 'fatigue shear',
-  deflection: 'deflection',
-};
 const METHOD_WORDS: Record<string, string> = {
   governing: 'governing',
   formula: 'empirical-formula',
@@ -61,7 +53,7 @@ const METHOD_WORDS: Record<string, string> = {
 
 export function factorQuestion(p: FactorParams, locationText: string): string {
   const lanes = p.lanes === 'one' ? 'one loaded lane' : p.lanes === 'multiple' ? 'two or more loaded lanes' : 'the governing lane case';
-  const what = p.method === 'governing' ? `the governing ${EFFECT_WORDS[p.effect]} factor` : `the ${METHOD_WORDS[p.method]} ${EFFECT_WORDS[p.effect]} factor`;
+  const what = p.method === 'governing' ? `the governing ${EFFECT_LABELS[p.effect]} factor` : `the ${METHOD_WORDS[p.method]} ${EFFECT_LABELS[p.effect]} factor`;
   return `${what} of the ${p.girder} girder for ${lanes} (${locationText})`;
 }
 
@@ -81,8 +73,8 @@ export function expectedFactor(code: CodeFactorResult, p: FactorParams): Expecte
   const row = pickRow(code, p);
   if (!row) {
     const locations = [...new Set(code.factors.filter((r) => r.girderKind === p.girder && r.effect === p.effect).map((r) => r.location.key))];
-    if (locations.length === 0) throw paramsError(`this deck version has no ${EFFECT_WORDS[p.effect]} factor for the ${p.girder} girder`);
-    if (p.location && !locations.includes(p.location)) throw paramsError(`no ${EFFECT_WORDS[p.effect]} factor at ${p.location}: choose one of ${locations.join(', ')}`);
+    if (locations.length === 0) throw paramsError(`this deck version has no ${EFFECT_LABELS[p.effect]} factor for the ${p.girder} girder`);
+    if (p.location && !locations.includes(p.location)) throw paramsError(`no ${EFFECT_LABELS[p.effect]} factor at ${p.location}: choose one of ${locations.join(', ')}`);
     throw paramsError(`this deck version has no ${factorQuestion(p, p.location ?? locations[0])}: the code does not use that method for that case here`);
   }
   // A governing value is the pick among candidates: show them all and the rule that picked it.
@@ -210,10 +202,10 @@ export function grade(deck: Deck, kind: string, params: unknown, expected: Expec
   });
   const passed = violations.length === 0 && checks.every((c) => c.passed);
   const first = checks[0];
-  const parts = [`Your value ${first.submitted.toFixed(4)} against the product's ${first.expected.toFixed(4)}: ${first.differencePercent.toFixed(2)} % apart (tolerance ${tolerancePercent} %).`];
+  const parts = [`Your value ${factorText(first.submitted)} against the product's ${factorText(first.expected)}: ${first.differencePercent.toFixed(2)} % apart (tolerance ${tolerancePercent} %).`];
   if (violations.length) parts.push(`Your placement breaks ${violations.length} rule${violations.length === 1 ? '' : 's'}: ${violations[0].message}.`);
   const pc = checks.find((c) => c.name === 'placement');
-  if (pc) parts.push(`Your placement gives ${pc.submitted.toFixed(4)} (${pc.differencePercent.toFixed(2)} % from the governing ${pc.expected.toFixed(4)}).`);
+  if (pc) parts.push(`Your placement gives ${factorText(pc.submitted)} (${pc.differencePercent.toFixed(2)} % from the governing ${factorText(pc.expected)}).`);
   const unmatched = stepMatches.filter((m) => m.traceIndex < expected.trace.length && m.traineeStep === null);
   if (body.steps.length && unmatched.length) parts.push(`First step without a matching value: “${unmatched[0].label}”.`);
   return { passed, tolerancePercent, checks, placementViolations: violations, stepMatches, summary: parts.join(' ') };
