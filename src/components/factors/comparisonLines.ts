@@ -122,8 +122,9 @@ export function comparisonLines(input: ComparisonInput): ComparisonLine[] {
   const keys = new Set([`span${span + 1}`, 'deck', `support${span + 1}`, `support${span + 2}`]);
   const byKey = new Map<string, ComparisonLine>();
   for (const r of input.code.factors) {
+    // every code row of the span and of its two support lines (negative moment, reactions and
+    // the fatigue moment over an interior support of a continuous deck)
     if (!keys.has(r.location.key)) continue;
-    if ((r.effect === 'negative-moment' || r.effect === 'reaction') !== r.location.key.startsWith('support')) continue;
     const k = `${r.girderKind}|${r.effect}|${r.lanes}|${r.location.key}`;
     let line = byKey.get(k);
     if (!line) {
