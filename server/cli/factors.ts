@@ -15,6 +15,7 @@
  * usage error); no stack trace is printed.
  */
 import { showLengths } from '../../shared/quantities/inText.js';
+import { factorText } from '../../shared/lrfd/words.js';
 import type { TraceStep } from '../../shared/trace.js';
 import { readFileSync } from 'node:fs';
 import {
@@ -104,7 +105,7 @@ function placementJson(refined: RefinedResult, index: number, units: UnitSystem)
   const c = f.byLaneCount.find((b) => b.loadedLanes === src.loadedLanes)!;
   return {
     response: f.label,
-    vehicle: f.vehicle,
+    vehicle: refined.rows[index].vehicle ?? c.vehicle,
     loadedLanes: c.loadedLanes,
     multiplePresence: c.multiplePresence,
     factor: c.factor,
@@ -128,13 +129,13 @@ function findingsIn<F extends { message: string }>(findings: readonly F[], units
   return findings.map((f) => ({ ...f, message: showLengths(f.message, units) }));
 }
 
-/** Trace steps with the lengths of their labels, formulas, input descriptions and notes in the file's units. */
+/** Trace steps with the lengths and quantities of their labels, formulas, input descriptions and notes in the file's units. */
 function traceIn(steps: readonly TraceStep[], units: UnitSystem): TraceStep[] {
   return steps.map((s) => ({
     ...s,
     label: showLengths(s.label, units),
     formula: showLengths(s.formula, units),
-    inputs: s.inputs.map((i) => (i.description !== undefined ? { ...i, description: showLengths(i.description, units) } : i)),
+    inputs: s.inputs.map((i) => (i.description === undefined ? i : { ...i, description: showLengths(i.description, units) })),
     ...(s.note !== undefined ? { note: showLengths(s.note, units) } : {}),
   }));
 }
@@ -262,9 +263,9 @@ function refinedText(refined: RefinedResult, units: UnitSystem): string[] {
           r.effect,
           r.location.description,
           `${r.lanes} (${c.loadedLanes})`,
-          c.factor.toFixed(3),
-          `±${f.tolerance.factor.toFixed(3)}`,
-          f.vehicle,
+          factorText(r.value),
+          `±${f.tolerance.factor.toFixed(4)}`,
+          r.vehicle ?? c.vehicle,
           c.placement.lanes.map((l) => `${len(l.left)}–${len(l.left + refined.designLaneWidth)}`).join('; '),
           c.placement.lanes.map((l) => `${len(l.left + l.wheelOffset)}, ${len(l.left + l.wheelOffset + (refined.wheelGauge ?? WHEEL_GAUGE))}`).join('; '),
           c.placement.lanes
@@ -301,7 +302,7 @@ export function textReport(result: CodeFactorResult, units: UnitSystem, refined?
         g.effect,
         g.location.description,
         g.location.spanLength !== undefined ? disp(g.location.spanLength, 'length', units, 2) : '',
-        g.value.toFixed(3),
+        factorText(g.value),
         g.reason,
       ]),
     ),
@@ -318,9 +319,9 @@ export function textReport(result: CodeFactorResult, units: UnitSystem, refined?
         r.location.description,
         r.loadedLanes !== undefined && r.method !== 'formula' ? `${r.lanes} (${r.loadedLanes})` : r.lanes,
         r.method,
-        r.baseValue.toFixed(3),
-        r.skewFactor.toFixed(3),
-        r.value.toFixed(3),
+        factorText(r.baseValue),
+        factorText(r.skewFactor),
+        factorText(r.value),
       ]),
     ),
   );

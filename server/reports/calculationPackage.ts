@@ -20,7 +20,8 @@ import type { ReportData } from './reportData.js';
 import { PRODUCT_VERSION } from '../../shared/version.js';
 import { formatTimestamp } from '../../shared/time/timestamps.js';
 import { FINDING_LEVEL_WORDS, findingLevel } from '../../shared/findings/levels.js';
-import { factorText } from '../../shared/lrfd/words.js';
+import { boundText, factorText, ratioText } from '../../shared/lrfd/words.js';
+import { adoptedValue, grillageRowOfKind } from '../../shared/grillage/compare.js';
 
 /** A finding's level in words, with its code (shared/findings/levels.ts). */
 const levelWords = (f: { code: string; severity?: string }) => `${FINDING_LEVEL_WORDS[findingLevel(f)]} (${f.code})`;
@@ -398,10 +399,9 @@ function comparisonRows(data: ReportData): { rows: string[][]; bold: Set<number>
       return hits.length ? hits.map((h) => `${factor(h.value)}${h.adopted ? ' *' : ''}`).join(' / ') : '—';
     };
     const other = list.filter((r) => !['formula', 'lever-rule', 'rigid-section'].includes(r.method));
-    // The grillage value of the same lane case: the largest over the girders of this kind.
-    const same = (data.refinedRows ?? []).filter((g) => g.girderKind === r0.girderKind && g.effect === r0.effect && g.location.key === r0.location.key && g.lanes === r0.lanes);
-    const grillage = same.length ? factor(Math.max(...same.map((g) => g.value))) : '—';
-    const adopted = list.find((r) => r.adopted);
+    // The grillage value of the same lane case: the row of the kind, as the workspace's comparison reads it.
+    const grillageRow = grillageRowOfKind(data.refinedRows ?? [], { kind: r0.girderKind, effect: r0.effect, lanes: r0.lanes, locationKey: r0.location.key });
+    const adopted = adoptedValue(list);
     if (list.some((r) => r.governing)) bold.add(rows.length);
     rows.push([
       r0.girderKind,
@@ -412,8 +412,8 @@ function comparisonRows(data: ReportData): { rows: string[][]; bold: Set<number>
       by('lever-rule'),
       by('rigid-section'),
       other.length ? other.map((o) => `${factor(o.value)} (${METHOD_WORDS[o.method]})${o.adopted ? ' *' : ''}`).join(', ') : '—',
-      grillage,
-      adopted ? factor(adopted.value) : '—',
+      grillageRow ? factor(grillageRow.value) : '—',
+      adopted !== undefined ? factor(adopted) : '—',
     ]);
   }
   return { rows, bold };
@@ -606,10 +606,10 @@ export function calculationPackagePdf(data: ReportData): Promise<Buffer> {
         EFFECT_WORDS[r.effect],
         r.location,
         factor(r.refined),
-        r.bound ? `${r.bound.lanes.toFixed(4)} lanes${r.bound.meetsTarget ? '' : ' ± above target'}` : '—',
+        boundText(r.bound),
         r.vehicle ?? '—',
         factor(r.code),
-        r.ratio.toFixed(3),
+        ratioText(r.ratio),
       ]),
       [0.12, 0.11, 0.14, 0.1, 0.16, 0.17, 0.1, 0.1],
       { align: ['left', 'left', 'left', 'right', 'right', 'left', 'right', 'right'] },

@@ -2,13 +2,14 @@
  * CSV exports of a deck version: the factor table (every code-method row, then the refined
  * rows of the grillage, stored with the version or computed) and the girder HL-93 LL+IM envelopes. Values are
  * written at full precision in the project's unit system (the header names each column's
- * unit); the last line carries the caution. Text cells that look like formulas are neutralised;
+ * unit), so a factor re-reads to the result's value exactly; stations and span lengths to
+ * 0.001 ft or m (`lengthCell`); the last line carries the caution. Text cells that look like formulas are neutralised;
  * numbers stay numbers.
  */
 import { showLengths } from '../../shared/quantities/inText.js';
 import { FINDING_LEVEL_WORDS, findingLevel } from '../../shared/findings/levels.js';
 import { toCsv, type CsvCell } from './csvText.js';
-import { toUs, unitSymbol, toDisplay, type QuantityKind, type UnitSystem } from '../../shared/units.js';
+import { unitSymbol, toDisplay, type QuantityKind, type UnitSystem } from '../../shared/units.js';
 import type { ReportData } from './reportData.js';
 import { factorArticle } from '../api/reviews/versionResults.js';
 
@@ -23,9 +24,17 @@ function csv(rows: CsvCell[][]): string {
   return toCsv(rows) + `\r\n${JSON.stringify(CSV_CAUTION)}\r\n`;
 }
 
+/**
+ * A station or a length for the CSV, in the project's unit to 0.001 ft or 0.001 m: as an
+ * engineer writes stations (round-off such as 32.99999999999999 reads 33), and still a number.
+ */
+export function lengthCell(m: number, units: UnitSystem): number {
+  return Number(toDisplay(m, 'length', units).toFixed(3)) || 0;
+}
+
 export function factorsCsv(data: ReportData): string {
   const u = data.units;
-  const len = (m: number | undefined) => (m === undefined ? null : Number((u === 'US' ? toUs.ft(m) : m).toPrecision(12)));
+  const len = (m: number | undefined) => (m === undefined ? null : lengthCell(m, u));
   const header = ['row_id', 'girder', 'girder_number', 'effect', 'location', `span_length_${u === 'US' ? 'ft' : 'm'}`, 'lanes', 'loaded_lanes', 'method', 'value_before_skew', 'skew_factor', 'value', 'adopted', 'governing', 'article', 'findings', 'governing_load', 'bound_lanes', 'bound_percent', 'bound_meets_target'];
   const rows: CsvCell[][] = [header];
   for (const r of data.code.factors) {
@@ -86,7 +95,7 @@ export function envelopesCsv(data: ReportData): string {
         g.girder,
         p.span + 1,
         p.fraction,
-        toDisplay(p.x, 'length', u),
+        lengthCell(p.x, u),
         toDisplay(p.moment.max.value, 'moment', u),
         toDisplay(p.moment.min.value, 'moment', u),
         toDisplay(p.shear.max.value, 'force', u),

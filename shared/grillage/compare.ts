@@ -64,6 +64,34 @@ function codeRowsFor(code: CodeFactorResult, girderNumber: number, kind: GirderK
 
 const ratio = (a: number | undefined, b: number | undefined) => (a !== undefined && b !== undefined && b !== 0 ? a / b : undefined);
 
+/**
+ * The code's adopted value among rows of one lane case (the value `selectGoverning` adopted;
+ * the largest when the rows hold several), or undefined when none is adopted. The comparison
+ * of methods, on screen and in the package, reads it here.
+ */
+export function adoptedValue(rows: readonly FactorRow[]): number | undefined {
+  const adopted = rows.filter((r) => r.adopted);
+  return adopted.length ? Math.max(...adopted.map((r) => r.value)) : undefined;
+}
+
+/** Which rows a comparison line holds: one girder kind, effect, place and lane case. */
+export interface KindCase {
+  kind: GirderKind;
+  effect: FactorEffect;
+  lanes: 'one' | 'multiple';
+  locationKey: string;
+}
+
+/**
+ * The grillage row of a girder kind, effect, place and lane case: the largest of the girders
+ * of that kind (the comparison by girder kind, in the workspace and in the package), or
+ * undefined when the refined result has none.
+ */
+export function grillageRowOfKind(rows: readonly FactorRow[], c: KindCase): FactorRow | undefined {
+  const own = rows.filter((r) => r.method === 'grillage' && r.girderKind === c.kind && r.effect === c.effect && r.lanes === c.lanes && r.location.key === c.locationKey);
+  return own.length ? own.reduce((a, b) => (b.value > a.value ? b : a)) : undefined;
+}
+
 /** Compare the code's factors with the refined ones, per girder (1-based), effect, span and lane case. */
 export function compareFactors(code: CodeFactorResult, refined: RefinedResult): FactorComparison {
   const Nb = refined.girderCount;
@@ -87,7 +115,7 @@ export function compareFactors(code: CodeFactorResult, refined: RefinedResult): 
         return list.length ? Math.max(...list.map((r) => r.value)) : undefined;
       };
       const adopted = c.filter((r) => r.adopted);
-      const codeValue = adopted.length ? Math.max(...adopted.map((r) => r.value)) : undefined;
+      const codeValue = adoptedValue(c);
       const codeMethod = adopted.length ? adopted.reduce((a, b) => (b.value > a.value ? b : a)).method : undefined;
       const row: ComparisonRow = {
         girderNumber: n,

@@ -49,6 +49,11 @@
  * - The beam line: uniform girder on the girder's own spans (its crossings of the support
  *   lines), continuous or simple as the deck; influence lines by the stiffness method
  *   (shared/loads/influenceLine.ts).
+ * - Rows and traces: one row per girder, effect, place and lane case (one lane; two or more),
+ *   the largest factor of that lane case among the place's factors (a span's shear: both its
+ *   ends). A row's trace is built from the very searches that gave its value, for its lane
+ *   count: each load's girder effect with k lanes, its beam line, and the ratio, whose last
+ *   step states k, m, the governing load and the lane case, and equals the row's value.
  *
  * Sampling. Each surface is sampled on a station grid (`grillageStations`) in its own frame
  * s = x − c·y (sampledSurface.ts), c the tan θ of the support line it is read at (shear,
@@ -78,7 +83,9 @@ import type { RefinedLoading } from '../deck/schema.js';
 import { influenceLine, maxVehicleEffect, type BeamModel, type BeamResponse } from '../loads/influenceLine.js';
 import { placementRulesForDeck, type Placement, type PlacementRules } from '../placement/rules.js';
 import { checkPoints, frameRange, sampledFromGrid, type SampledSurface } from '../placement/sampledSurface.js';
-import { BOUND_TARGET_LANES, BOUND_TARGET_PERCENT, boundInLanes, governingSurfacePlacement, type GoverningPlacement, type ToleranceStatement } from '../placement/search.js';
+import { BOUND_TARGET_LANES, BOUND_TARGET_PERCENT, boundInLanes, governingSurfacePlacement, type GoverningPlacement, type LaneCountResult, type ToleranceStatement } from '../placement/search.js';
+import { EFFECT_LABELS, LANE_LABELS } from '../lrfd/words.js';
+import type { Lanes } from '../lrfd/formula.js';
 import type { Sense } from '../placement/evaluate.js';
 import { influenceSurfaces, type InfluenceSurface } from './influenceSurface.js';
 import { supportX } from './mesh.js';
@@ -504,7 +511,6 @@ interface GirderBeam {
   xsup: number[];
 }
 
-/** Step 1. Each girder's beam line (its own spans), with the tenth point where one lane's truck moment is largest. */
 /**
  * Girder g's moment point at `fraction` of span `span`, in plan (m): on its line, between its
  * crossings of the span's support lines, as refinedTargets places it from girderBeams (for
@@ -518,6 +524,7 @@ export function girderMomentPoint(model: GrillageModel, girder: number, span: nu
   return { x: x0 + fraction * (x1 - x0), y };
 }
 
+/** Step 1. Each girder's beam line (its own spans), with the tenth point where one lane's truck moment is largest. */
 function girderBeams(model: GrillageModel, continuous: boolean, truck: Vehicle): GirderBeam[] {
   const mesh = model.mesh;
   const N = model.spanCount;
@@ -701,23 +708,7 @@ function factorOfTarget(t: Target, outcomes: LoadOutcome[], girderCount: number)
     const c = best.search.byLaneCount[i];
     return { loadedLanes: c.loadedLanes, multiplePresence: c.multiplePresence, factor: c.value / B, girderEffect: c.value, placement: c.placement, vehicle: best.load.label };
   });
-  const lanes: RefinedLane[] = search.effect.lanes.map((l, i) => {
-    const p = search.placement.lanes[i];
-    const out: RefinedLane = {
-      lane: i,
-      left: l.left,
-      right: l.right,
-      wheelOffset: p.wheelOffset,
-      wheelLines: l.wheelLines,
-      frontAxleAt: p.frontAxleAt as number,
-      direction: p.direction as 1 | -1,
-      axles: l.axles ?? [],
-      effect: l.vehicleValue,
-      laneLoadEffect: l.laneLoadValue,
-    };
-    if (p.axleSpacing !== undefined) out.axleSpacing = p.axleSpacing;
-    return out;
-  });
+  const lanes = refinedLanes(search);
   return {
     girder: t.girder,
     girderNumber: t.girder + 1,
@@ -739,37 +730,91 @@ function factorOfTarget(t: Target, outcomes: LoadOutcome[], girderCount: number)
     lanes,
     byLaneCount,
     tolerance: { ...tolerance, text: bound.text, factor: bound.lanes, percent: bound.percent, meetsTarget: bound.meetsTarget },
-    trace: factorTrace(t, outcomes, gov, beamGov, value, bound.text),
+    trace: factorTrace(t, outcomes, { boundNote: bound.text }),
   };
 }
 
-/** The trace of one refined factor: each load's girder effect, the beam line, the ratio. */
-function factorTrace(t: Target, outcomes: LoadOutcome[], gov: LoadOutcome, beamGov: LoadOutcome, value: number, boundText: string): TraceStep[] {
+/** The governing placement's lanes as the factor reports them: edges, wheels, vehicle position and each axle's contribution. */
+function refinedLanes(search: GoverningPlacement): RefinedLane[] {
+  return search.effect.lanes.map((l, i) => {
+    const p = search.placement.lanes[i];
+    const out: RefinedLane = {
+      lane: i,
+      left: l.left,
+      right: l.right,
+      wheelOffset: p.wheelOffset,
+      wheelLines: l.wheelLines,
+      frontAxleAt: p.frontAxleAt as number,
+      direction: p.direction as 1 | -1,
+      axles: l.axles ?? [],
+      effect: l.vehicleValue,
+      laneLoadEffect: l.laneLoadValue,
+    };
+    if (p.axleSpacing !== undefined) out.axleSpacing = p.axleSpacing;
+    return out;
+  });
+}
+
+/**
+ * One load's placement a trace shows: its best of `loadedLanes` loaded lanes, or (undefined)
+ * its governing placement over every lane count.
+ */
+function placementOfLoad(o: LoadOutcome, loadedLanes?: number): LaneCountResult {
+  if (loadedLanes === undefined) return o.search;
+  const c = o.search.byLaneCount.find((b) => b.loadedLanes === loadedLanes);
+  if (!c) throw new Error(`the search holds no placement of ${loadedLanes} loaded lanes`);
+  return c;
+}
+
+/** What a trace closes with: the row's lane case (absent: the factor over every lane count) and the words on its bound. */
+interface TraceCase {
+  lanes?: Lanes;
+  loadedLanes?: number;
+  boundNote: string;
+}
+
+/**
+ * The trace of a refined factor, from the searches that gave it: each load's girder effect
+ * (for the case's lane count, or its governing one), the beam line, and the ratio, whose last
+ * step states the lane count (k), the multiple presence factor, the governing load and the
+ * row's lane case. Its value is the row's (or the factor's) value by the same arithmetic:
+ * the largest girder effect over the largest one-lane beam-line effect.
+ */
+function factorTrace(t: Target, outcomes: LoadOutcome[], c: TraceCase): TraceStep[] {
+  const sgn = t.sense === 'positive' ? 1 : -1;
+  const picks = outcomes.map((o) => placementOfLoad(o, c.loadedLanes));
+  const govIndex = picks.reduce((a, p, i) => (sgn * p.value > sgn * picks[a].value ? i : a), 0);
+  const beamGov = outcomes.reduce((a, b) => (sgn * b.beamLineEffect > sgn * a.beamLineEffect ? b : a));
+  const gov = picks[govIndex];
+  const steps: TraceStep[] = outcomes.flatMap((o, i) => loadSteps(t, o, picks[i], outcomes.length > 1 && i === govIndex, outcomes.length > 1 && o === beamGov));
+  steps.push(ratioStep(t, outcomes.length, gov, outcomes[govIndex].load, beamGov.beamLineEffect, c));
+  for (const s of steps) if (s.note === undefined) delete s.note;
+  return steps;
+}
+
+/** One load's two steps: the girder effect of its placement on the grillage, and its one-lane beam-line effect. */
+function loadSteps(t: Target, o: LoadOutcome, p: LaneCountResult, governsGirder: boolean, governsBeam: boolean): TraceStep[] {
   const fatigue = t.effect.startsWith('fatigue');
   const kind = refinedEffectKind(t);
-  const article = fatigue ? FATIGUE_ARTICLE : REFINED_ARTICLE;
-  const label = responseLabel(t.response);
   const where = 'x' in t.beamResponse ? `at ${lengthInText(t.beamResponse.x)} along the girder` : `at support ${t.beamResponse.support + 1}`;
-  const steps: TraceStep[] = [];
-  for (const o of outcomes) {
-    const s = o.search;
-    steps.push({
-      label: `Grillage: ${label}, governing placement of ${s.loadedLanes} loaded lane${s.loadedLanes > 1 ? 's' : ''} (${o.load.reason})`,
+  return [
+    {
+      label: `Grillage: ${responseLabel(t.response)}, governing placement of ${lanesWords(p.loadedLanes)} (${o.load.reason})`,
       formula: fatigue
         ? 'E_g = max over legal placements of Σ_axles ½·W·(η(x, y_L) + η(x, y_R)), one lane, no m'
         : o.load.laneLoad
-          ? 'E_g = max over k and legal placements of m(k)·Σ_lanes [Σ_axles ½·W·(η(x, y_L) + η(x, y_R)) + (q/w)·∫ max(0, ∫_strip η dy) dx]'
-          : 'E_g = max over k and legal placements of m(k)·Σ_lanes Σ_axles ½·W·(η(x, y_L) + η(x, y_R))',
+          ? 'E_g = max over legal placements of k lanes of m(k)·Σ_lanes [Σ_axles ½·W·(η(x, y_L) + η(x, y_R)) + (q/w)·∫ max(0, ∫_strip η dy) dx]'
+          : 'E_g = max over legal placements of k lanes of m(k)·Σ_lanes Σ_axles ½·W·(η(x, y_L) + η(x, y_R))',
       inputs: [
-        { symbol: 'k', description: 'loaded lanes', value: s.loadedLanes, kind: 'none' },
-        { symbol: 'm', description: 'multiple presence factor', value: s.multiplePresence, kind: 'none' },
+        { symbol: 'k', description: 'loaded lanes', value: p.loadedLanes, kind: 'none' },
+        { symbol: 'm', description: 'multiple presence factor', value: p.multiplePresence, kind: 'none' },
       ],
-      value: s.value,
+      value: p.value,
       kind,
-      article,
-      note: o === gov ? (outcomes.length > 1 ? `governs the girder effect; ${boundText}` : boundText) : undefined,
-    });
-    steps.push({
+      article: fatigue ? FATIGUE_ARTICLE : REFINED_ARTICLE,
+      note: governsGirder ? 'governs the girder effect' : undefined,
+    },
+    {
       label: `Beam line: one lane (${o.load.reason}), ${t.beamResponse.kind} ${where}`,
       formula: o.load.laneLoad
         ? 'E_1 = max over positions and directions of Σ W·η_beam(x) (axles that do not contribute neglected) + q·∫ max(0, η_beam) dx'
@@ -778,23 +823,34 @@ function factorTrace(t: Target, outcomes: LoadOutcome[], gov: LoadOutcome, beamG
       value: o.beamLineEffect,
       kind,
       article: 'AASHTO LRFD Art. 3.6.1.2 and 3.6.1.3.1; influence line by the stiffness method',
-      note: o === beamGov && outcomes.length > 1 ? 'governs the beam-line effect' : undefined,
-    });
-  }
-  steps.push({
-    label: `Refined distribution factor, girder ${t.girder + 1}, ${t.effect}`,
-    formula: outcomes.length > 1 ? 'g = max over the loads of E_g ÷ max over the loads of E_1' : 'g = E_g / E_1',
+      note: governsBeam ? 'governs the beam-line effect' : undefined,
+    },
+  ];
+}
+
+/** The closing step: g = E_g / E_1, stating the lane count, m, the governing load and the lane case. */
+function ratioStep(t: Target, loadCount: number, gov: LaneCountResult, load: TargetLoad, beamLine: number, c: TraceCase): TraceStep {
+  const kind = refinedEffectKind(t);
+  const caseWords = c.lanes ? `, ${LANE_LABELS[c.lanes]}` : '';
+  return {
+    label: `Refined distribution factor, girder ${t.girder + 1}, ${EFFECT_LABELS[t.effect]}${caseWords}`,
+    formula: loadCount > 1 ? 'g = max over the loads of E_g ÷ max over the loads of E_1' : 'g = E_g / E_1',
     inputs: [
-      { symbol: 'E_g', description: 'girder effect, m included', value: gov.search.value, kind },
-      { symbol: 'E_1', description: 'one lane on the beam line', value: beamGov.beamLineEffect, kind },
+      { symbol: 'k', description: 'loaded lanes', value: gov.loadedLanes, kind: 'none' },
+      { symbol: 'm', description: 'multiple presence factor', value: gov.multiplePresence, kind: 'none' },
+      { symbol: 'E_g', description: 'girder effect, m included', value: gov.value, kind },
+      { symbol: 'E_1', description: 'one lane on the beam line', value: beamLine, kind },
     ],
-    value,
+    value: gov.value / beamLine,
     kind: 'none',
-    article,
-    note: `governing with ${gov.search.loadedLanes} loaded lane(s); ${boundText}`,
-  });
-  for (const s of steps) if (s.note === undefined) delete s.note;
-  return steps;
+    article: t.effect.startsWith('fatigue') ? FATIGUE_ARTICLE : REFINED_ARTICLE,
+    note: `${lanesWords(gov.loadedLanes)}, ${load.label}; ${c.boundNote}`,
+  };
+}
+
+/** "1 loaded lane", "2 loaded lanes". */
+function lanesWords(k: number): string {
+  return `${k} loaded lane${k === 1 ? '' : 's'}`;
 }
 
 /**
@@ -875,31 +931,26 @@ function loadsTrace(laneCount: number, continuous: boolean, loading: RefinedLoad
 
 /**
  * Refined (grillage) distribution factors of a deck. Throws DeckInputError for an invalid
- * deck or option, GrillageInputError / GrillageMechanismError from the grillage.
+ * deck or option, GrillageInputError / GrillageMechanismError from the grillage. The steps:
+ * the model and its rules (1), the targets and their surfaces, sampled (2, 3), each target
+ * searched (4) and its factor formed (5), the loose bounds refined (4b), the rows per lane
+ * case with their traces from the same searches, the bound findings (6) and the convergence
+ * check (7).
  */
 export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions = {}): RefinedResult {
   const deck = assertDeck(deckInput);
-  const effects = options.effects ?? [...REFINED_EFFECTS];
-  effects.forEach((e, i) => {
-    if (!REFINED_EFFECTS.includes(e)) throw new DeckInputError(['refined', 'effects', i], `effect must be one of ${REFINED_EFFECTS.join(', ')}, not ${String(e)}`);
-  });
+  const effects = effectsOption(options);
   const progress = options.onProgress ?? (() => undefined);
   progress({ phase: 'model', done: 0, total: 1 });
   const model = options.model ?? buildGrillage(deck, { segmentsPerSpan: REFINED_SEGMENTS_PER_SPAN, ...options.grillage });
   const rules = placementRulesForDeck(deck);
   const values = designValuesOf(deck);
   assertLoadingFits(deck.refinedLoading, rules, values);
-  const beams = girderBeams(model, deck.continuous, values.truck);
-  const { responses, targets, momentPoints } = refinedTargets(deck, beams, effects, values);
-  const surfaces = influenceSurfaces(model, responses);
-  const { stations, sampled, densities } = sampleSurfaces(model, responses, surfaces, rules, options, momentPoints);
-  const beamEffects = new Map<string, number>();
-  const factors = targets.map((t, k) => {
-    progress({ phase: 'search', done: k, total: targets.length });
-    return factorOfTarget(t, searchTarget(t, sampled[t.surface], surfaces[t.surface], rules, beamEffects), model.girderCount);
-  });
-  refineLooseBounds({ model, rules, options, responses, surfaces, sampled, densities, targets, factors, momentPoints, beamEffects, progress });
-  const { rows, sources: rowSources } = refinedRows(deck, factors, rules.laneCount);
+  const run = sampledRun(deck, model, rules, options, effects, progress, values);
+  const searched = searchTargets(run);
+  refineLooseBounds(run, searched);
+  const factors = searched.map((s) => s.factor);
+  const { rows, sources: rowSources } = refinedRows(deck, searched, rules.laneCount);
   if (options.checkConvergence && effects.includes('moment')) {
     progress({ phase: 'convergence', done: 0, total: 1 });
     recordConvergence(deck, options, model.mesh.segmentsPerSpan, rows);
@@ -913,7 +964,7 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
     layout: model.layout,
     segmentsPerSpan: model.mesh.segmentsPerSpan,
     mesh: model.stats,
-    stations: { longitudinal: stations.xs.length, transverse: stations.ys.length },
+    stations: { longitudinal: run.stations.xs.length, transverse: run.stations.ys.length },
     factors,
     rows,
     rowSources,
@@ -921,6 +972,61 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
     trace: [...model.trace, ...(values.name === 'us-customary' ? [] : [designValuesStep(values)]), loadsTrace(rules.laneCount, deck.continuous, deck.refinedLoading, values)],
     caution: RESULT_CAUTION,
   };
+}
+
+/** The effects asked for (default all six), each one the run knows. */
+function effectsOption(options: RefinedOptions): RefinedEffect[] {
+  const effects = options.effects ?? [...REFINED_EFFECTS];
+  effects.forEach((e, i) => {
+    if (!REFINED_EFFECTS.includes(e)) throw new DeckInputError(['refined', 'effects', i], `effect must be one of ${REFINED_EFFECTS.join(', ')}, not ${String(e)}`);
+  });
+  return effects;
+}
+
+/** What the searches of a run share: the model, its rules, the targets and their sampled surfaces. */
+interface SampledRun {
+  model: GrillageModel;
+  rules: PlacementRules;
+  options: RefinedOptions;
+  responses: GrillageResponse[];
+  surfaces: InfluenceSurface[];
+  sampled: SampledSurface[];
+  densities: SampleDensity[];
+  stations: { xs: Float64Array; ys: Float64Array };
+  targets: Target[];
+  momentPoints: { x: number; y: number }[];
+  beamEffects: Map<string, number>;
+  progress: (p: RefinedProgress) => void;
+}
+
+/** Steps 1–3: each girder's beam line, the targets and their responses, the surfaces and their samples. */
+function sampledRun(deck: Deck, model: GrillageModel, rules: PlacementRules, options: RefinedOptions, effects: readonly RefinedEffect[], progress: SampledRun['progress'], values: DesignValues): SampledRun {
+  const beams = girderBeams(model, deck.continuous, values.truck);
+  const { responses, targets, momentPoints } = refinedTargets(deck, beams, effects, values);
+  const surfaces = influenceSurfaces(model, responses);
+  const { stations, sampled, densities } = sampleSurfaces(model, responses, surfaces, rules, options, momentPoints);
+  return { model, rules, options, responses, surfaces, sampled, densities, stations, targets, momentPoints, beamEffects: new Map(), progress };
+}
+
+/** A target with the searches of its loads and the factor formed from them: a row's value and its trace come from the same searches. */
+interface Searched {
+  target: Target;
+  outcomes: LoadOutcome[];
+  factor: RefinedFactor;
+}
+
+/** Steps 4 and 5 for one target on the run's current sample of its surface. */
+function searchOne(run: SampledRun, t: Target): Searched {
+  const outcomes = searchTarget(t, run.sampled[t.surface], run.surfaces[t.surface], run.rules, run.beamEffects);
+  return { target: t, outcomes, factor: factorOfTarget(t, outcomes, run.model.girderCount) };
+}
+
+/** Steps 4 and 5 for every target, telling the progress. */
+function searchTargets(run: SampledRun): Searched[] {
+  return run.targets.map((t, k) => {
+    run.progress({ phase: 'search', done: k, total: run.targets.length });
+    return searchOne(run, t);
+  });
 }
 
 /**
@@ -933,25 +1039,13 @@ export function computeRefinedFactors(deckInput: Deck, options: RefinedOptions =
  * and surfaces whose grid is already at the caps, are not sampled again, so the run's time
  * grows only where a denser surface can help.
  */
-function refineLooseBounds(run: {
-  model: GrillageModel;
-  rules: PlacementRules;
-  options: RefinedOptions;
-  responses: GrillageResponse[];
-  surfaces: InfluenceSurface[];
-  sampled: SampledSurface[];
-  densities: SampleDensity[];
-  targets: Target[];
-  factors: RefinedFactor[];
-  momentPoints: { x: number; y: number }[];
-  beamEffects: Map<string, number>;
-  progress: (p: RefinedProgress) => void;
-}): void {
-  const { targets, factors } = run;
+function refineLooseBounds(run: SampledRun, searched: Searched[]): void {
+  const { targets } = run;
+  const loose = (k: number) => !searched[k].factor.tolerance.meetsTarget;
   for (let round = 1; round <= MAX_REFINEMENTS; round++) {
     const next = new Map<number, SampleDensity>();
     targets.forEach((t, k) => {
-      if (factors[k].tolerance.meetsTarget || next.has(t.surface)) return;
+      if (!loose(k) || next.has(t.surface)) return;
       const d = nextDensity(run.densities[t.surface], run.sampled[t.surface]);
       if (d) next.set(t.surface, d);
     });
@@ -962,12 +1056,11 @@ function refineLooseBounds(run: {
       run.sampled[i] = again.sampled[k];
       run.densities[i] = again.densities[k];
     });
-    const redo = targets.map((_, k) => k).filter((k) => next.has(targets[k].surface) && !factors[k].tolerance.meetsTarget);
+    const redo = targets.map((_, k) => k).filter((k) => next.has(targets[k].surface) && loose(k));
     redo.forEach((k, n) => {
       run.progress({ phase: 'refine', done: n, total: redo.length });
-      const t = targets[k];
-      const f = factorOfTarget(t, searchTarget(t, run.sampled[t.surface], run.surfaces[t.surface], run.rules, run.beamEffects), run.model.girderCount);
-      if (f.tolerance.factor < factors[k].tolerance.factor) factors[k] = f;
+      const s = searchOne(run, targets[k]);
+      if (s.factor.tolerance.factor < searched[k].factor.tolerance.factor) searched[k] = s;
     });
   }
 }
@@ -985,11 +1078,8 @@ function rowLocation(deck: Deck, locations: EffectLocation[], f: RefinedFactor, 
   return { span: f.span, spanLength: deck.spans[f.span].length, description: `span ${f.span + 1} (${where})`, key: `span${f.span + 1}` };
 }
 
-/** One row of method "grillage" per girder number, effect, location (span or support line) and lane case, with where each came from. */
-function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): { rows: FactorRow[]; sources: RefinedResult['rowSources'] } {
-  const rows: FactorRow[] = [];
-  const sources: RefinedResult['rowSources'] = [];
-  const locations = effectLocations(deck);
+/** The factors one row is chosen from (indices): one girder, effect and place (a span's shear: both its ends). */
+function rowGroups(factors: RefinedFactor[]): number[][] {
   const groups = new Map<string, number[]>();
   factors.forEach((f, i) => {
     const place = f.point.kind === 'support-moment' || f.point.kind === 'reaction' ? `support${f.point.support}` : `span${f.span}`;
@@ -998,19 +1088,43 @@ function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): {
     if (g) g.push(i);
     else groups.set(k, [i]);
   });
-  for (const list of groups.values()) {
+  return [...groups.values()];
+}
+
+/** The largest factor of a lane case among a group's factors and their lane counts, and where it came from. */
+function bestOfCase(factors: RefinedFactor[], list: number[], lanes: Lanes): { i: number; c: RefinedFactor['byLaneCount'][number] } | undefined {
+  let best: { i: number; c: RefinedFactor['byLaneCount'][number] } | undefined;
+  for (const i of list) {
+    for (const c of factors[i].byLaneCount) {
+      if ((lanes === 'one') !== (c.loadedLanes === 1)) continue;
+      if (!best || c.factor > best.c.factor) best = { i, c };
+    }
+  }
+  return best;
+}
+
+/**
+ * The words on a row's bound (its trace's note, the workspace's detail): the search states its
+ * bound for the factor's governing placement over every lane count; a row of another lane
+ * count says whose bound it is.
+ */
+export function rowBoundWords(f: Pick<RefinedFactor, 'loadedLanes' | 'tolerance'>, loadedLanes: number): string {
+  return loadedLanes === f.loadedLanes ? f.tolerance.text : `the search's stated bound is that of its governing placement (${lanesWords(f.loadedLanes)}): ${f.tolerance.text}`;
+}
+
+/** One row of method "grillage" per girder number, effect, location (span or support line) and lane case, with where each came from. */
+function refinedRows(deck: Deck, searched: Searched[], laneCount: number): { rows: FactorRow[]; sources: RefinedResult['rowSources'] } {
+  const factors = searched.map((s) => s.factor);
+  const rows: FactorRow[] = [];
+  const sources: RefinedResult['rowSources'] = [];
+  const locations = effectLocations(deck);
+  for (const list of rowGroups(factors)) {
     const f0 = factors[list[0]];
-    const cases: ('one' | 'multiple')[] = f0.effect.startsWith('fatigue') || laneCount < 2 ? ['one'] : ['one', 'multiple'];
+    const cases: Lanes[] = f0.effect.startsWith('fatigue') || laneCount < 2 ? ['one'] : ['one', 'multiple'];
     for (const lanes of cases) {
-      let best: { i: number; c: RefinedFactor['byLaneCount'][number] } | undefined;
-      for (const i of list) {
-        for (const c of factors[i].byLaneCount) {
-          if ((lanes === 'one') !== (c.loadedLanes === 1)) continue;
-          if (!best || c.factor > best.c.factor) best = { i, c };
-        }
-      }
+      const best = bestOfCase(factors, list, lanes);
       if (!best) continue;
-      const bf = factors[best.i];
+      const { target, outcomes, factor: bf } = searched[best.i];
       const row = buildFactorRow({
         girderKind: f0.girderKind,
         girderNumber: f0.girderNumber,
@@ -1021,7 +1135,7 @@ function refinedRows(deck: Deck, factors: RefinedFactor[], laneCount: number): {
         method: 'grillage',
         baseValue: best.c.factor,
         location: rowLocation(deck, locations, f0, bf),
-        trace: bf.trace,
+        trace: factorTrace(target, outcomes, { lanes, loadedLanes: best.c.loadedLanes, boundNote: rowBoundWords(bf, best.c.loadedLanes) }),
       });
       if (!row.id.endsWith(`/g${f0.girderNumber}`)) row.id = `${row.id}/g${f0.girderNumber}`;
       row.bound = { lanes: bf.tolerance.factor, percent: bf.tolerance.percent, meetsTarget: bf.tolerance.meetsTarget };

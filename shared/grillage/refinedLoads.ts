@@ -71,8 +71,7 @@ export function strengthLoads(loading: RefinedLoading, overPier: boolean, maxHea
     ];
     if (overPier) {
       const factor = TWO_TRUCK_REDUCTION * WITH_IM;
-      const us = values.name === 'us-customary';
-      const spacings = us ? '14 ft rear spacings, at least 50 ft apart' : `${len(values.twoTrucks.rearSpacing)} rear spacings, at least ${len(values.twoTrucks.minHeadway)} apart`;
+      const spacings = `${len(values.twoTrucks.rearSpacing)} rear spacings, at least ${len(values.twoTrucks.minHeadway)} apart`;
       loads.push({
         vehicle: { ...scaled(twoDesignTrucks(Math.max(maxHeadway, 1), values), factor), name: `two design trucks × ${factor.toFixed(3)}` },
         label: 'HL-93 90 % of two trucks + lane',
@@ -96,10 +95,9 @@ export function beamLineEffect(beam: BeamModel, response: BeamResponse, load: Ta
 /** The loading is possible on this roadway: the lane load's width (10 ft, SI edition 3000 mm) fits in a design lane. */
 export function assertLoadingFits(loading: RefinedLoading, rules: PlacementRules, values: DesignValues = US_CUSTOMARY_VALUES): void {
   if (loading !== 'hl93' || rules.laneWidth >= values.laneLoadWidth - 1e-9) return;
-  const rule = values.laneRule;
   throw new DeckInputError(
     ['refinedLoading'],
-    `the design lanes of this roadway are ${(rules.laneWidth / rule.unitMetres).toFixed(2)} ${rule.unitSymbol} wide, narrower than the ${values.printed.laneLoadWidth} width of the design lane load (${citeArticle(values, 'Art. 3.6.1.2.4')}): choose 'design-truck' for the refined run`,
+    `the design lanes of this roadway are ${len(rules.laneWidth)} wide, narrower than the ${len(values.laneLoadWidth)} width of the design lane load (${citeArticle(values, 'Art. 3.6.1.2.4')}): choose 'design-truck' for the refined run`,
   );
 }
 

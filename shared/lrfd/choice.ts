@@ -118,3 +118,28 @@ export function governingChoice(rows: FactorRow[], scope: { girder: GirderKind; 
     },
   };
 }
+
+/**
+ * The steps of a method worked for several numbers of loaded lanes (lever rule, rigid section),
+ * closed by the case that gives the value, so that the trace ends on the value it explains:
+ * the largest case (Art. 3.6.1.1.2: every number of loaded lanes is checked). Nothing is added
+ * when the last step is already that case.
+ */
+export function closeOnGoverningCase(steps: TraceStep[], cases: readonly { loadedLanes: number; value: number }[], chosen: { loadedLanes: number; value: number }, method: string, article: string): TraceStep[] {
+  const last = steps[steps.length - 1];
+  if (cases.length < 2 || (last && last.value === chosen.value)) return steps;
+  return [
+    ...steps,
+    {
+      label: `${method}: the largest of the ${cases.length} cases, ${chosen.loadedLanes} loaded lane${chosen.loadedLanes === 1 ? '' : 's'}`,
+      formula: 'g = max over the numbers of loaded lanes NL of g(NL)',
+      inputs: [
+        { symbol: 'NL', description: 'loaded lanes of the largest case', value: chosen.loadedLanes, kind: 'none' },
+        ...cases.map((c) => ({ symbol: `g(${c.loadedLanes})`, description: `${c.loadedLanes} loaded lane${c.loadedLanes === 1 ? '' : 's'}`, value: c.value, kind: 'none' as const })),
+      ],
+      value: chosen.value,
+      kind: 'none',
+      article: `${article}; Art. 3.6.1.1.2 (every number of loaded lanes)`,
+    },
+  ];
+}

@@ -37,6 +37,7 @@ import { designLanes, multiplePresenceFactor } from './lanes.js';
 import { leverRule, type LeverRuleResult, type LeverRuleWorksheet } from './leverRule.js';
 import { deParameter, exteriorMoment, interiorMoment } from './moment.js';
 import { rigidSection, type RigidSectionResult, type RigidSectionWorksheet } from './rigidSection.js';
+import { closeOnGoverningCase } from './choice.js';
 import { exteriorShear, interiorShear } from './shear.js';
 import { momentSkewFactor, shearSkewFactor, type SkewFactor, type SkewInputs } from './skew.js';
 import { effectLocations, type EffectLocation } from './spanLengths.js';
@@ -670,9 +671,13 @@ function locationInits(en: Engine, loc: EffectLocation): FactorRowInit[] {
             loadedLanes: cs.loadedLanes,
             baseValue: cs.value,
             findings: rigidScopeFindings(en.rigid, en.deck.sectionType),
-            trace: rs.trace
-              .filter((_, i) => (lanes === 'one' ? i === 0 : i > 0))
-              .map((st) => withScopeNote(momentLike ? st : { ...st, article: `${st.article}; applied to shear by Art. 4.6.2.2.3b` }, en.rigid)),
+            trace: closeOnGoverningCase(
+              rs.trace.filter((_, i) => (lanes === 'one' ? i === 0 : i > 0)),
+              rs.worksheet.cases.filter((_, i) => (lanes === 'one' ? i === 0 : i > 0)),
+              cs,
+              'Rigid-section check',
+              'AASHTO LRFD Art. 4.6.2.2.2d',
+            ).map((st) => withScopeNote(momentLike ? st : { ...st, article: `${st.article}; applied to shear by Art. 4.6.2.2.3b` }, en.rigid)),
             rigidSection: rs.worksheet,
           };
           if (lanes === 'one') init.oneLaneMultiplePresence = 1.2;

@@ -18,12 +18,14 @@ import { DeckInputError } from '../deck/schema.js';
 import type { TraceStep } from '../trace.js';
 import { citeArticle, formulaLength, US_CUSTOMARY_VALUES, type DesignValues } from '../loads/designValues.js';
 import { multiplePresenceFactor } from './lanes.js';
+import { closeOnGoverningCase } from './choice.js';
 
 /** Transverse spacing of the wheels of the design truck and tandem, 6 ft (Art. 3.6.1.2.2; US customary values). */
 export const WHEEL_GAUGE = US_CUSTOMARY_VALUES.gauge;
 /** Least distance from a wheel centre to the edge of its design lane, 2 ft (Art. 3.6.1.3.1; US customary values). */
 export const WHEEL_TO_LANE_EDGE = US_CUSTOMARY_VALUES.wheelToLaneEdge;
 
+const LEVER_ARTICLE = 'AASHTO LRFD Art. 4.6.2.2.1 (lever rule), Art. 3.6.1.3.1 (wheel placement), Table 3.6.1.1.2-1';
 const EPS = 1e-9;
 
 export interface LeverRuleWheel {
@@ -269,11 +271,11 @@ export function leverRule(
     ],
     value: cs.value,
     kind: 'none',
-    article: citeArticle(values, 'AASHTO LRFD Art. 4.6.2.2.1 (lever rule), Art. 3.6.1.3.1 (wheel placement), Table 3.6.1.1.2-1'),
+    article: citeArticle(values, LEVER_ARTICLE),
     note: `hinged at ${hingeText}; reaction ${cs.reaction.toFixed(4)} lanes before m${
       cs.trucksBeyondHinges ? `; ${cs.trucksBeyondHinges} more loaded lane${cs.trucksBeyondHinges > 1 ? 's stand' : ' stands'} beyond the hinges (ordinates 0)` : ''
     }`,
   }));
   const g = cases[governingCase];
-  return { value: g.value, loadedLanes: g.loadedLanes, worksheet, trace };
+  return { value: g.value, loadedLanes: g.loadedLanes, worksheet, trace: closeOnGoverningCase(trace, cases, g, 'Lever rule', LEVER_ARTICLE) };
 }

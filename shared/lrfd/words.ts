@@ -1,8 +1,9 @@
 /**
  * The words the screens and reports use for a factor's effect, method, lane case and place,
  * and the one way a factor is written as a number (4 decimals, as the review summary and the
- * calculation package print it). One source, so a label or a rounding never differs between
- * the review, the training screens, the version comparison and the package.
+ * calculation package print it), a ratio of factors (3 decimals) and a stated bound. One
+ * source, so a label or a rounding never differs between the workspace, the review, the
+ * training screens, the version comparison and the package.
  * Units: factors are dimensionless (lanes per girder).
  */
 import type { FactorEffect, FactorMethod } from './factors.js';
@@ -37,6 +38,20 @@ export const LANE_LABELS: Readonly<Record<string, string>> = {
 /** A factor as a number: 4 decimals; '—' only for a value that is not a number. */
 export function factorText(v: number): string {
   return Number.isFinite(v) ? v.toFixed(4) : '—';
+}
+
+/** A ratio of two factors (grillage ÷ code): 3 decimals; '—' for a value that is not a number. */
+export function ratioText(v: number | undefined): string {
+  return v !== undefined && Number.isFinite(v) ? v.toFixed(3) : '—';
+}
+
+/**
+ * A stated bound in words, "0.0020 lanes, 0.3 %", marked "± above target" when it misses the
+ * target (such a factor never backs a claim): the review's ratio table and the package.
+ */
+export function boundText(b: { lanes: number; percent: number; meetsTarget?: boolean } | undefined): string {
+  if (!b) return '—';
+  return `${b.lanes.toFixed(4)} lanes, ${b.percent.toFixed(1)} %${b.meetsTarget === false ? ' ± above target' : ''}`;
 }
 
 /**

@@ -99,6 +99,7 @@ import { cellIndex, raisedRows, type SampledSurface, type SurfaceLike } from './
 import { transverseAt, type TransverseLine } from './transverseLines.js';
 import { laneStripTable, type LaneLoad, type LaneStripTable } from './laneStrip.js';
 import { DESIGN_LANE_LOAD } from '../loads/vehicles.js';
+import { factorText } from '../lrfd/words.js';
 
 export interface ToleranceStatement {
   /** 'exact': transverse line; 'sampled': exact on the sampled surface, bounded against the surface. */
@@ -145,7 +146,7 @@ export function boundInLanes(tolerance: ToleranceStatement, beamLineEffect: numb
   const text =
     tolerance.kind === 'exact' || tolerance.absolute === 0
       ? `no legal placement exceeds this factor (${tolerance.text})`
-      : `no legal placement exceeds this factor by more than ${lanesText} lanes (${percent(share)} of ${factor.toFixed(3)}); ${tolerance.text}`;
+      : `no legal placement exceeds this factor by more than ${lanesText} lanes (${percent(share)} of ${factorText(factor)}); ${tolerance.text}`;
   const meetsTarget = meetsBoundTarget({ lanes, percent: share * 100 });
   const miss = meetsTarget ? '' : `; this bound misses the target (${BOUND_TARGET_LANES} lanes and ${BOUND_TARGET_PERCENT} % of the value), so the factor must not back a reduction claim`;
   return { lanes, percent: share * 100, meetsTarget, text: text + miss };

@@ -39,6 +39,8 @@ export interface RefinedFactor {
   location: string;
   span?: number;
   lanes: FactorRow['lanes'];
+  /** Loaded lanes of the row's governing placement (absent on results stored before rows named it). */
+  loadedLanes?: number;
   value: number;
   /** The row's stated bound (absent on results stored before bounds were kept with rows). */
   bound?: FactorRow['bound'];
@@ -81,6 +83,7 @@ export function governingPerGirder(rows: readonly FactorRow[]): RefinedFactor[] 
         location: r.location.description,
         ...(r.location.span !== undefined ? { span: r.location.span } : {}),
         lanes: r.lanes,
+        ...(r.loadedLanes !== undefined ? { loadedLanes: r.loadedLanes } : {}),
         value: r.value,
         ...(r.bound ? { bound: r.bound } : {}),
         ...(r.convergence ? { convergence: r.convergence } : {}),

@@ -253,8 +253,9 @@ export function useSolverWorker(factory: WorkerFactory = defaultFactory) {
     return send<SurfaceGrid>({ type: 'surface-grid', girder, effect, nx, ny }).promise;
   }
 
-  function envelopes(girder: number, refined?: { moment: number; shear: number }): Promise<GirderEnvelopeSeries[]> {
-    return send<GirderEnvelopeSeries[]>({ type: 'envelopes', girder, refined }).promise;
+  /** The girder's envelopes: with the code's factors, and with the refined run's once it is computed (the worker reads its own result). */
+  function envelopes(girder: number): Promise<GirderEnvelopeSeries[]> {
+    return send<GirderEnvelopeSeries[]>({ type: 'envelopes', girder }).promise;
   }
 
   function codeFactors(deck: unknown): Promise<FactorRow[]> {

@@ -10,6 +10,7 @@
 import { computed, type Ref } from 'vue';
 import { fromDisplay, toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '@shared/units';
 import { zeroIfNegligible } from '@shared/trace';
+import { factorText } from '@shared/lrfd/words';
 
 /** Significant digits kept in input boxes. */
 const INPUT_SIGNIFICANT_DIGITS = 7;
@@ -103,10 +104,14 @@ export function formatValue(
   return kind === 'angle' ? `${text}°` : `${text} ${symbol}`;
 }
 
-/** A distribution factor (lanes per girder) as text: three decimals, as the code's examples print. */
+/**
+ * A distribution factor (lanes per girder) as text: the one rule of the review, the version
+ * comparison and the package (`factorText`, shared/lrfd/words.ts: 4 decimals), so a value on
+ * screen reads as it is printed everywhere else.
+ */
 export function formatFactor(value: number | undefined | null): string {
-  if (value === undefined || value === null || !Number.isFinite(value)) return '—';
-  return value.toFixed(3);
+  if (value === undefined || value === null) return '—';
+  return factorText(value);
 }
 
 /** Helpers bound to a reactive unit system. */

@@ -85,7 +85,7 @@ async function handle(req: SolverRequest): Promise<void> {
       return;
     }
     case 'envelopes':
-      post({ id, type: 'done', result: session.envelopes(req.girder, req.refined) });
+      post({ id, type: 'done', result: session.envelopes(req.girder) });
       return;
     case 'code-factors':
       post({ id, type: 'done', result: SolverSession.codeFactorRows(req.deck) });

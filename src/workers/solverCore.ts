@@ -43,6 +43,7 @@ import { girderLiveLoadEffects } from '../../shared/loads/girderEffects';
 import { deckGirderEffects } from '../../shared/loads/deckEffects';
 import { REFINED_SEGMENTS_PER_SPAN, computeRefinedFactors, girderMomentPoint, sampleSurfaces, type RefinedResult } from '../../shared/grillage/refinedFactors';
 import { compareFactors, type FactorComparison } from '../../shared/grillage/compare';
+import { governingPerGirder } from '../../shared/review/reductions';
 
 export type VehicleKey = 'design truck' | 'design tandem' | 'fatigue truck';
 export type StudyEffect = 'moment' | 'shear';
@@ -193,6 +194,14 @@ export interface GirderEnvelopeSeries {
 }
 
 const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
+/** A girder's governing refined moment and shear factors in a span (governingPerGirder of the rows: one source with every table), or undefined without both. */
+function refinedFactorsOfSpan(rows: readonly FactorRow[], girder: number, span: number): { moment: number; shear: number } | undefined {
+  const own = governingPerGirder(rows).filter((f) => f.girder === girder + 1 && f.locationKey === `span${span + 1}`);
+  const moment = own.find((f) => f.effect === 'moment')?.value;
+  const shear = own.find((f) => f.effect === 'shear')?.value;
+  return moment !== undefined && shear !== undefined && moment >= 0 && shear >= 0 ? { moment, shear } : undefined;
+}
 
 function girderKindOf(girder: number, count: number): GirderKind {
   return girder === 0 || girder === count - 1 ? 'exterior' : 'interior';
@@ -529,9 +538,11 @@ export class SolverSession {
   /**
    * Girder LL+IM envelopes of one girder (the beam-line envelopes × its factors): the code
    * factors of its kind (interior or exterior) as shared/loads/deckEffects.ts applies them,
-   * and, when given, its refined (grillage) factors.
+   * and, once the refined run is computed, its refined (grillage) factors — the governing
+   * values of the girder in span 1 (governingPerGirder of the refined rows, the value every
+   * table shows), like the code series.
    */
-  envelopes(girder: number, refined?: { moment: number; shear: number }): GirderEnvelopeSeries[] {
+  envelopes(girder: number): GirderEnvelopeSeries[] {
     const { code, model, deck } = this.need();
     if (!this.beamLine) throw new DeckInputError(['deck'], 'no beam-line envelopes yet');
     const kind = girderKindOf(girder, model.girderCount);
@@ -549,13 +560,12 @@ export class SolverSession {
       shearMax: codeEffects.points.map((p) => p.shear.max.value),
       shearMin: codeEffects.points.map((p) => p.shear.min.value),
     });
-    if (refined && refined.moment >= 0 && refined.shear >= 0) {
+    const refined = this.refinedCache ? refinedFactorsOfSpan(this.refinedCache.refined.rows, girder, 0) : undefined;
+    if (refined) {
       const refinedEffects = girderLiveLoadEffects(this.beamLine, { moment: refined.moment, shear: refined.shear });
       series.push({
         girder,
-        label: this.studyState
-          ? `grillage factors of girder ${girder + 1} alone (moment at ${this.studyState.summary.momentFraction} of span ${this.studyState.summary.span + 1}, shear just inside support ${this.studyState.summary.shearSupport + 1}; the comparison's ${kind} rows take the largest of the ${kind} girders and of both span ends)`
-          : `grillage factors of girder ${girder + 1} alone`,
+        label: `grillage factors of girder ${girder + 1} (span 1, the governing values of the refined run: the moment at its governing tenth point, the shear at the larger of the span's ends)`,
         factors: { ...refined, source: 'grillage' },
         x: refinedEffects.points.map((p) => p.x),
         momentMax: refinedEffects.points.map((p) => p.moment.max.value),

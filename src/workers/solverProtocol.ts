@@ -26,7 +26,7 @@ export type SolverRequest =
   | { id: number; type: 'evaluate'; lanes: LanePlacement[]; effect: StudyEffect }
   | { id: number; type: 'governing'; girder: number; effect: StudyEffect; vehicle?: VehicleKey }
   | { id: number; type: 'surface-grid'; girder: number; effect: StudyEffect; nx: number; ny: number }
-  | { id: number; type: 'envelopes'; girder: number; refined?: { moment: number; shear: number } }
+  | { id: number; type: 'envelopes'; girder: number }
   | { id: number; type: 'code-factors'; deck: unknown }
   | { id: number; type: 'cancel'; target: number };
 

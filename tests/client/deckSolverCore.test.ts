@@ -19,6 +19,7 @@ import { checkPlacement, type LanePlacement } from '@shared/placement/rules';
 import { DESIGN_TRUCK } from '@shared/loads/vehicles';
 import { deckTemplate } from '@/components/deck/deckTemplates';
 import { BOUND_TARGET_LANES, BOUND_TARGET_PERCENT, REFINED_SEGMENTS_PER_SPAN } from '@shared/grillage/refinedFactors';
+import { governingPerGirder } from '@shared/review/reductions';
 
 /** The workspace's one-span precast starting deck (six girders, 110 ft, 20° skew). */
 const quarryCreekDeck = () => deckTemplate('precast-one-span').build();
@@ -104,13 +105,14 @@ describe('governing placements on a skewed deck agree with the refined run', () 
         expect(w.toleranceFactor / w.factor, `girder ${g + 1} ${effect} bound %`).toBeLessThanOrEqual(BOUND_TARGET_PERCENT / 100);
       }
     }
-    // the envelope tab says whose factors it uses and where they were read (a kind's row in the
-    // comparison takes the largest of that kind's girders and of both span ends)
-    const m = s.governing(0, 'moment');
-    const v = s.governing(0, 'shear');
-    const labels = s.envelopes(0, { moment: m.factor, shear: v.factor }).map((e) => e.label);
-    expect(labels[0]).toBe('code factors (exterior girders, span 1, the governing lane case)');
-    expect(labels[1]).toContain('grillage factors of girder 1 alone (moment at 0.5 of span 1, shear just inside support 1;');
+    // the envelope tab says whose factors it uses: the girder's governing refined values of span 1,
+    // the very values of the refined rows (governingPerGirder, as every table shows them)
+    const series = s.envelopes(0);
+    expect(series[0].label).toBe('code factors (exterior girders, span 1, the governing lane case)');
+    expect(series[1].label).toContain('grillage factors of girder 1 (span 1, the governing values of the refined run');
+    const own = governingPerGirder(refined.rows).filter((f) => f.girder === 1 && f.locationKey === 'span1');
+    expect(series[1].factors.moment).toBe(own.find((f) => f.effect === 'moment')!.value);
+    expect(series[1].factors.shear).toBe(own.find((f) => f.effect === 'shear')!.value);
   }, 120_000);
 });
 

@@ -2,14 +2,18 @@
 /**
  * Route guards by role: the rule (a pure function) and the real router, which must wait for
  * the first "who am I" answer before deciding. The roles that may open the firm-users screen
- * follow the API: /api/admin/users is admin only.
+ * follow the API: /api/admin/users is admin only. The not-allowed page names the roles that
+ * open the page and who can give one: the firm's administrator, or an administrator
+ * themselves on the Users page.
  */
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises, mount } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
 import { createMemoryHistory } from 'vue-router';
 import { decideAccess, safeRedirect, type AccessState } from '@/router/guards';
 import { createAppRouter } from '@/router';
 import type { Role } from '@/api/types';
+import NotAllowedView from '@/views/NotAllowedView.vue';
 
 const adminRoute = { name: 'admin-users', fullPath: '/admin/users', meta: { roles: ['admin'] as const }, query: {} };
 const projectsRoute = { name: 'projects', fullPath: '/projects', meta: {}, query: {} };
@@ -119,5 +123,49 @@ describe('the router with its guards', () => {
     await router.push('/projects/12');
     expect(router.currentRoute.value.name).toBe('sign-in');
     expect(router.currentRoute.value.query.redirect).toBe('/projects/12');
+  });
+});
+
+describe('the not-allowed page', () => {
+  const fetchMock = vi.fn<(input: string, init: RequestInit) => Promise<Response>>();
+  beforeEach(() => {
+    setActivePinia(createPinia());
+    fetchMock.mockReset();
+    vi.stubGlobal('fetch', fetchMock);
+  });
+  afterEach(() => vi.unstubAllGlobals());
+
+  async function refusedPage(roles: Role[], path: string) {
+    fetchMock.mockResolvedValue(
+      new Response(JSON.stringify({ user: { id: 1, email: 'a@larchmont-ridge.example', name: 'Avery Admin', firmId: 1, firmName: 'Larchmont Ridge Engineering', roles, mustChangePassword: false } }), {
+        status: 200,
+        headers: { 'Content-Type': 'application/json' },
+      }),
+    );
+    const router = createAppRouter(createMemoryHistory());
+    await router.push(path);
+    expect(router.currentRoute.value.name).toBe('not-allowed');
+    const wrapper = mount(NotAllowedView, { global: { plugins: [router] } });
+    await flushPromises();
+    return wrapper;
+  }
+
+  it('tells an administrator to add the role to their own account, with the way to the Users page', async () => {
+    const w = await refusedPage(['admin'], '/training');
+    expect(w.text()).toContain('Your roles (Admin) do not give access to /training.');
+    expect(w.text()).toContain('It is open to the Instructor or Trainee role.');
+    expect(w.get('[data-test="not-allowed-admin"]').text()).toContain('you can give yourself the role');
+    expect(w.find('[data-test="not-allowed-ask"]').exists()).toBe(false);
+    expect(w.get('[data-test="open-users"]').element.closest('a')!.getAttribute('href')).toBe('/admin/users');
+    w.unmount();
+  });
+
+  it('tells anyone else to ask the firm’s administrator', async () => {
+    const w = await refusedPage(['designer'], '/admin/users');
+    expect(w.text()).toContain('It is open to the Admin role.');
+    expect(w.get('[data-test="not-allowed-ask"]').text()).toContain("ask your firm's administrator");
+    expect(w.find('[data-test="not-allowed-admin"]').exists()).toBe(false);
+    expect(w.find('[data-test="open-users"]').exists()).toBe(false);
+    w.unmount();
   });
 });

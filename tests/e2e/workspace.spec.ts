@@ -11,7 +11,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
-import { DEMO_USERS, signIn, startHarness, type Harness } from './harness';
+import { join } from 'node:path';
+import { DEMO_USERS, SCREENSHOT_DIR, signIn, startHarness, type Harness } from './harness';
 
 /**
  * Lets a test hold the solver's answers: every page's Worker is wrapped so that, while
@@ -237,10 +238,42 @@ describe('deck workspace in the browser', () => {
     await waitForRefined(page);
     savedComparison = await comparisonValues(page);
     expect(Object.keys(savedComparison).length).toBeGreaterThan(10);
-    // The refined factor of the exterior girder's moment in the lane case that governs (one lane,
-    // or two since the template's diaphragms are in the grillage) is the governing value found here.
+    // One source per value: the panel's governing value of G1 in the span is the refined run's,
+    // written as the comparison writes it; it is the exterior moment of the lane case that
+    // governs (one lane, or two since the template's diaphragms are in the grillage), and the
+    // studied point (midspan, where the refined moment is read too) agrees with it within the
+    // stated bounds (about 0.001 lanes here).
+    const spanValue = await page.locator('[data-test="span-governing-value"]').innerText();
+    expect(spanValue).toMatch(/^\d\.\d{4}$/);
+    expect(await page.locator('[data-test="span-governing"]').innerText()).toMatch(/^Governing moment for G1 in span 1 \(0\.5 of the span\): \d\.\d{4} with [12] loaded lanes? \(design truck\)$/);
     const exterior = [savedComparison['cmp-exterior-moment-one-grillage'], savedComparison['cmp-exterior-moment-multiple-grillage']];
-    expect(exterior.some((c) => c?.includes(governing.toFixed(3))), exterior.join(' | ')).toBe(true);
+    expect(exterior.some((c) => c?.startsWith(`${spanValue}G`)), `${spanValue}: ${exterior.join(' | ')}`).toBe(true);
+    expect(Math.abs(Number(spanValue) - governing)).toBeLessThan(0.003);
+    // The trace of that cell computes the lane count its heading states and ends on its value.
+    const cell = exterior[0]?.startsWith(`${spanValue}G`) ? 'cmp-exterior-moment-one-grillage' : 'cmp-exterior-moment-multiple-grillage';
+    await page.locator(`[data-test="${cell}"]`).click();
+    const detail = page.locator('[data-test="grillage-detail"]');
+    const heading = /^(\d\.\d{4}) for girder \d+ with (\d) loaded lanes?/.exec(await detail.locator('p').first().innerText());
+    expect(heading?.[1]).toBe(spanValue);
+    const steps = detail.locator('[data-test="trace"] > li');
+    const last = await steps.last().innerText();
+    expect(last).toContain(`= ${spanValue}`);
+    expect(last).toContain(`${heading![2]} loaded lane${heading![2] === '1' ? '' : 's'}, design truck`);
+    expect(await steps.first().innerText()).toContain(`governing placement of ${heading![2]} loaded lane`);
+    expect(await steps.nth(1).innerText()).toMatch(/moment at \d+\.\d{2} ft along the girder/);
+    await page.locator(`[data-test="${cell}"]`).click();
+    // Shear: the span's value is the larger of its two ends; the studied point is one of them.
+    await page.locator('[data-test="study-effect"] label', { hasText: 'Shear' }).click();
+    await expect.poll(() => page.locator('[data-test="span-governing"]').innerText(), { timeout: 15_000 }).toMatch(/^Governing shear for G1 in span 1 \(support \d, (left|right) side\): \d\.\d{4}/);
+    const shearSpan = Number(await page.locator('[data-test="span-governing-value"]').innerText());
+    const shearHere = Number(await page.locator('[data-test="governing-value"]').innerText());
+    await page.locator('[data-test="governing-box"]').screenshot({ path: join(SCREENSHOT_DIR, 'workspace-03c-governing-shear.png') });
+    expect(shearHere).toBeLessThan(shearSpan + 0.003);
+    await page.locator('[data-test="study-effect"] label', { hasText: 'Moment' }).click();
+    await expect.poll(() => page.locator('[data-test="span-governing"]').innerText(), { timeout: 15_000 }).toMatch(/^Governing moment/);
+    // back to the governing placement of the moment, which the next steps save and reload
+    await page.locator('[data-test="move-to-governing"]').click();
+    await expect.poll(async () => (await shareOf(page, 1)).toFixed(6), { timeout: 15_000 }).toBe(savedShare.toFixed(6));
     // Every girder's row of the comparison (six girders, moment and shear, one and more lanes, fatigue).
     await page.locator('[data-test="comparison-mode"] label', { hasText: 'Every girder' }).click();
     expect(await page.locator('[data-test="comparison-per-girder"] tbody tr').count()).toBeGreaterThanOrEqual(6 * 6);

@@ -134,10 +134,46 @@ export function decisionConditions(db: Db, v: DeckVersionRow): RefinedClaimCondi
 /** The summary of version `v`; `refined` when the caller already has the version's refined results. */
 export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersionRow, refinedKnown?: RefinedResults, requester: Requester | null = null): Promise<RefinedSummary> {
   const { result: code, solverVersion, source } = codeResultsOf(db, v);
-  const deck = deckOf(v);
-  const count = code.derived.girderCount;
-  const skews = code.derived.skews;
+  const refined = refinedKnown ?? (await refinedResultsOf(db, pool, v, requester));
+  return summaryOf(code, deckOf(v), refined, { solverVersion, source });
+}
 
+/**
+ * The summary from a version's code result, deck and refined results (pure: the review, the
+ * package and the tests read it so). Every factor in it is passed through from those results:
+ * the code's governing values, and the refined results' governing factor per girder (their
+ * `factors`, governingPerGirder of the rows) beside the code's governing value of its kind.
+ */
+export function summaryOf(code: CodeFactorResult, deck: Deck, refined: RefinedResults, meta: { solverVersion: string; source: 'stored' | 'computed' }): RefinedSummary {
+  const skews = code.derived.skews;
+  const reductions = reductionsOf(code, deck, refined);
+  const largest = largestClaimableReduction(reductions);
+  const rangeFindings = code.findings.filter((f) => RANGE_CODES.has(f.code));
+  return {
+    caution: CAUTION,
+    solverVersion: meta.solverVersion,
+    source: meta.source,
+    deckName: code.deckName,
+    girderCount: code.derived.girderCount,
+    rangeFindings,
+    otherFindings: code.findings.filter((f) => !RANGE_CODES.has(f.code)),
+    skew: { supports: skews, largest: Math.max(...skews.map(Math.abs)), words: skewWords(skews), effects: skewEffects(code) },
+    governing: code.governing.map((g) => ({ girder: g.girder, effect: g.effect, location: g.location.description, value: g.value, reason: g.reason })),
+    refined: {
+      available: refined.factors !== null,
+      note: refined.note,
+      source: refined.source,
+      loads: loadingWords(deck.refinedLoading).formula,
+      ratios: ratioRows(code, refined),
+      momentReductions: reductions,
+      largestReduction: largest,
+    },
+    indicators: indicatorsOf(rangeFindings, skews, reductions, largest),
+  };
+}
+
+/** What the skew corrections did to each governing factor they changed. */
+function skewEffects(code: CodeFactorResult): SkewEffect[] {
   const effects: SkewEffect[] = [];
   for (const g of code.governing) {
     const row = code.factors.find((r) => r.id === g.rowId);
@@ -154,22 +190,32 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
       changePercent: ((row.value - row.baseValue) / row.baseValue) * 100,
     });
   }
+  return effects;
+}
 
-  const refined = refinedKnown ?? (await refinedResultsOf(db, pool, v, requester));
+/** Each girder's governing refined factor beside the code's governing value of its kind and place. */
+function ratioRows(code: CodeFactorResult, refined: RefinedResults): RatioRow[] {
   const ratios: RatioRow[] = [];
-  if (refined.factors) {
-    for (const f of refined.factors) {
-      if (!isRatioEffect(f.effect)) continue;
-      const c = codeFactorForGirder(code, f.girder, count, f.effect, f.locationKey);
-      if (!c || c.value <= 0) continue;
-      ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value, ...(f.vehicle ? { vehicle: f.vehicle } : {}), ...(f.bound ? { bound: f.bound } : {}) });
-    }
+  for (const f of refined.factors ?? []) {
+    if (!isRatioEffect(f.effect)) continue;
+    const c = codeFactorForGirder(code, f.girder, code.derived.girderCount, f.effect, f.locationKey);
+    if (!c || c.value <= 0) continue;
+    ratios.push({ girder: f.girder, girderKind: c.kind, effect: f.effect, locationKey: f.locationKey, location: f.location, refined: f.value, code: c.value, ratio: f.value / c.value, ...(f.vehicle ? { vehicle: f.vehicle } : {}), ...(f.bound ? { bound: f.bound } : {}) });
   }
-  const reductions = reductionsOf(code, deck, refined);
-  const largest = largestClaimableReduction(reductions);
+  return ratios;
+}
 
-  const rangeFindings = code.findings.filter((f) => RANGE_CODES.has(f.code));
-  const otherFindings = code.findings.filter((f) => !RANGE_CODES.has(f.code));
+const WITHHELD_INDICATOR_WORDS: Record<string, string> = {
+  'bound-misses-target': 'their stated bounds miss the target of 0.005 lanes and 0.5 %',
+  'bound-unknown': 'the stored result predates bound statements',
+  'convergence-unknown': 'the mesh was not checked at twice its density',
+  'mesh-unconverged': 'the factors change by more than 1 % at twice the mesh density',
+  'diaphragms-left-out': 'the grillage leaves out the deck’s diaphragms or cross-frames',
+  'mesh-aspect-ratio': 'a grid panel of the mesh is more elongated than Art. 4.6.3.3.1 allows (aspect ratio above 5.0)',
+};
+
+/** A short reading of the figures for the reviewer (not a decision). */
+function indicatorsOf(rangeFindings: Finding[], skews: number[], reductions: MomentReduction[], largest: MomentReduction | null): string[] {
   const indicators: string[] = [];
   const fallbacks = rangeFindings.filter((f) => f.code === 'fallback').length;
   const outside = rangeFindings.filter((f) => f.code === 'out-of-range').length;
@@ -188,38 +234,9 @@ export async function refinedSummaryOf(db: Db, pool: RefinedPool, v: DeckVersion
   const withheld = reductions.filter((r) => r.designGirder === r.girder && !r.claimable);
   if (!largest && withheld.length) {
     const why = [...new Set(withheld.flatMap((r) => r.withheld))];
-    const words: Record<string, string> = {
-      'bound-misses-target': 'their stated bounds miss the target of 0.005 lanes and 0.5 %',
-      'bound-unknown': 'the stored result predates bound statements',
-      'convergence-unknown': 'the mesh was not checked at twice its density',
-      'mesh-unconverged': 'the factors change by more than 1 % at twice the mesh density',
-      'diaphragms-left-out': 'the grillage leaves out the deck’s diaphragms or cross-frames',
-      'mesh-aspect-ratio': 'a grid panel of the mesh is more elongated than Art. 4.6.3.3.1 allows (aspect ratio above 5.0)',
-    };
-    indicators.push(`The refined moment factors cannot back a reduction: ${why.map((w) => words[w] ?? w).join('; ')} (see the reduction table).`);
+    indicators.push(`The refined moment factors cannot back a reduction: ${why.map((w) => WITHHELD_INDICATOR_WORDS[w] ?? w).join('; ')} (see the reduction table).`);
   }
-
-  return {
-    caution: CAUTION,
-    solverVersion,
-    source,
-    deckName: code.deckName,
-    girderCount: count,
-    rangeFindings,
-    otherFindings,
-    skew: { supports: skews, largest: maxSkew, words: skewWords(skews), effects },
-    governing: code.governing.map((g) => ({ girder: g.girder, effect: g.effect, location: g.location.description, value: g.value, reason: g.reason })),
-    refined: {
-      available: refined.factors !== null,
-      note: refined.note,
-      source: refined.source,
-      loads: loadingWords(deck.refinedLoading).formula,
-      ratios,
-      momentReductions: reductions,
-      largestReduction: largest,
-    },
-    indicators,
-  };
+  return indicators;
 }
 
 export { governingRow };

@@ -18,7 +18,7 @@
 import type { Deck } from '../../../shared/deck/schema.js';
 import { deckGeometry } from '../../../shared/deck/geometry.js';
 import { canLeaveOutSkew, governingChoice, rowQuantity, rowSkew, type Candidate, type CodeFactorResult, type FactorRow } from '../../../shared/lrfd/index.js';
-import { EFFECT_LABELS, METHOD_LABELS } from '../../../shared/lrfd/words.js';
+import { EFFECT_LABELS, METHOD_LABELS, factorText } from '../../../shared/lrfd/words.js';
 import type { TraceStep } from '../../../shared/trace.js';
 import { checkPlacement, evaluateTransverse, governingTransversePlacement, leverRuleLine, placementRulesForDeck, rigidSectionLine, wheelLines, type Placement } from '../../../shared/placement/index.js';
 import { ApiError } from '../../middleware/errors.js';
@@ -276,10 +276,10 @@ export function grade(deck: Deck, kind: string, params: unknown, expected: Expec
   });
   const passed = violations.length === 0 && checks.every((c) => c.passed);
   const first = checks[0];
-  const parts = [`Your value ${first.submitted.toFixed(4)} against the product's ${first.expected.toFixed(4)}: ${first.differencePercent.toFixed(2)} % apart (tolerance ${tolerancePercent} %).`];
+  const parts = [`Your value ${factorText(first.submitted)} against the product's ${factorText(first.expected)}: ${first.differencePercent.toFixed(2)} % apart (tolerance ${tolerancePercent} %).`];
   if (violations.length) parts.push(`Your placement breaks ${violations.length} rule${violations.length === 1 ? '' : 's'}: ${violations[0].message}.`);
   const pc = checks.find((c) => c.name === 'placement');
-  if (pc) parts.push(`Your placement gives ${pc.submitted.toFixed(4)} (${pc.differencePercent.toFixed(2)} % from the governing ${pc.expected.toFixed(4)}).`);
+  if (pc) parts.push(`Your placement gives ${factorText(pc.submitted)} (${pc.differencePercent.toFixed(2)} % from the governing ${factorText(pc.expected)}).`);
   const unmatched = stepMatches.filter((m) => m.traceIndex < expected.trace.length && m.traineeStep === null);
   if (body.steps.length && unmatched.length) parts.push(`First step without a matching value: “${unmatched[0].label}”.`);
   return { passed, tolerancePercent, checks, placementViolations: violations, stepMatches, summary: parts.join(' ') };

@@ -9,13 +9,15 @@ import { stepForDisplay, zeroIfNegligible, type TraceStep } from '@shared/trace'
 import { unitSymbol, type QuantityKind, type UnitSystem } from '@shared/units';
 import { formatValue } from '@/composables/useUnits';
 import { showLengths } from '@shared/quantities/inText';
+import { factorText } from '@shared/lrfd/words';
 
 /** A value of the step (input or result) in the reader's units. */
 export function traceValueText(value: number, kind: QuantityKind, units: UnitSystem): string {
   if (kind === 'none') {
     const v = zeroIfNegligible(value, 0, Math.abs(value) >= 100 ? 1 : 4);
     if (Number.isInteger(v)) return String(v);
-    return Math.abs(v) >= 100 ? v.toFixed(1) : v.toFixed(4);
+    // a factor reads as every other view writes it (factorText: 4 decimals)
+    return Math.abs(v) >= 100 ? v.toFixed(1) : factorText(v);
   }
   return formatValue(value, kind, units, { zeroBelowPrecision: true });
 }

@@ -3,7 +3,7 @@ import { toDisplay, unitSymbol, type QuantityKind, type UnitSystem } from '@shar
 import { zeroIfNegligible } from '@shared/trace';
 
 // The factor's words and its 4-decimal text are shared with the package and the version comparison.
-export { EFFECT_LABELS, METHOD_LABELS, factorText } from '@shared/lrfd/words';
+export { EFFECT_LABELS, METHOD_LABELS, boundText, factorText, ratioText } from '@shared/lrfd/words';
 
 /** An internal (SI) value shown in the project's unit system with its symbol. */
 export function quantityText(value: number, kind: QuantityKind, units: UnitSystem, decimals?: number): string {

@@ -21,6 +21,7 @@ import { DESIGN_TANDEM, DESIGN_TRUCK } from '../../../shared/loads/vehicles.js';
 import { placementRules } from '../../../shared/placement/rules.js';
 import { fromUs, toUs } from '../../../shared/units.js';
 import { quarryCreekDeck } from '../../fixtures/decks.js';
+import { showLengths } from '../../../shared/quantities/inText.js';
 
 const ft = fromUs.ft;
 
@@ -120,7 +121,9 @@ describe('refined factors under HL-93', () => {
     } catch (e) {
       expect(e).toBeInstanceOf(DeckInputError);
       expect((e as DeckInputError).issues[0].path).toEqual(['refinedLoading']);
-      expect((e as DeckInputError).message).toContain('narrower than the 10 ft width of the design lane load');
+      // the lengths are tokens, shown in the reader's units (shared/quantities/inText.ts)
+      expect(showLengths((e as DeckInputError).message, 'US')).toContain('are 9.00 ft wide, narrower than the 10.00 ft width of the design lane load');
+      expect(showLengths((e as DeckInputError).message, 'SI')).toContain('are 2.743 m wide, narrower than the 3.048 m width');
     }
     expect(() => assertLoadingFits('design-truck', { ...rules, laneWidth: ft(9) })).not.toThrow();
     expect(() => assertDeck({ ...quarryCreekDeck(), refinedLoading: 'permit' } as never)).toThrow(/refined loading must be 'design-truck' or 'hl93'/);

@@ -8,6 +8,7 @@
  * span; the pier moment −wL²/8 of two equal continuous spans under a uniform load over both
  * (three-moment equation). Identity: g × E_1 = E_g, the factor's own definition.
  */
+import { showLengths } from '../../../shared/quantities/inText.js';
 import { describe, expect, it } from 'vitest';
 import { assertDeck, DeckInputError } from '../../../shared/deck/schema.js';
 import { computeRefinedFactors } from '../../../shared/grillage/refinedFactors.js';
@@ -56,7 +57,8 @@ describe('the SI edition HL-93 load on the beam line', () => {
     } catch (e) {
       expect(e).toBeInstanceOf(DeckInputError);
       expect((e as DeckInputError).issues[0].path).toEqual(['refinedLoading']);
-      expect((e as DeckInputError).message).toContain('narrower than the 3000 mm width of the design lane load');
+      // lengths in the message are shown in the reader's units (shared/quantities/inText.ts)
+      expect(showLengths((e as DeckInputError).message, 'SI')).toContain('2.900 m wide, narrower than the 3.000 m width of the design lane load');
     }
   });
 });
