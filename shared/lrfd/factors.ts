@@ -676,7 +676,7 @@ function locationInits(en: Engine, loc: EffectLocation): FactorRowInit[] {
               rs.worksheet.cases.filter((_, i) => (lanes === 'one' ? i === 0 : i > 0)),
               cs,
               'Rigid-section check',
-              'AASHTO LRFD Art. 4.6.2.2.2d',
+              citeArticle(en.values, 'AASHTO LRFD Art. 4.6.2.2.2d'),
             ).map((st) => withScopeNote(momentLike ? st : { ...st, article: `${st.article}; applied to shear by Art. 4.6.2.2.3b` }, en.rigid)),
             rigidSection: rs.worksheet,
           };

@@ -277,5 +277,5 @@ export function leverRule(
     }`,
   }));
   const g = cases[governingCase];
-  return { value: g.value, loadedLanes: g.loadedLanes, worksheet, trace: closeOnGoverningCase(trace, cases, g, 'Lever rule', LEVER_ARTICLE) };
+  return { value: g.value, loadedLanes: g.loadedLanes, worksheet, trace: closeOnGoverningCase(trace, cases, g, 'Lever rule', citeArticle(values, LEVER_ARTICLE)) };
 }
