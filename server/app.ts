@@ -38,6 +38,8 @@ import { packagePoolFor, type PackagePool } from './compute/packagePool.js';
 import { databaseJobRecorder, failInterruptedJobs } from './compute/jobRecords.js';
 import { jobRouter, versionJobsRouter } from './api/jobs/jobRouter.js';
 import { versionFactorsRouter } from './api/decks/versionFactors.js';
+import { StudyRunner, interruptStudies } from './compute/studyRunner.js';
+import { projectStudiesRouter, studyRouter } from './api/studies/studyRouter.js';
 
 export interface AppDeps {
   db: Db;
@@ -51,6 +53,8 @@ export interface AppDeps {
   refinedPool?: RefinedPool;
   /** Worker pool that lays out the calculation packages; the caller closes it. Without one, the app makes its own from `config` (`app.locals.packagePool`). */
   packagePool?: PackagePool;
+  /** Runs the parameter studies; the caller closes it. Without one, the app makes its own (`app.locals.studyRunner`). */
+  studyRunner?: StudyRunner;
 }
 
 /** Helmet's headers; HSTS and upgrade-insecure-requests only when served over HTTPS. */
@@ -69,7 +73,7 @@ function securityHeaders(config: Config) {
   });
 }
 
-export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir, refinedPool, packagePool }: AppDeps): Express {
+export function createApp({ db, config, log = (l) => console.log(l), mailer = disabledMailer(log, 'no mailer configured'), attachmentsDir, refinedPool, packagePool, studyRunner }: AppDeps): Express {
   const app = express();
   const pool = refinedPool ?? refinedPoolFor(config);
   app.locals.refinedPool = pool;
@@ -78,6 +82,11 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   // Jobs a stopped server left unfinished are failed with the reason; every new one is recorded.
   const interrupted = failInterruptedJobs(db);
   if (interrupted > 0) log(`${interrupted} compute job(s) left unfinished by the last run of the server were marked failed`);
+  // Studies a stopped server left running keep their points and may be resumed.
+  const stopped = interruptStudies(db);
+  if (stopped > 0) log(`${stopped} study(ies) left running by the last run of the server were marked interrupted (resumable)`);
+  const studiesRunner = studyRunner ?? new StudyRunner(db, { threads: config.refinedThreads, workerMemoryMb: config.refinedWorkerMemoryMb, maxNodeGirders: config.refinedMaxNodeGirders, log });
+  app.locals.studyRunner = studiesRunner;
   const recorder = databaseJobRecorder(db, log);
   pool.recordJobs(recorder);
   packages.recordJobs(recorder);
@@ -126,6 +135,8 @@ export function createApp({ db, config, log = (l) => console.log(l), mailer = di
   api.use('/reviews', reviewRouter(db, config, mailer, pool));
   api.use('/training', trainingRouter(db, config, mailer));
   api.use('/imports', importRouter(db, config));
+  api.use('/projects/:projectId/studies', projectStudiesRouter(db, studiesRunner));
+  api.use('/studies', studyRouter(db, studiesRunner));
   api.use('/reports', reportRouter(db, pool, packages));
   api.use(notFoundHandler);
   app.use('/api', api);

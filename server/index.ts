@@ -12,6 +12,7 @@ import { startMail } from './mail/setup.js';
 import { closePasswordHashing, configurePasswordHashing } from './auth/password.js';
 import { refinedPoolFor } from './compute/refinedPool.js';
 import { packagePoolFor } from './compute/packagePool.js';
+import type { StudyRunner } from './compute/studyRunner.js';
 import { startPeriodicBackup } from './backup/periodic.js';
 
 async function main() {
@@ -40,7 +41,7 @@ async function main() {
     stopping = true;
     console.log(`${signal}: closing connections…`);
     server.close(() => {
-      void Promise.allSettled([backups?.stop(), mail.close(), closePasswordHashing(), refinedPool.close(), packagePool.close()]).then(() => {
+      void Promise.allSettled([backups?.stop(), mail.close(), closePasswordHashing(), refinedPool.close(), packagePool.close(), (app.locals.studyRunner as StudyRunner).close()]).then(() => {
         db.$client.close();
         console.log('Deckshare stopped.');
         process.exit(0);

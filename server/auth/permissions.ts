@@ -38,6 +38,10 @@ export const PERMISSIONS = {
   'training:manage': ['instructor'],
   /** See one's own exercises and submit answers. */
   'training:submit': ['trainee'],
+  /** See a project's parameter studies, their points and their CSV. */
+  'study:read': ['admin', 'designer', 'reviewer', 'instructor'],
+  /** Start, cancel and resume a parameter study from a saved deck version. */
+  'study:create': ['designer', 'instructor'],
   /** Read the firm's outbox of e-mail notices (local mail service). */
   'mail:read': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;

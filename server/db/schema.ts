@@ -497,3 +497,60 @@ export type InvitationRow = typeof invitations.$inferSelect;
 export type AttachmentRow = typeof attachments.$inferSelect;
 export type AssignmentRow = typeof assignments.$inferSelect;
 export type SubmissionRow = typeof submissions.$inferSelect;
+
+export const STUDY_STATES = ['running', 'done', 'cancelled', 'interrupted'] as const;
+export type StudyState = (typeof STUDY_STATES)[number];
+
+/**
+ * A parameter study (shared/studies/sweep.ts): a sweep over a saved deck version, computed
+ * point by point in the server's worker threads (server/compute/studyRunner.ts). 'interrupted':
+ * a stopped server left it running; its finished points are kept and it can be resumed.
+ */
+export const studies = sqliteTable(
+  'studies',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    projectId: integer('project_id')
+      .notNull()
+      .references(() => projects.id),
+    versionId: integer('version_id')
+      .notNull()
+      .references(() => deckVersions.id),
+    name: text('name').notNull(),
+    /** The sweep (shared/studies/sweep.ts Sweep, internal SI units) as JSON. */
+    sweepJson: text('sweep_json').notNull(),
+    state: text('state', { enum: STUDY_STATES }).notNull().default('running'),
+    pointsTotal: integer('points_total').notNull(),
+    pointsDone: integer('points_done').notNull().default(0),
+    solverVersion: text('solver_version').notNull(),
+    createdBy: integer('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: text('created_at').notNull().default(now),
+    finishedAt: text('finished_at'),
+    /** Who cancelled it (name), when cancelled. */
+    cancelledBy: text('cancelled_by'),
+  },
+  (t) => [index('studies_project_idx').on(t.projectId)],
+);
+
+/** One computed point of a study: its parameter values, summary or the deck's error, solver version. */
+export const studyPoints = sqliteTable(
+  'study_points',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    studyId: integer('study_id')
+      .notNull()
+      .references(() => studies.id),
+    index: integer('point_index').notNull(),
+    /** The swept parameters' values at this point, internal units, as JSON. */
+    valuesJson: text('values_json').notNull(),
+    /** shared/studies/pointResult.ts PointSummary as JSON, or null when the deck is invalid here. */
+    summaryJson: text('summary_json'),
+    /** The deck's own error messages at this point. */
+    error: text('error'),
+    solverVersion: text('solver_version').notNull(),
+    createdAt: text('created_at').notNull().default(now),
+  },
+  (t) => [uniqueIndex('study_points_study_index_unique').on(t.studyId, t.index)],
+);

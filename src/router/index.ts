@@ -33,7 +33,7 @@ export const routes: RouteRecordRaw[] = [
     path: '/projects/:projectId(\\d+)/decks/new',
     name: 'deck-new',
     component: () => import('@/views/DeckWorkspaceView.vue'),
-    props: (route) => ({ projectId: Number(route.params.projectId) }),
+    props: (route) => ({ projectId: Number(route.params.projectId), fromStudy: route.query.study ? Number(route.query.study) : undefined, fromPoint: route.query.point ? Number(route.query.point) : undefined }),
     meta: { title: 'New deck', roles: ['admin', 'designer', 'instructor'] },
   },
   {
@@ -114,6 +114,13 @@ export const routes: RouteRecordRaw[] = [
     name: 'admin-users',
     component: () => import('@/views/AdminUsersView.vue'),
     meta: { title: 'Users', roles: ['admin'] },
+  },
+  {
+    path: '/studies/:studyId(\\d+)',
+    name: 'study',
+    component: () => import('@/views/StudyView.vue'),
+    props: (route) => ({ studyId: Number(route.params.studyId) }),
+    meta: { title: 'Study', roles: ['admin', 'designer', 'reviewer', 'instructor'] },
   },
   {
     path: '/not-allowed',

@@ -33,6 +33,10 @@ export const useAuthStore = defineStore('auth', () => {
   const canEditProjects = computed(() => hasAnyRole(['admin', 'designer']));
   /** Save decks and versions (API: admin, designer, instructor). */
   const canSaveDecks = computed(() => hasAnyRole(['admin', 'designer', 'instructor']));
+  /** See a project's parameter studies (API: admin, designer, reviewer, instructor). */
+  const canReadStudies = computed(() => hasAnyRole(['admin', 'designer', 'reviewer', 'instructor']));
+  /** Start, cancel and resume studies (API: designer, instructor). */
+  const canRunStudies = computed(() => hasAnyRole(['designer', 'instructor']));
   /** Read a project's audit trail (API: admin, reviewer, designer, instructor). */
   const canSeeAudit = computed(() => hasAnyRole(['admin', 'reviewer', 'designer', 'instructor']));
 
@@ -110,6 +114,8 @@ export const useAuthStore = defineStore('auth', () => {
     canEditProjects,
     canSaveDecks,
     canSeeAudit,
+    canReadStudies,
+    canRunStudies,
     hasRole,
     hasAnyRole,
     refresh,

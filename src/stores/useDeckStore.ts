@@ -160,6 +160,14 @@ export const useDeckStore = defineStore('deck', () => {
     resetPlacement();
   }
 
+  /** Starts an unsaved draft in the project from a given deck (a study's point): nothing is saved until the user saves. */
+  function startFromDeck(forProject: number, system: UnitSystem, deck: DeckInput): void {
+    startNew(forProject, system);
+    draft.value = JSON.parse(JSON.stringify(deck)) as DeckInput;
+    lastValidDeck.value = computableValidation.value.deck;
+    resetPlacement();
+  }
+
   /** Starts the draft from another template; the name typed so far (or none) is kept. */
   function useTemplate(template: DeckTemplateKey): void {
     if (mode.value === 'read-only') return;
@@ -318,6 +326,7 @@ export const useDeckStore = defineStore('deck', () => {
     studied,
     pendingPlacement,
     startNew,
+    startFromDeck,
     templateKey,
     useTemplate,
     open,

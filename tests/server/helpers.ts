@@ -45,6 +45,7 @@ export async function makeTestApp(overrides: Partial<Config> = {}): Promise<Test
     async close() {
       await refinedPool.close();
       await packagePool.close();
+      await (app.locals.studyRunner as { close(): Promise<void> }).close();
       db.$client.close();
       rmSync(dir, { recursive: true, force: true });
       // Worker threads stop (awaited, so the next app of this file starts a fresh pool); the

@@ -56,11 +56,22 @@ function envelopeProblem(res: Answer, blame: 'params' | 'query' | 'body' | null)
 
 const problems: string[] = [];
 
+/** Waits until no study computes in the background (an accepted sample request may start one, whose points are written later). */
+async function studiesIdle(): Promise<void> {
+  for (let i = 0; i < 400; i++) {
+    const running = ctx.db.$client.prepare("SELECT count(*) AS n FROM studies WHERE state = 'running'").get() as { n: number };
+    if (running.n === 0) return;
+    await new Promise((r) => setTimeout(r, 25));
+  }
+  throw new Error('a study still computes after 10 s');
+}
+
 /** Sends one request and records what is wrong with its answer and with the database after it. */
 async function probe(route: RouteInfo, label: string, blame: 'params' | 'query' | 'body' | null, go: (agent: Agent) => PromiseLike<Answer>) {
   const sample = samples[route.key];
   const agent = sample.anonymous ? (Object.assign(request.agent(ctx.app), { csrf: 'none' }) as Agent) : fuzzer;
   await ctx.mailer.idle();
+  await studiesIdle();
   const before = { counts: tableCounts(ctx.db), state: databaseState(ctx.db) };
   const res = await go(agent);
   await ctx.mailer.idle();

@@ -35,6 +35,10 @@ route('decks', 'deck:save', (a) => a.post(`/api/projects/${projectId}/decks`).se
 route('audit', 'audit:read', (a) => a.get(`/api/projects/${projectId}/audit`));
 route('admin users', 'users:manage', (a) => a.get('/api/admin/users'));
 route('admin users', 'users:manage', (a) => a.post('/api/admin/users').set('X-CSRF-Token', a.csrf).send({ email: `p${Math.random()}@x.example`, name: 'P', roles: ['trainee'] }));
+route('studies', 'study:read', (a) => a.get(`/api/projects/${projectId}/studies`));
+route('studies', 'study:create', (a) =>
+  a.post(`/api/projects/${projectId}/studies`).set('X-CSRF-Token', a.csrf).send({ name: 'perm', deckId, versionNumber: 1, sweep: { axes: [{ parameter: 'skew', values: { kind: 'list', values: [0] } }] } }),
+);
 
 const userRoles: Record<string, string[]> = {
   admin: ['admin'],

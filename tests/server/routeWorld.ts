@@ -32,6 +32,8 @@ export interface WorldIds {
   managedUserId: number;
   traineeId: number;
   reviewerId: number;
+  /** A two-point code-only study of the first version. */
+  studyId: number;
   /** A well-formed invitation token that names no invitation. */
   token: string;
 }
@@ -70,6 +72,16 @@ export async function buildWorld(ctx: WorkflowContext): Promise<WorldIds> {
   const managed = ok(await send.post(admin, '/api/admin/users', { email: 'managed@larchmont-ridge.example', name: 'Managed User', roles: ['designer'] }), 'user');
   const messages = await outbox(ctx);
   if (messages.length === 0) throw new Error('no outbox message');
+  const study = ok(
+    await send.post(designer, `/api/projects/${projectId}/studies`, { name: 'Skew sweep', deckId, versionNumber: 1, sweep: { axes: [{ parameter: 'skew', values: { kind: 'list', values: [0, 20] } }], grillage: 'none' } }),
+    'study',
+  );
+  // Its points are computed in the background: let it finish, so nothing is written while the tests look.
+  for (let i = 0; i < 200; i++) {
+    const now = await designer.get(`/api/studies/${study.body.study.id}`);
+    if (now.body.study.state !== 'running') break;
+    await new Promise((r) => setTimeout(r, 50));
+  }
   const jobId = ctx.db.insert(computeJobs).values({ kind: 'refined', versionId, requestedBy: null, state: 'done', solverVersion: SOLVER_VERSION }).returning().get().id;
   return {
     projectId,
@@ -85,6 +97,7 @@ export async function buildWorld(ctx: WorkflowContext): Promise<WorldIds> {
     managedUserId: managed.body.user.id,
     traineeId,
     reviewerId,
+    studyId: study.body.study.id,
     token: 'A'.repeat(43),
   };
 }
@@ -165,6 +178,13 @@ export function sampleRequests(ids: WorldIds): Record<string, SampleRequest> {
     'GET /api/reports/decks/:deckId/versions/:number/package.pdf': { params: version },
     'GET /api/reports/decks/:deckId/versions/:number/factors.csv': { params: version },
     'GET /api/reports/decks/:deckId/versions/:number/envelopes.csv': { params: version },
+    'GET /api/projects/:projectId/studies': { params: { projectId: ids.projectId } },
+    'POST /api/projects/:projectId/studies': { params: { projectId: ids.projectId }, body: { name: 'Spacing sweep', deckId: ids.deckId, versionNumber: 1, sweep: { axes: [{ parameter: 'overhang', values: { kind: 'range', from: 0.9, to: 1.2, step: 0.3 } }], grillage: 'none' } } },
+    'GET /api/studies/:studyId': { params: { studyId: ids.studyId } },
+    'POST /api/studies/:studyId/cancel': { params: { studyId: ids.studyId } },
+    'POST /api/studies/:studyId/resume': { params: { studyId: ids.studyId } },
+    'GET /api/studies/:studyId/points/:number/deck': { params: { studyId: ids.studyId, number: 1 } },
+    'GET /api/studies/:studyId/study.csv': { params: { studyId: ids.studyId } },
   };
 }
 
