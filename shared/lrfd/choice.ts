@@ -14,6 +14,7 @@
 import type { TraceInput, TraceStep } from '../trace.js';
 import type { FactorEffect, FactorMethod, FactorRow, GirderKind } from './factors.js';
 import type { Lanes } from './formula.js';
+import { METHOD_LABELS } from './words.js';
 
 /** One candidate value and what became of it. */
 export interface Candidate {
@@ -35,14 +36,8 @@ export interface GoverningChoice {
   step: TraceStep;
 }
 
-const METHOD_WORDS: Record<FactorMethod, string> = {
-  formula: 'empirical formula',
-  'lever-rule': 'lever rule',
-  'rigid-section': 'rigid-section check',
-  'equal-share': 'equal share m·NL/Nb',
-  'interior-minimum': 'interior girder value',
-  grillage: 'grillage analysis',
-};
+/** The app's words for each method (shared/lrfd/words.ts). */
+const METHOD_WORDS = METHOD_LABELS;
 
 const SYMBOL: Record<FactorMethod, string> = {
   formula: 'formula',
@@ -86,7 +81,6 @@ function caseRule(inCase: FactorRow[]): { text: string; article: string } {
   if (inCase.some((r) => r.method === 'rigid-section')) return { text: `the ${name} value is adopted: it is above the rigid-section floor`, article: 'AASHTO LRFD Art. 4.6.2.2.2d' };
   return { text: `the ${name} value is adopted: the largest candidate`, article: '' };
 }
-
 
 /**
  * The candidates and the rule for one girder kind, effect and location; `lanes` 'governing'
