@@ -20,10 +20,6 @@
  * than the larger bound, and the studied point's value does not exceed the span's by more.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import Papa from 'papaparse';
 import { assertDeck, type Deck } from '../../shared/deck/schema.js';
 import type { CodeFactorResult, FactorRow, GoverningFactor } from '../../shared/lrfd/factors.js';
@@ -37,6 +33,7 @@ import { comparisonLines, perGirderRows, type GoverningRecord } from '../../src/
 import { spanGoverning } from '../../src/components/factors/placementGoverning.js';
 import { expectedFactor } from '../../server/api/training/trainingQuestions.js';
 import { exampleDecks } from '../fixtures/exampleDecks.js';
+import { binary, pdfText } from './pdfText.js';
 import { demo, signIn, type Agent } from './helpers.js';
 import { makeWorkflowApp, send, userId, type WorkflowContext } from './workflowHelpers.js';
 
@@ -45,20 +42,6 @@ let designer: Agent;
 let reviewer: Agent;
 let projectId: number;
 
-function binary(res: { on(e: string, f: (c?: Buffer) => void): void }, cb: (e: Error | null, b: Buffer) => void) {
-  const chunks: Buffer[] = [];
-  res.on('data', (c) => chunks.push(c!));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-}
-
-function pdfText(pdf: Buffer): string {
-  const dir = mkdtempSync(join(tmpdir(), 'deckshare-pdf-'));
-  const file = join(dir, 'package.pdf');
-  writeFileSync(file, pdf);
-  const r = spawnSync('pdftotext', ['-enc', 'UTF-8', file, '-'], { encoding: 'utf8' });
-  if (r.error) throw new Error(`pdftotext is needed to read the PDF (apt-get install -y poppler-utils): ${r.error.message}`);
-  return r.stdout.replace(/\s+/g, ' ');
-}
 
 function readCsv(text: string): Record<string, string>[] {
   const lines = text.trimEnd().split('\r\n');

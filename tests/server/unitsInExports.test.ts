@@ -10,32 +10,15 @@
  * designValues, shared/loads/designValues.ts), whose traces name their own loads and lanes.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { exampleDecks } from '../fixtures/exampleDecks.js';
 import { unitsReport, type UnitSystem } from '../fixtures/unitsInText.js';
+import { binary, pdfText } from './pdfText.js';
 import { demo, signIn, type Agent } from './helpers.js';
 import { makeWorkflowApp, send, type WorkflowContext } from './workflowHelpers.js';
 
 let ctx: WorkflowContext;
 let designer: Agent;
 
-function binary(res: { on(e: string, f: (c?: Buffer) => void): void }, cb: (e: Error | null, b: Buffer) => void) {
-  const chunks: Buffer[] = [];
-  res.on('data', (c) => chunks.push(c!));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-}
-
-function pdfText(pdf: Buffer): string {
-  const dir = mkdtempSync(join(tmpdir(), 'deckshare-pdf-'));
-  const file = join(dir, 'package.pdf');
-  writeFileSync(file, pdf);
-  const r = spawnSync('pdftotext', ['-enc', 'UTF-8', file, '-'], { encoding: 'utf8' });
-  if (r.error) throw new Error(`pdftotext is needed to read the PDF (apt-get install -y poppler-utils): ${r.error.message}`);
-  return r.stdout.replace(/\s+/g, ' ');
-}
 
 const projects: Record<UnitSystem, number> = { US: 0, SI: 0 };
 
